@@ -1,0 +1,5 @@
+// The only entry point other folders import from core/.
+export * from './linalg/index';
+export * from './eigen/index';
+export * from './models/index';
+export * from './sheet/index';
