@@ -1,0 +1,32 @@
+# Shared set-up steps for scripts/start.sh, scripts/dev.sh and scripts/test.sh.
+# Each step does nothing when its work is already done, so the scripts are safe to re-run.
+
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+
+log() { printf '\033[1m[modewright]\033[0m %s\n' "$*"; }
+
+as_root() {
+  if [ "$(id -u)" = 0 ]; then "$@"; elif command -v sudo >/dev/null; then sudo "$@"; else
+    echo "[modewright] need root to run: $*" >&2; return 1; fi
+}
+
+# npm packages: install when node_modules is missing or older than the lockfile.
+ensure_npm_packages() {
+  if [ ! -f "$ROOT/node_modules/.package-lock.json" ] ||
+    [ "$ROOT/package-lock.json" -nt "$ROOT/node_modules/.package-lock.json" ]; then
+    log "installing npm packages (npm ci)"
+    (cd "$ROOT" && npm ci --no-audit --no-fund)
+  fi
+}
+
+# Debian packages: one apt run for everything missing (MariaDB always; Chromium when asked).
+ensure_debian_packages() {
+  local want=()
+  command -v mariadbd >/dev/null 2>&1 || [ -x /usr/sbin/mariadbd ] || want+=(mariadb-server)
+  if [ "${1:-}" = with-chromium ] && [ ! -x /usr/bin/chromium ]; then want+=(chromium); fi
+  if [ ${#want[@]} -gt 0 ]; then
+    log "installing Debian packages: ${want[*]}"
+    as_root apt-get update -qq
+    as_root env DEBIAN_FRONTEND=noninteractive apt-get install -y -qq "${want[@]}" >/dev/null
+  fi
+}
