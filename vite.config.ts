@@ -1,0 +1,26 @@
+import { fileURLToPath } from 'node:url';
+import { defineConfig } from 'vite';
+import react from '@vitejs/plugin-react';
+import tailwindcss from '@tailwindcss/vite';
+
+// The client lives in web/; the built files go to dist/client, which Express serves.
+// No dev proxy: `npm run dev` runs Vite in middleware mode inside the Express server.
+const webRoot = fileURLToPath(new URL('./web', import.meta.url));
+const outDir = fileURLToPath(new URL('./dist/client', import.meta.url));
+
+export default defineConfig({
+  root: webRoot,
+  publicDir: 'public',
+  plugins: [react(), tailwindcss()],
+  build: {
+    outDir,
+    emptyOutDir: true,
+    assetsDir: 'assets',
+    sourcemap: false,
+    // Every font is bundled as a file under /assets, never inlined (the CSP allows 'self').
+    assetsInlineLimit: 0,
+  },
+  server: {
+    host: '127.0.0.1',
+  },
+});

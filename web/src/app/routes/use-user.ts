@@ -1,0 +1,7 @@
+import { useOutletContext } from 'react-router-dom';
+import type { User } from '../../types/api';
+
+/** The signed-in person, inside a page under ProtectedLayout. */
+export function useSignedInUser(): User {
+  return useOutletContext<User>();
+}

@@ -1,0 +1,27 @@
+import type { ReactNode, TdHTMLAttributes, ThHTMLAttributes } from 'react';
+
+/** A ruled table in the sheet style: hairlines between rows, no zebra stripes. */
+export function Table({ caption, children }: { caption: string; children: ReactNode }) {
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full border-collapse text-left text-sm">
+        <caption className="sr-only">{caption}</caption>
+        {children}
+      </table>
+    </div>
+  );
+}
+
+export function Th({ className = '', ...rest }: ThHTMLAttributes<HTMLTableCellElement>) {
+  return (
+    <th
+      scope="col"
+      className={`border-b border-ink/70 px-3 py-2 text-xs font-semibold tracking-wide text-ink-soft uppercase ${className}`}
+      {...rest}
+    />
+  );
+}
+
+export function Td({ className = '', ...rest }: TdHTMLAttributes<HTMLTableCellElement>) {
+  return <td className={`border-b border-rule px-3 py-2 align-top ${className}`} {...rest} />;
+}

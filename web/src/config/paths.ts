@@ -1,0 +1,28 @@
+// Every client-side address in one place, so links and redirects agree.
+export const paths = {
+  signIn: {
+    path: '/sign-in',
+    href: (redirectTo?: string | null) =>
+      redirectTo && redirectTo !== '/'
+        ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}`
+        : '/sign-in',
+  },
+  projects: { path: '/', href: () => '/' },
+  project: {
+    path: '/projects/:projectId',
+    href: (projectId: number | string) => `/projects/${projectId}`,
+  },
+  admin: { path: '/admin', href: () => '/admin' },
+} as const;
+
+/**
+ * Only same-site paths are followed after sign-in; anything else (another host, `//evil`, a
+ * scheme) falls back to the projects list.
+ */
+export function safeRedirect(target: string | null | undefined): string {
+  if (!target || !target.startsWith('/') || target.startsWith('//') || target.startsWith('/\\')) {
+    return paths.projects.href();
+  }
+  if (target.startsWith(paths.signIn.path)) return paths.projects.href();
+  return target;
+}

@@ -1,0 +1,45 @@
+import { Spinner } from '../../../components/ui/spinner';
+import { QueryError } from '../../../components/ui/alert';
+import { EmptyState } from '../../../components/ui/empty-state';
+import { formatUtc } from '../../../lib/format';
+import { useProjectActivity } from '../api/get-project-activity';
+import { describeAction, describeDetails } from './describe-activity';
+
+export function ActivityList({ projectId }: { projectId: number }) {
+  const activity = useProjectActivity(projectId);
+
+  if (activity.isPending) return <Spinner label="Loading activity…" />;
+  if (activity.isError) {
+    return (
+      <QueryError what="the activity" error={activity.error} onRetry={() => activity.refetch()} />
+    );
+  }
+  if (activity.data.length === 0) return <EmptyState title="Nothing has happened here yet" />;
+
+  return (
+    <ol aria-label="Activity" className="flex flex-col">
+      {activity.data.map((entry) => {
+        const details = describeDetails(entry.details);
+        return (
+          <li
+            key={entry.id}
+            className="grid gap-x-4 border-b border-rule py-2 text-sm last:border-b-0 sm:grid-cols-[11rem_1fr]"
+          >
+            <time dateTime={entry.at} className="font-mono text-xs leading-5 text-ink-faint">
+              {formatUtc(entry.at)}
+            </time>
+            <div>
+              <p>
+                <span className="font-medium">{entry.actor?.name ?? 'Someone'}</span>{' '}
+                {describeAction(entry.action)}
+              </p>
+              {details.length > 0 ? (
+                <p className="text-xs text-ink-soft">{details.join(' · ')}</p>
+              ) : null}
+            </div>
+          </li>
+        );
+      })}
+    </ol>
+  );
+}

@@ -1,0 +1,91 @@
+import { ApiError } from '../../../lib/api-client';
+import { writeRequest } from './request';
+import type { Draft } from './types';
+
+export type EvaluationProgress = { message: string; fraction: number | null };
+export type EvaluationResponse = { results: unknown; digests?: unknown; engineVersion?: string };
+
+function progressOf(data: unknown): EvaluationProgress {
+  const d = (data ?? {}) as Record<string, unknown>;
+  const fraction =
+    typeof d.fraction === 'number'
+      ? d.fraction
+      : typeof d.done === 'number' && typeof d.total === 'number' && d.total > 0
+        ? d.done / d.total
+        : null;
+  const parts = [d.message, d.stage, d.blockId ? `block ${String(d.blockId)}` : null]
+    .filter((p) => typeof p === 'string' && p)
+    .map(String);
+  if (typeof d.iteration === 'number') parts.push(`iteration ${d.iteration}`);
+  if (typeof d.mode === 'number') parts.push(`mode ${d.mode}`);
+  return { message: parts.join(' · ') || 'Solving…', fraction };
+}
+
+/**
+ * Evaluates the editor's current text on the server over server-sent events: `progress` events
+ * while it works, then one `result` or `error`. Aborting the signal closes the connection, which
+ * the server takes as cancellation.
+ */
+export async function evaluateStream(
+  sheetId: number | string,
+  draft: Draft,
+  signal: AbortSignal,
+  onProgress: (progress: EvaluationProgress) => void,
+): Promise<EvaluationResponse> {
+  const response = await writeRequest('POST', `/api/sheets/${sheetId}/evaluate/stream`, {
+    body: JSON.stringify(draft),
+    headers: { 'Content-Type': 'application/json', Accept: 'text/event-stream' },
+    signal,
+  });
+  const type = response.headers.get('Content-Type') ?? '';
+  if (!type.includes('text/event-stream') || !response.body) {
+    // A server that answers in one piece is accepted as well.
+    return (await response.json()) as EvaluationResponse;
+  }
+  const reader = response.body.pipeThrough(new TextDecoderStream()).getReader();
+  let buffer = '';
+  for (;;) {
+    const { value, done } = await reader.read();
+    if (done) break;
+    buffer += value.replace(/\r\n/g, '\n');
+    let end = buffer.indexOf('\n\n');
+    while (end >= 0) {
+      const chunk = buffer.slice(0, end);
+      buffer = buffer.slice(end + 2);
+      end = buffer.indexOf('\n\n');
+      let event = 'message';
+      const data: string[] = [];
+      for (const line of chunk.split('\n')) {
+        if (line.startsWith('event:')) event = line.slice(6).trim();
+        else if (line.startsWith('data:')) data.push(line.slice(5).replace(/^ /, ''));
+      }
+      if (data.length === 0) continue;
+      let parsed: unknown;
+      try {
+        parsed = JSON.parse(data.join('\n'));
+      } catch {
+        parsed = data.join('\n');
+      }
+      if (event === 'progress') onProgress(progressOf(parsed));
+      else if (event === 'result') {
+        void reader.cancel();
+        return parsed as EvaluationResponse;
+      } else if (event === 'error') {
+        void reader.cancel();
+        const body = ((parsed as { error?: unknown })?.error ?? parsed) as Record<string, unknown>;
+        throw new ApiError(typeof body.status === 'number' ? body.status : 422, {
+          code: typeof body.code === 'string' ? body.code : 'EVALUATION_FAILED',
+          message: typeof body.message === 'string' ? body.message : 'The evaluation failed.',
+          ...(body.details && typeof body.details === 'object'
+            ? { details: body.details as Record<string, unknown> }
+            : {}),
+        });
+      }
+    }
+  }
+  throw new ApiError(0, {
+    code: 'STREAM_ENDED',
+    message:
+      'The server closed the evaluation before sending a result. Edit or press Run to retry.',
+  });
+}

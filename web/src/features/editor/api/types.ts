@@ -1,0 +1,48 @@
+// The shapes the sheets API sends (the sheets contract, issue 6). Times are ISO-8601 UTC strings.
+
+export const BLOCK_KINDS = ['text', 'calc', 'matrix', 'modes', 'criteria'] as const;
+export type BlockKind = (typeof BLOCK_KINDS)[number];
+
+export type Block = { id: string; kind: BlockKind; source: string };
+export type DraftSettings = { significantFigures: number };
+export type Draft = { blocks: Block[]; settings: DraftSettings };
+
+export type SheetStatus = 'draft' | 'in_check' | 'returned' | 'checked' | 'sealed';
+
+export type SheetDetail = {
+  id: number;
+  projectId: number;
+  number: string;
+  title: string;
+  subject: string | null;
+  status: SheetStatus;
+  latestRevision: { id: number; number: number; status: string } | null;
+  draftVersion: number;
+  updatedAt: string;
+  updatedBy: { id: number; name: string } | null;
+  draft: Draft;
+  projectJobNumber: string;
+  projectName: string;
+  myRoles: string[];
+};
+
+export type Upload = {
+  id: number;
+  name: string;
+  format: 'matrix-market' | 'csv';
+  size: number;
+  sha256: string;
+  rows: number;
+  cols: number;
+  nonzeros: number;
+  symmetric: boolean;
+  worstAsymmetry?: unknown;
+  createdAt: string;
+};
+
+/** What the server holds when a save is refused as stale (409 DRAFT_CONFLICT). */
+export type ConflictingDraft = Draft & {
+  draftVersion: number;
+  updatedAt: string;
+  updatedBy: { id: number; name: string } | null;
+};

@@ -1,0 +1,71 @@
+import { Link } from 'react-router-dom';
+import { Table, Td, Th } from '../../../components/ui/table';
+import { Spinner } from '../../../components/ui/spinner';
+import { QueryError } from '../../../components/ui/alert';
+import { EmptyState } from '../../../components/ui/empty-state';
+import { Badge } from '../../../components/ui/badge';
+import { paths } from '../../../config/paths';
+import { roleLabel } from '../../../config/words';
+import { useProjects } from '../api/get-projects';
+
+export function ProjectsTable({ isAdmin }: { isAdmin: boolean }) {
+  const projects = useProjects();
+
+  if (projects.isPending) return <Spinner label="Loading projects…" />;
+  if (projects.isError) {
+    return (
+      <QueryError what="the projects" error={projects.error} onRetry={() => projects.refetch()} />
+    );
+  }
+  if (projects.data.length === 0) {
+    return (
+      <EmptyState title="No projects yet">
+        {isAdmin
+          ? 'Start one with “New project”.'
+          : 'You are not a member of any project. An administrator can add you to one.'}
+      </EmptyState>
+    );
+  }
+
+  return (
+    <Table caption="Projects">
+      <thead>
+        <tr>
+          <Th>Job no.</Th>
+          <Th>Name</Th>
+          <Th>Client</Th>
+          <Th>Site</Th>
+          <Th>My roles</Th>
+        </tr>
+      </thead>
+      <tbody>
+        {projects.data.map((project) => (
+          <tr key={project.id} className="hover:bg-paper-deep/50">
+            <Td className="font-mono whitespace-nowrap">{project.jobNumber}</Td>
+            <Td>
+              <Link
+                to={paths.project.href(project.id)}
+                className="font-medium text-accent-strong underline-offset-2 hover:underline"
+              >
+                {project.name}
+              </Link>
+            </Td>
+            <Td>{project.client}</Td>
+            <Td>{project.site}</Td>
+            <Td>
+              {project.myRoles.length > 0 ? (
+                <span className="flex flex-wrap gap-1">
+                  {project.myRoles.map((role) => (
+                    <Badge key={role}>{roleLabel(role)}</Badge>
+                  ))}
+                </span>
+              ) : (
+                <span className="text-ink-faint">{isAdmin ? 'none (admin access)' : 'none'}</span>
+              )}
+            </Td>
+          </tr>
+        ))}
+      </tbody>
+    </Table>
+  );
+}
