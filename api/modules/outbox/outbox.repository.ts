@@ -1,0 +1,85 @@
+import type { DbOrTx } from '../../db/index';
+
+export interface OutboxMessage {
+  id: number;
+  to: string[];
+  from: string;
+  subject: string;
+  text: string;
+  kind: string | null;
+  createdAt: string;
+  relatedSheetId: number | null;
+}
+
+export interface NewOutboxMessage {
+  messageId: string | null;
+  from: string;
+  to: string[];
+  subject: string;
+  text: string;
+  kind: string | null;
+  relatedSheetId: number | null;
+}
+
+interface OutboxRow {
+  id: number;
+  from_address: string;
+  to_addresses: string;
+  subject: string;
+  text: string;
+  kind: string | null;
+  created_at: Date;
+  related_sheet_id: number | null;
+}
+
+function toMessage(row: OutboxRow): OutboxMessage {
+  return {
+    id: row.id,
+    to: row.to_addresses.split(',').filter((a) => a !== ''),
+    from: row.from_address,
+    subject: row.subject,
+    text: row.text,
+    kind: row.kind,
+    createdAt: new Date(row.created_at).toISOString(),
+    relatedSheetId: row.related_sheet_id,
+  };
+}
+
+export const outboxRepository = {
+  async insert(db: DbOrTx, message: NewOutboxMessage): Promise<number> {
+    const [id] = await db('outbox').insert({
+      message_id: message.messageId,
+      from_address: message.from,
+      to_addresses: message.to.join(','),
+      subject: message.subject,
+      text: message.text,
+      kind: message.kind,
+      related_sheet_id: message.relatedSheetId,
+    });
+    if (id === undefined) throw new Error('outbox insert returned no id');
+    return id;
+  },
+
+  async list(
+    db: DbOrTx,
+    filter: { relatedSheetId?: number; limit: number },
+  ): Promise<OutboxMessage[]> {
+    const q = db<OutboxRow>('outbox')
+      .select(
+        'id',
+        'from_address',
+        'to_addresses',
+        'subject',
+        'text',
+        'kind',
+        'created_at',
+        'related_sheet_id',
+      )
+      .orderBy('created_at', 'desc')
+      .orderBy('id', 'desc')
+      .limit(filter.limit);
+    if (filter.relatedSheetId !== undefined) q.where('related_sheet_id', filter.relatedSheetId);
+    const rows = (await q) as OutboxRow[];
+    return rows.map(toMessage);
+  },
+};
