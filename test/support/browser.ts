@@ -1,0 +1,104 @@
+// Browser helpers for test/e2e: Debian's Chromium driven by playwright-core, a fresh profile for
+// every launch (so no cookie leaks between people), demo sign-ins, and screenshots.
+import { existsSync } from 'node:fs';
+import { mkdir, mkdtemp, rm } from 'node:fs/promises';
+import os from 'node:os';
+import path from 'node:path';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { inject } from 'vitest';
+
+declare module 'vitest' {
+  export interface ProvidedContext {
+    /** The real app started by test/support/e2e-global-setup.ts, e.g. http://127.0.0.1:40123 */
+    e2eBaseUrl: string;
+  }
+}
+
+export const CHROMIUM_PATH = '/usr/bin/chromium';
+const SCREENSHOT_DIR = path.resolve(import.meta.dirname, '..', '..', 'test-results', 'screenshots');
+
+/** The demo scenario of the seeds (DESIGN.md §11, the foundation contract). */
+export const DEMO_PASSWORD = 'modewright-demo';
+export const demoPeople = {
+  ada: { name: 'Ada Brennan', email: 'ada.brennan@brackwater.example', isAdmin: true },
+  ines: { name: 'Ines Marlow', email: 'ines.marlow@brackwater.example', isAdmin: false },
+  tomasz: { name: 'Tomasz Reyes', email: 'tomasz.reyes@brackwater.example', isAdmin: false },
+  priya: { name: 'Priya Anand', email: 'priya.anand@brackwater.example', isAdmin: false },
+  lena: { name: 'Lena Ostrowski', email: 'lena.ostrowski@kestrelquay.example', isAdmin: false },
+} as const;
+export type DemoPerson = (typeof demoPeople)[keyof typeof demoPeople];
+
+export const demoProjects = {
+  footbridge: { jobNumber: 'BW-2611', name: 'Kestrel Quay Footbridge and Pump House' },
+  offices: { jobNumber: 'BW-2598', name: 'Linden Row Offices — Floor Vibration' },
+} as const;
+
+export function baseUrl(): string {
+  return inject('e2eBaseUrl');
+}
+
+export type BrowserSession = {
+  context: BrowserContext;
+  page: Page;
+  close(): Promise<void>;
+};
+
+/** Launches Chromium exactly as STACK.md ("Browser") says, with a new temporary profile. */
+export async function launchBrowser(): Promise<BrowserSession> {
+  if (!existsSync(CHROMIUM_PATH)) {
+    throw new Error(
+      `${CHROMIUM_PATH} is missing: install Debian's chromium package (npm test does this).`,
+    );
+  }
+  const profile = await mkdtemp(path.join(os.tmpdir(), 'modewright-e2e-'));
+  const context = await chromium.launchPersistentContext(profile, {
+    executablePath: CHROMIUM_PATH,
+    args: [
+      '--headless',
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
+    viewport: { width: 1280, height: 860 },
+    baseURL: baseUrl(),
+  });
+  context.setDefaultTimeout(15_000);
+  const page = context.pages()[0] ?? (await context.newPage());
+  return {
+    context,
+    page,
+    async close() {
+      await context.close();
+      await rm(profile, { recursive: true, force: true });
+    },
+  };
+}
+
+/** Opens the sign-in page and signs in; resolves once the signed-in shell is showing. */
+export async function signInAs(
+  page: Page,
+  person: { email: string; name: string },
+  password: string = DEMO_PASSWORD,
+): Promise<void> {
+  await page.goto('/sign-in');
+  await fillSignIn(page, person.email, password);
+  await page.getByText(`Signed in as ${person.name}`).waitFor();
+}
+
+export async function fillSignIn(page: Page, email: string, password: string): Promise<void> {
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+/** Saves a full-page screenshot to test-results/screenshots/<name>.png. */
+export async function saveScreenshot(page: Page, name: string): Promise<string> {
+  await mkdir(SCREENSHOT_DIR, { recursive: true });
+  const file = path.join(SCREENSHOT_DIR, `${name}.png`);
+  await page.screenshot({ path: file, fullPage: true });
+  return file;
+}
