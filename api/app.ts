@@ -1,0 +1,144 @@
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import express from 'express';
+import session from 'express-session';
+import helmet from 'helmet';
+import { loadConfig, type AppConfig } from './config/index';
+import { createDb, waitForDb } from './db/index';
+import { createSessionStore } from './db/session-store';
+import { loadSessionUser } from './http/auth';
+import type { AppContext } from './http/context';
+import { csrfProtection } from './http/csrf';
+import { apiNotFound, errorMiddleware } from './http/error-middleware';
+import { createLogger, requestLogger } from './http/logger';
+import { createActivityRouter } from './modules/activity/activity.routes';
+import { createAuthRouter, SESSION_COOKIE } from './modules/auth/auth.routes';
+import { createMembersRouter } from './modules/members/members.routes';
+import { createProjectsRouter } from './modules/projects/projects.routes';
+import { createUsersRouter } from './modules/users/users.routes';
+
+export interface AppOptions extends Partial<AppConfig> {
+  /** How often expired sessions are swept, in ms (0 turns the sweep off; tests do). */
+  sessionCleanupMs?: number;
+}
+
+export interface CreatedApp {
+  app: express.Express;
+  config: AppConfig;
+  close(): Promise<void>;
+}
+
+// The strict policy for the built client (STACK.md: CodeMirror and KaTeX need inline styles).
+const strictCsp = {
+  useDefaults: false,
+  directives: {
+    defaultSrc: ["'self'"],
+    styleSrc: ["'self'", "'unsafe-inline'"],
+    imgSrc: ["'self'", 'data:'],
+    fontSrc: ["'self'", 'data:'],
+    scriptSrc: ["'self'"],
+    connectSrc: ["'self'"],
+    objectSrc: ["'none'"],
+    frameAncestors: ["'none'"],
+    baseUri: ["'self'"],
+    formAction: ["'self'"],
+  },
+};
+
+/**
+ * Builds the app: the Knex pool (after MariaDB answers `select 1`), the session store in
+ * MariaDB, the API routers and the client (Vite middleware when config.dev, else dist/client).
+ * It does not listen; api/server.ts does.
+ */
+export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
+  const { sessionCleanupMs, ...overrides } = options;
+  const config = loadConfig(overrides);
+  const log = createLogger(config.logRequests);
+  const db = createDb(config.db);
+  const closers: (() => Promise<void> | void)[] = [() => db.destroy()];
+  const close = async () => {
+    for (const closer of closers.reverse()) await closer();
+  };
+
+  try {
+    await waitForDb(db, config.db);
+    const sessions = await createSessionStore(db, {
+      cleanupIntervalMs: sessionCleanupMs ?? 15 * 60 * 1000,
+      onError: (e) => log.error('session cleanup failed', e),
+    });
+    closers.push(() => sessions.close());
+
+    const ctx: AppContext = { db, config, log };
+    const app = express();
+    app.disable('x-powered-by');
+    app.set('trust proxy', false);
+
+    app.use(requestLogger(log));
+    app.use(
+      helmet({
+        contentSecurityPolicy: config.dev ? false : strictCsp,
+        // HSTS only means something behind HTTPS; on plain loopback it is noise.
+        strictTransportSecurity: config.secureCookies,
+      }),
+    );
+    app.use(express.json({ limit: config.bodyLimitBytes }));
+    app.use(
+      session({
+        name: SESSION_COOKIE,
+        store: sessions.store,
+        secret: config.sessionSecret,
+        resave: false,
+        saveUninitialized: false,
+        rolling: true,
+        cookie: {
+          httpOnly: true,
+          sameSite: 'lax',
+          secure: config.secureCookies,
+          maxAge: 12 * 60 * 60 * 1000,
+          path: '/',
+        },
+      }),
+    );
+
+    const api = express.Router();
+    api.use(csrfProtection);
+    api.use(loadSessionUser(db));
+    api.use('/auth', createAuthRouter(ctx));
+    api.use('/users', createUsersRouter(ctx));
+    api.use('/projects/:projectId/members', createMembersRouter(ctx));
+    api.use('/projects/:projectId/activity', createActivityRouter(ctx));
+    api.use('/projects', createProjectsRouter(ctx));
+    api.use(apiNotFound);
+    app.use('/api', api);
+
+    if (config.dev) {
+      const { createServer } = await import('vite');
+      const vite = await createServer({ server: { middlewareMode: true }, appType: 'spa' });
+      closers.push(() => vite.close());
+      app.use(vite.middlewares);
+    } else {
+      mountBuiltClient(app, config.clientDir);
+    }
+
+    app.use(errorMiddleware(log));
+    return { app, config, close };
+  } catch (e) {
+    await close();
+    throw e;
+  }
+}
+
+function mountBuiltClient(app: express.Express, clientDir: string): void {
+  const indexHtml = path.join(clientDir, 'index.html');
+  app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+  app.get('/{*splat}', (_req, res) => {
+    if (existsSync(indexHtml)) {
+      res.set('Cache-Control', 'no-cache').sendFile(indexHtml);
+    } else {
+      res
+        .status(503)
+        .type('text/plain')
+        .send('The client is not built yet: run npm run build, then reload this page.');
+    }
+  });
+}

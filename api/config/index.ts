@@ -1,0 +1,91 @@
+import { randomBytes } from 'node:crypto';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
+
+/** Everything the server reads from the environment, with the defaults of DEVELOPERS.md. */
+export interface AppConfig {
+  host: string;
+  port: number;
+  db: { host: string; port: number; name: string; user: string; password: string };
+  sessionSecret: string;
+  /** Mount Vite in middleware mode (hot reload) instead of serving dist/client. */
+  dev: boolean;
+  secureCookies: boolean;
+  /** Sign-in attempts allowed per client IP and e-mail within signinWindowMs. */
+  signinLimit: number;
+  signinWindowMs: number;
+  dataDir: string;
+  /** Folder of the built client; served with an SPA fallback when present. */
+  clientDir: string;
+  /** Log one line per request to stdout. */
+  logRequests: boolean;
+  /** Largest JSON body accepted, in bytes. */
+  bodyLimitBytes: number;
+}
+
+export const projectRoot = path.resolve(import.meta.dirname, '..', '..');
+
+function intFromEnv(name: string, fallback: number): number {
+  const raw = process.env[name];
+  if (raw === undefined || raw === '') return fallback;
+  const value = Number(raw);
+  if (!Number.isInteger(value) || value <= 0) {
+    throw new Error(`Environment variable ${name} must be a positive whole number, got "${raw}".`);
+  }
+  return value;
+}
+
+function resolveDataDir(): string {
+  const dir = process.env.MW_DATA_DIR ?? '.data';
+  return path.isAbsolute(dir) ? dir : path.join(projectRoot, dir);
+}
+
+/**
+ * The session secret: MW_SESSION_SECRET, or a random one generated once and kept in
+ * <dataDir>/session-secret so that sessions survive restarts.
+ */
+function loadSessionSecret(dataDir: string): string {
+  const fromEnv = process.env.MW_SESSION_SECRET;
+  if (fromEnv) return fromEnv;
+  const file = path.join(dataDir, 'session-secret');
+  try {
+    const stored = readFileSync(file, 'utf8').trim();
+    if (stored.length >= 32) return stored;
+  } catch {
+    // not there yet: made below
+  }
+  mkdirSync(dataDir, { recursive: true });
+  const secret = randomBytes(32).toString('hex');
+  try {
+    writeFileSync(file, secret + '\n', { mode: 0o600, flag: 'wx' });
+    return secret;
+  } catch {
+    // another process wrote it first: use theirs
+    return readFileSync(file, 'utf8').trim();
+  }
+}
+
+export function loadConfig(overrides: Partial<AppConfig> = {}): AppConfig {
+  const dataDir = overrides.dataDir ?? resolveDataDir();
+  const base: AppConfig = {
+    host: process.env.MW_HOST ?? '127.0.0.1',
+    port: intFromEnv('MW_PORT', 5180),
+    db: {
+      host: process.env.MW_DB_HOST ?? '127.0.0.1',
+      port: intFromEnv('MW_DB_PORT', 3407),
+      name: process.env.MW_DB_NAME ?? 'modewright',
+      user: process.env.MW_DB_USER ?? 'modewright',
+      password: process.env.MW_DB_PASSWORD ?? 'modewright-local',
+    },
+    sessionSecret: overrides.sessionSecret ?? loadSessionSecret(dataDir),
+    dev: process.env.MW_DEV === '1',
+    secureCookies: process.env.MW_SECURE_COOKIES === '1',
+    signinLimit: intFromEnv('MW_SIGNIN_LIMIT', 10),
+    signinWindowMs: 15 * 60 * 1000,
+    dataDir,
+    clientDir: path.join(projectRoot, 'dist', 'client'),
+    logRequests: process.env.MW_LOG_REQUESTS !== '0',
+    bodyLimitBytes: 1024 * 1024,
+  };
+  return { ...base, ...overrides, db: { ...base.db, ...overrides.db } };
+}

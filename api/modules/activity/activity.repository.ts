@@ -1,0 +1,85 @@
+import { readJson, type DbOrTx } from '../../db/index';
+
+export type ActivityAction =
+  | 'project.created'
+  | 'project.updated'
+  | 'member.added'
+  | 'member.roles_changed'
+  | 'member.removed'
+  | 'user.created'
+  | 'auth.signed_in'
+  | 'auth.signed_out';
+
+export interface NewActivity {
+  actorId: number | null;
+  projectId: number | null;
+  action: ActivityAction;
+  objectType: string;
+  objectId: number | null;
+  details: Record<string, unknown>;
+}
+
+export interface ActivityEntry {
+  id: number;
+  at: string;
+  actor: { id: number; name: string } | null;
+  action: string;
+  objectType: string;
+  objectId: number | null;
+  details: Record<string, unknown>;
+}
+
+interface ActivityRow {
+  id: number;
+  at: Date;
+  actor_id: number | null;
+  actor_name: string | null;
+  action: string;
+  object_type: string;
+  object_id: number | null;
+  details: unknown;
+}
+
+export const activityRepository = {
+  async insert(db: DbOrTx, entry: NewActivity): Promise<number> {
+    const [id] = await db('activity').insert({
+      actor_id: entry.actorId,
+      project_id: entry.projectId,
+      action: entry.action,
+      object_type: entry.objectType,
+      object_id: entry.objectId,
+      details: JSON.stringify(entry.details),
+    });
+    if (id === undefined) throw new Error('activity insert returned no id');
+    return id;
+  },
+
+  async listByProject(db: DbOrTx, projectId: number, limit: number): Promise<ActivityEntry[]> {
+    const rows: ActivityRow[] = await db('activity as a')
+      .leftJoin('users as u', 'u.id', 'a.actor_id')
+      .select(
+        'a.id',
+        'a.at',
+        'a.actor_id',
+        'u.name as actor_name',
+        'a.action',
+        'a.object_type',
+        'a.object_id',
+        'a.details',
+      )
+      .where('a.project_id', projectId)
+      .orderBy('a.at', 'desc')
+      .orderBy('a.id', 'desc')
+      .limit(limit);
+    return rows.map((row) => ({
+      id: Number(row.id),
+      at: new Date(row.at).toISOString(),
+      actor:
+        row.actor_id === null ? null : { id: row.actor_id, name: row.actor_name ?? '(removed)' },
+      action: row.action,
+      objectType: row.object_type,
+      objectId: row.object_id === null ? null : Number(row.object_id),
+      details: readJson<Record<string, unknown>>(row.details),
+    }));
+  },
+};

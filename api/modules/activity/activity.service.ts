@@ -1,0 +1,14 @@
+import type { Db, DbOrTx } from '../../db/index';
+import { activityRepository, type ActivityEntry, type NewActivity } from './activity.repository';
+
+export const activityService = {
+  /** Appends one row; called by other services inside their own transaction. */
+  record(db: DbOrTx, entry: NewActivity): Promise<number> {
+    return activityRepository.insert(db, entry);
+  },
+
+  /** Newest first. Authorization (member or admin) is checked by the route. */
+  listForProject(db: Db, projectId: number, limit = 200): Promise<ActivityEntry[]> {
+    return activityRepository.listByProject(db, projectId, limit);
+  },
+};

@@ -1,0 +1,84 @@
+import { Router, type Request } from 'express';
+import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
+import { currentUser, requireSignedIn } from '../../http/auth';
+import type { AppContext } from '../../http/context';
+import { ensureCsrfToken, newCsrfToken } from '../../http/csrf';
+import { RateLimitedError } from '../../http/errors';
+import { parse } from '../../http/validate';
+import { signInBody } from './auth.schemas';
+import { authService } from './auth.service';
+
+function regenerate(req: Request): Promise<void> {
+  return new Promise((resolve, reject) =>
+    req.session.regenerate((e) => (e ? reject(e) : resolve())),
+  );
+}
+
+function save(req: Request): Promise<void> {
+  return new Promise((resolve, reject) => req.session.save((e) => (e ? reject(e) : resolve())));
+}
+
+function destroy(req: Request): Promise<void> {
+  return new Promise((resolve, reject) => req.session.destroy((e) => (e ? reject(e) : resolve())));
+}
+
+export const SESSION_COOKIE = 'modewright.sid';
+
+export function createAuthRouter({ db, config }: AppContext): Router {
+  const router = Router();
+
+  // Failed attempts only count (a person signing in and out all day is not an attack); the key
+  // is the client address together with the e-mail tried.
+  const signInLimiter = rateLimit({
+    windowMs: config.signinWindowMs,
+    limit: config.signinLimit,
+    skipSuccessfulRequests: true,
+    standardHeaders: 'draft-7',
+    legacyHeaders: false,
+    keyGenerator: (req) => {
+      const email = typeof req.body?.email === 'string' ? req.body.email.trim().toLowerCase() : '';
+      return `${ipKeyGenerator(req.ip ?? 'unknown')}|${email}`;
+    },
+    handler: (_req, res, next) => {
+      const retryAfter = Number(res.getHeader('Retry-After')) || undefined;
+      const minutes = Math.max(1, Math.ceil((retryAfter ?? config.signinWindowMs / 1000) / 60));
+      next(
+        new RateLimitedError(
+          `Too many sign-in attempts for this e-mail address. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`,
+          retryAfter,
+        ),
+      );
+    },
+  });
+
+  router.get('/csrf', (req, res) => {
+    res.json({ csrfToken: ensureCsrfToken(req) });
+  });
+
+  router.post('/sign-in', signInLimiter, async (req, res) => {
+    const input = parse(signInBody, req.body);
+    const user = await authService.checkCredentials(db, input);
+    // A fresh session id at sign-in: a session id known before sign-in is worth nothing after.
+    await regenerate(req);
+    req.session.userId = user.id;
+    req.session.signedInAt = new Date().toISOString();
+    req.session.csrfToken = newCsrfToken();
+    await save(req);
+    await authService.recordSignedIn(db, user);
+    res.json({ user, csrfToken: req.session.csrfToken });
+  });
+
+  router.post('/sign-out', requireSignedIn, async (req, res) => {
+    const user = currentUser(req);
+    await authService.recordSignedOut(db, user);
+    await destroy(req);
+    res.clearCookie(SESSION_COOKIE, { path: '/', httpOnly: true, sameSite: 'lax' });
+    res.status(204).end();
+  });
+
+  router.get('/me', requireSignedIn, (req, res) => {
+    res.json({ user: currentUser(req) });
+  });
+
+  return router;
+}

@@ -1,0 +1,39 @@
+import { Router } from 'express';
+import { currentUser, requireAdmin, requireProjectRole } from '../../http/auth';
+import type { AppContext } from '../../http/context';
+import { parse } from '../../http/validate';
+import { projectParams } from '../projects/projects.schemas';
+import { addMemberBody, changeRolesBody, memberParams } from './members.schemas';
+import { membersService } from './members.service';
+
+/** Mounted at /api/projects/:projectId/members. */
+export function createMembersRouter({ db }: AppContext): Router {
+  const router = Router({ mergeParams: true });
+
+  router.get('/', requireProjectRole(db), async (req, res) => {
+    const { projectId } = parse(projectParams, req.params, 'params');
+    res.json({ members: await membersService.list(db, projectId) });
+  });
+
+  router.post('/', requireAdmin, async (req, res) => {
+    const { projectId } = parse(projectParams, req.params, 'params');
+    const input = parse(addMemberBody, req.body);
+    const member = await membersService.add(db, currentUser(req), projectId, input);
+    res.status(201).json({ member });
+  });
+
+  router.patch('/:userId', requireAdmin, async (req, res) => {
+    const { projectId, userId } = parse(memberParams, req.params, 'params');
+    const { roles } = parse(changeRolesBody, req.body);
+    const member = await membersService.changeRoles(db, currentUser(req), projectId, userId, roles);
+    res.json({ member });
+  });
+
+  router.delete('/:userId', requireAdmin, async (req, res) => {
+    const { projectId, userId } = parse(memberParams, req.params, 'params');
+    await membersService.remove(db, currentUser(req), projectId, userId);
+    res.status(204).end();
+  });
+
+  return router;
+}

@@ -1,0 +1,33 @@
+import { Router } from 'express';
+import { currentUser, requireAdmin, requireProjectRole, requireSignedIn } from '../../http/auth';
+import type { AppContext } from '../../http/context';
+import { parse } from '../../http/validate';
+import { createProjectBody, projectParams, updateProjectBody } from './projects.schemas';
+import { projectsService } from './projects.service';
+
+export function createProjectsRouter({ db }: AppContext): Router {
+  const router = Router();
+
+  router.get('/', requireSignedIn, async (req, res) => {
+    res.json({ projects: await projectsService.list(db, currentUser(req)) });
+  });
+
+  router.post('/', requireAdmin, async (req, res) => {
+    const input = parse(createProjectBody, req.body);
+    const project = await projectsService.create(db, currentUser(req), input);
+    res.status(201).json({ project });
+  });
+
+  router.get('/:projectId', requireProjectRole(db), async (req, res) => {
+    const { projectId } = parse(projectParams, req.params, 'params');
+    res.json({ project: await projectsService.get(db, currentUser(req), projectId) });
+  });
+
+  router.patch('/:projectId', requireAdmin, async (req, res) => {
+    const { projectId } = parse(projectParams, req.params, 'params');
+    const input = parse(updateProjectBody, req.body);
+    res.json({ project: await projectsService.update(db, currentUser(req), projectId, input) });
+  });
+
+  return router;
+}

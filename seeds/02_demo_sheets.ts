@@ -1,0 +1,119 @@
+import type { Knex } from 'knex';
+import { usersRepository } from '../api/modules/users/users.repository';
+import { findSheetById, type SheetBlock } from '../api/modules/sheets/sheets.repository';
+import type { TemplateKey } from '../api/modules/sheets/sheets.schemas';
+import { sheetsService } from '../api/modules/sheets/sheets.service';
+
+// The demo sheets of DESIGN §11 in project BW-2611 (Kestrel Quay Footbridge and Pump House),
+// authored by Ines Marlow: drafts built from the templates through the sheets service, with the
+// template's numbers replaced by this job's (invented) data. The review stages are added by
+// seeds/03_*. Safe to re-run: a sheet whose number already exists in the project is left as it is.
+
+interface DemoSheet {
+  number: string;
+  title: string;
+  subject: string;
+  template: TemplateKey;
+  /** Per block id: lines to replace, keyed by the text the template's line starts with. */
+  edits: Record<string, Record<string, string>>;
+}
+
+const demoSheets: DemoSheet[] = [
+  {
+    number: 'DYN-01',
+    title: 'East Basin footbridge — deck natural frequencies',
+    subject: 'Vertical and lateral modes of the 31.5 m main span for the pedestrian comfort check',
+    template: 'footbridge',
+    edits: {
+      'deck-data': {
+        'L = ': 'L = 31.5 m  # span, bearing to bearing (drawing KQ-S-210 rev C)',
+        'I_v = ': 'I_v = 0.052 m^4  # vertical bending, composite box girder',
+        'I_h = ': 'I_h = 0.140 m^4  # lateral bending, deck plate and box webs',
+        'm = ': 'm = 2.85 t/m  # steel 1.35, slab 1.10, surfacing 0.25, parapets and services 0.15',
+      },
+    },
+  },
+  {
+    number: 'DYN-02',
+    title: 'Pump house — four-storey frame, modal mass participation',
+    subject: 'Modes for the response spectrum analysis, east–west direction',
+    template: 'four-storey-frame',
+    edits: {
+      storeys: {
+        'h = ': 'h = 3.9 m  # storey height, levels 1 to roof',
+        'm_1 = ': 'm_1 = 236 t  # level 1: plant deck',
+        'm_2 = ': 'm_2 = 221 t  # level 2',
+        'm_3 = ': 'm_3 = 221 t  # level 3',
+        'm_4 = ': 'm_4 = 174 t  # roof with tank plinths',
+        'k_1 = ': 'k_1 = 342 kN/mm  # storey 1, base to level 1',
+        'k_2 = ': 'k_2 = 318 kN/mm',
+        'k_3 = ': 'k_3 = 290 kN/mm',
+        'k_4 = ': 'k_4 = 226 kN/mm',
+      },
+    },
+  },
+  {
+    number: 'DYN-03',
+    title: 'Pump house — fire-water pump foundation resonance check',
+    subject: 'Vertical modes of pump P-02 on its inertia block near the running speed',
+    template: 'pump-foundation',
+    edits: {
+      machine: {
+        'n_run = ': 'n_run = 1485 rpm  # running speed of P-02, four-pole motor on 50 Hz',
+        'm_block = ': 'm_block = 52.8 t  # inertia block 4.4 m x 2.5 m x 2.0 m',
+        'm_machine = ': 'm_machine = 6.9 t  # pump, motor and baseplate, vendor data sheet',
+        'k_soil = ': 'k_soil = 640 kN/mm  # vertical soil spring, ground report table 7',
+        'k_mount = ': 'k_mount = 310 kN/mm  # grout pads and anchors',
+      },
+      'near-running-speed': { 'shift: ': 'shift: 24.75 Hz' },
+    },
+  },
+];
+
+function applyEdits(
+  blocks: SheetBlock[],
+  edits: DemoSheet['edits'],
+  number: string,
+): SheetBlock[] {
+  return blocks.map((block) => {
+    const wanted = edits[block.id];
+    if (!wanted) return block;
+    const lines = block.source.split('\n');
+    for (const [prefix, replacement] of Object.entries(wanted)) {
+      const i = lines.findIndex((l) => l.startsWith(prefix));
+      if (i < 0) {
+        throw new Error(`seed ${number}: block ${block.id} has no line starting "${prefix}"`);
+      }
+      lines[i] = replacement;
+    }
+    return { ...block, source: lines.join('\n') };
+  });
+}
+
+export async function seed(knex: Knex): Promise<void> {
+  const project = (await knex('projects').where({ job_number: 'BW-2611' }).first('id')) as
+    | { id: number }
+    | undefined;
+  const ines = await usersRepository.findByEmail(knex, 'ines.marlow@brackwater.example');
+  if (!project || !ines) {
+    throw new Error('seeds/02_demo_sheets needs project BW-2611 and Ines Marlow from seeds/01.');
+  }
+  for (const demo of demoSheets) {
+    const exists = await knex('sheets')
+      .where({ project_id: project.id, number: demo.number })
+      .first('id');
+    if (exists) continue;
+    const sheet = await sheetsService.create(knex, ines, project.id, {
+      number: demo.number,
+      title: demo.title,
+      subject: demo.subject,
+      template: demo.template,
+    });
+    const current = await findSheetById(knex, sheet.id);
+    if (!current) throw new Error(`seed ${demo.number}: the sheet just made is missing`);
+    await sheetsService.saveDraft(knex, ines, sheet.id, current.draftVersion, {
+      blocks: applyEdits(current.draft.blocks, demo.edits, demo.number),
+      settings: current.draft.settings,
+    });
+  }
+}
