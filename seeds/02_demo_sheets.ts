@@ -70,11 +70,7 @@ const demoSheets: DemoSheet[] = [
   },
 ];
 
-function applyEdits(
-  blocks: SheetBlock[],
-  edits: DemoSheet['edits'],
-  number: string,
-): SheetBlock[] {
+function applyEdits(blocks: SheetBlock[], edits: DemoSheet['edits'], number: string): SheetBlock[] {
   return blocks.map((block) => {
     const wanted = edits[block.id];
     if (!wanted) return block;
@@ -92,8 +88,7 @@ function applyEdits(
 
 export async function seed(knex: Knex): Promise<void> {
   const project = (await knex('projects').where({ job_number: 'BW-2611' }).first('id')) as
-    | { id: number }
-    | undefined;
+    { id: number } | undefined;
   const ines = await usersRepository.findByEmail(knex, 'ines.marlow@brackwater.example');
   if (!project || !ines) {
     throw new Error('seeds/02_demo_sheets needs project BW-2611 and Ines Marlow from seeds/01.');
