@@ -40,6 +40,8 @@ export function baseUrl(): string {
 export type BrowserSession = {
   context: BrowserContext;
   page: Page;
+  /** Forgets every cookie, so the next sign-in starts from a signed-out browser. */
+  signOutLocally(): Promise<void>;
   close(): Promise<void>;
 };
 
@@ -71,6 +73,10 @@ export async function launchBrowser(): Promise<BrowserSession> {
   return {
     context,
     page,
+    async signOutLocally() {
+      await context.clearCookies();
+      await page.goto('about:blank');
+    },
     async close() {
       await context.close();
       await rm(profile, { recursive: true, force: true });

@@ -27,7 +27,7 @@ export function ProjectsRoute() {
       {user.isAdmin ? (
         <NewProject onCreated={(project) => navigate(paths.project.href(project.id))} />
       ) : null}
-      <Section title="All projects">
+      <Section title={user.isAdmin ? 'All projects' : 'My projects'}>
         <ProjectsTable isAdmin={user.isAdmin} />
       </Section>
     </div>
