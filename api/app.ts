@@ -4,7 +4,7 @@ import express from 'express';
 import session from 'express-session';
 import helmet from 'helmet';
 import { loadConfig, type AppConfig } from './config/index';
-import { createDb, waitForDb } from './db/index';
+import { createDb, waitForDb, type Db } from './db/index';
 import { createSessionStore } from './db/session-store';
 import { loadSessionUser } from './http/auth';
 import type { AppContext } from './http/context';
@@ -25,6 +25,8 @@ export interface AppOptions extends Partial<AppConfig> {
 export interface CreatedApp {
   app: express.Express;
   config: AppConfig;
+  /** The app's own pool; tests use it to check the rows written. */
+  db: Db;
   close(): Promise<void>;
 }
 
@@ -121,7 +123,7 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     }
 
     app.use(errorMiddleware(log));
-    return { app, config, close };
+    return { app, config, db, close };
   } catch (e) {
     await close();
     throw e;

@@ -1,0 +1,89 @@
+// The real app in-process for supertest, against the test database, plus clients that carry the
+// session cookie and the CSRF token the way the web client does.
+import request from 'supertest';
+import type { Knex } from 'knex';
+import { createApp, type AppOptions, type CreatedApp } from '../../api/app';
+
+export const TEST_SESSION_SECRET = 'test-session-secret-that-is-long-enough-0123456789';
+
+export interface TestApp extends CreatedApp {
+  db: Knex;
+}
+
+/** Builds the app against modewright_test (refusing any database not named *_test). */
+export async function createTestApp(options: AppOptions = {}): Promise<TestApp> {
+  const name = process.env.MW_DB_NAME ?? 'modewright_test';
+  if (!name.endsWith('_test')) {
+    throw new Error(`API tests run only against a *_test database, not "${name}".`);
+  }
+  process.env.MW_DB_NAME = name;
+  const created = await createApp({
+    sessionSecret: TEST_SESSION_SECRET,
+    logRequests: false,
+    sessionCleanupMs: 0,
+    signinLimit: 1000,
+    ...options,
+  });
+  return created;
+}
+
+type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
+
+/** A browser-like client: keeps cookies, sends X-CSRF-Token on every state-changing request. */
+export class ApiClient {
+  readonly agent: ReturnType<typeof request.agent>;
+  csrfToken = '';
+
+  constructor(readonly app: CreatedApp['app']) {
+    this.agent = request.agent(app);
+  }
+
+  /** Fetches a CSRF token (this creates the anonymous session). */
+  async init(): Promise<this> {
+    const res = await this.agent.get('/api/auth/csrf').expect(200);
+    this.csrfToken = res.body.csrfToken;
+    return this;
+  }
+
+  private send(method: Method, url: string, body?: unknown) {
+    const req = this.agent[method](url);
+    if (method !== 'get') req.set('X-CSRF-Token', this.csrfToken);
+    return body === undefined ? req : req.send(body as object);
+  }
+
+  get(url: string) {
+    return this.send('get', url);
+  }
+  post(url: string, body?: unknown) {
+    return this.send('post', url, body);
+  }
+  patch(url: string, body?: unknown) {
+    return this.send('patch', url, body);
+  }
+  delete(url: string) {
+    return this.send('delete', url);
+  }
+
+  /** Signs in (expecting success) and keeps the fresh token the server returns. */
+  async signIn(email: string, password: string): Promise<this> {
+    if (!this.csrfToken) await this.init();
+    const res = await this.post('/api/auth/sign-in', { email, password });
+    if (res.status !== 200) {
+      throw new Error(`sign-in of ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
+    }
+    this.csrfToken = res.body.csrfToken;
+    return this;
+  }
+}
+
+/** A signed-out client that already holds a CSRF token. */
+export function anonymous(app: CreatedApp['app']): Promise<ApiClient> {
+  return new ApiClient(app).init();
+}
+
+export function signedIn(
+  app: CreatedApp['app'],
+  person: { email: string; password: string },
+): Promise<ApiClient> {
+  return new ApiClient(app).signIn(person.email, person.password);
+}
