@@ -6,6 +6,7 @@ import { SignInRoute } from './routes/sign-in';
 import { ProjectsRoute } from './routes/projects';
 import { ProjectRoute } from './routes/project';
 import { AdminRoute } from './routes/admin';
+import { SheetRoute, sheetPath } from './routes/sheet';
 import { NotFoundRoute } from './routes/not-found';
 
 function createAppRouter() {
@@ -16,6 +17,7 @@ function createAppRouter() {
       children: [
         { index: true, element: <ProjectsRoute /> },
         { path: paths.project.path, element: <ProjectRoute /> },
+        { path: sheetPath, element: <SheetRoute /> },
         { path: paths.admin.path, element: <AdminRoute /> },
         { path: '*', element: <NotFoundRoute /> },
       ],

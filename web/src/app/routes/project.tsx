@@ -7,6 +7,9 @@ import { ProjectHeader } from '../../features/projects/components/project-header
 import { MembersTable } from '../../features/members/components/members-table';
 import { AddMemberForm } from '../../features/members/components/add-member-form';
 import { ActivityList } from '../../features/activity/components/activity-list';
+import { useProject } from '../../features/projects/api/get-project';
+import { SheetsTable } from '../../features/sheets/components/sheets-table';
+import { sheetHref } from './sheet';
 import { useSignedInUser } from './use-user';
 
 export function ProjectRoute() {
@@ -34,6 +37,7 @@ export function ProjectRoute() {
         </Link>
       </nav>
       <ProjectHeader projectId={projectId} canEdit={user.isAdmin} />
+      <ProjectSheets projectId={projectId} />
       <Section title="Members">
         <MembersTable projectId={projectId} canManage={user.isAdmin} />
         {user.isAdmin ? <AddMemberForm projectId={projectId} /> : null}
@@ -42,5 +46,16 @@ export function ProjectRoute() {
         <ActivityList projectId={projectId} />
       </Section>
     </div>
+  );
+}
+
+/** The project's sheets; authors (and only they) start new ones. */
+function ProjectSheets({ projectId }: { projectId: number }) {
+  const project = useProject(projectId);
+  const canCreate = project.data?.myRoles.includes('author') ?? false;
+  return (
+    <Section title="Sheets">
+      <SheetsTable projectId={projectId} canCreate={canCreate} sheetHref={sheetHref} />
+    </Section>
   );
 }

@@ -1,7 +1,7 @@
 // Names in scope for completion: scope flows top to bottom (DESIGN.md §4), so a block sees the
 // names defined above it and on its own earlier lines. Read from the sources (so completion works
 // before the first evaluation) and from the last results (which know the fields of objects).
-import type { BlockResult, SheetValue } from '../../../../core/index';
+import type { BlockResult, SheetValue } from '../api/results';
 import type { Block } from '../api/types';
 
 export type ScopeName = { label: string; detail: string };
@@ -81,7 +81,11 @@ export function namesInScope(
       });
     } else if (block.kind === 'matrix' && index < blockIndex) {
       const name = header(block.source, 'name');
-      if (name) add(name, `matrix${header(block.source, 'unit') ? `, ${header(block.source, 'unit')}` : ''}`);
+      if (name)
+        add(
+          name,
+          `matrix${header(block.source, 'unit') ? `, ${header(block.source, 'unit')}` : ''}`,
+        );
     } else if (block.kind === 'modes' && index < blockIndex) {
       const name = header(block.source, 'name');
       if (name) {

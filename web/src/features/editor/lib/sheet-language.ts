@@ -1,7 +1,12 @@
 // Highlighting for our block syntax (core/sheet/README.md), one small stream tokenizer per block
 // kind. The colours are the product's own (tailwind.config.ts), kept quiet: ink for names, the
 // accent for definitions and keys, a warm brown for units, faint for comments.
-import { HighlightStyle, StreamLanguage, syntaxHighlighting, type StringStream } from '@codemirror/language';
+import {
+  HighlightStyle,
+  StreamLanguage,
+  syntaxHighlighting,
+  type StringStream,
+} from '@codemirror/language';
 import { tags as t } from '@lezer/highlight';
 import type { Extension } from '@codemirror/state';
 import type { BlockKind } from '../api/types';
@@ -21,7 +26,15 @@ export const MODES_KEYS = [
 
 export const MATRIX_KEYS = ['name', 'unit', 'symmetric', 'from'] as const;
 
-export const MODES_METHODS = ['auto', 'inverse', 'forward', 'shifted', 'subspace', 'lanczos', 'dense'];
+export const MODES_METHODS = [
+  'auto',
+  'inverse',
+  'forward',
+  'shifted',
+  'subspace',
+  'lanczos',
+  'dense',
+];
 
 /** Functions the sheet language offers (mathjs built-ins engineers use, and our generators). */
 export const SHEET_FUNCTIONS = [
@@ -143,7 +156,11 @@ function keyValueToken(keys: readonly string[]) {
   };
 }
 
-const tokenTable = { unit: t.unit, def: t.definition(t.variableName), builtin: t.standard(t.function(t.variableName)) };
+const tokenTable = {
+  unit: t.unit,
+  def: t.definition(t.variableName),
+  builtin: t.standard(t.function(t.variableName)),
+};
 
 const calcLanguage = StreamLanguage.define<State>({
   name: 'modewright-calc',

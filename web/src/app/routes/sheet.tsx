@@ -1,0 +1,22 @@
+import { Link, useParams } from 'react-router-dom';
+import { Alert } from '../../components/ui/alert';
+import { paths } from '../../config/paths';
+import { SheetEditor } from '../../features/editor/components/sheet-editor';
+
+export const sheetPath = '/projects/:projectId/sheets/:sheetId';
+export const sheetHref = (projectId: number | string, sheetId: number | string) =>
+  `/projects/${projectId}/sheets/${sheetId}`;
+
+/** The sheet editor on the draft (issue 6). */
+export function SheetRoute() {
+  const { sheetId: raw } = useParams();
+  const sheetId = Number(raw);
+  if (!Number.isInteger(sheetId) || sheetId <= 0) {
+    return (
+      <Alert title="No such sheet.">
+        “{raw}” is not a sheet number. <Link to={paths.projects.href()}>Back to projects</Link>
+      </Alert>
+    );
+  }
+  return <SheetEditor sheetId={sheetId} projectHref={(id) => paths.project.href(id)} />;
+}

@@ -1,0 +1,192 @@
+import { useMemo, type DragEvent } from 'react';
+import type { BlockResult, SheetIssue } from '../api/results';
+import type { Block } from '../api/types';
+import { renderMarkdown } from '../lib/markdown';
+import type { ScopeName } from '../lib/scope';
+import { BlockSource } from './block-source';
+import { CalcResult } from './calc-result';
+import { CriteriaResult } from './criteria-result';
+import { MatrixResult } from './matrix-result';
+import { ModesResult } from './modes-result';
+
+export const KIND_LABELS: Record<Block['kind'], string> = {
+  text: 'Text',
+  calc: 'Calculation',
+  matrix: 'Matrix',
+  modes: 'Modes',
+  criteria: 'Criteria',
+};
+
+export type BlockCardProps = {
+  block: Block;
+  index: number;
+  count: number;
+  readOnly: boolean;
+  result: BlockResult | undefined;
+  issues: readonly SheetIssue[];
+  stale: boolean;
+  digits: number;
+  names: (line: number) => ScopeName[];
+  uploads: () => string[];
+  onChange: (source: string) => void;
+  onMove: (delta: -1 | 1) => void;
+  onDuplicate: () => void;
+  onDelete: () => void;
+  onDragStart: (event: DragEvent) => void;
+  onDragOver: (event: DragEvent) => void;
+  onDrop: (event: DragEvent) => void;
+  dropTarget: boolean;
+};
+
+function Results({ result, digits }: { result: BlockResult; digits: number }) {
+  switch (result.kind) {
+    case 'calc':
+      return <CalcResult result={result} />;
+    case 'matrix':
+      return <MatrixResult result={result} digits={digits} />;
+    case 'modes':
+      return <ModesResult result={result} digits={digits} />;
+    case 'criteria':
+      return <CriteriaResult result={result} />;
+    default:
+      return null;
+  }
+}
+
+const iconButton =
+  'rounded-sm px-1.5 py-0.5 text-xs text-ink-soft hover:bg-paper-deep hover:text-ink disabled:opacity-40 disabled:hover:bg-transparent';
+
+/** One block: its toolbar, its source in CodeMirror, its errors and its results underneath. */
+export function BlockCard(props: BlockCardProps) {
+  const { block, index, count, readOnly, result, issues, stale } = props;
+  const label = `Block ${index + 1}, ${KIND_LABELS[block.kind].toLowerCase()}`;
+  const markdown = useMemo(
+    () => (block.kind === 'text' ? renderMarkdown(block.source) : ''),
+    [block.kind, block.source],
+  );
+  return (
+    <section
+      aria-label={label}
+      data-block-id={block.id}
+      data-kind={block.kind}
+      onDragOver={props.onDragOver}
+      onDrop={props.onDrop}
+      className={`group rounded-sm border bg-paper-sheet shadow-sheet ${
+        props.dropTarget ? 'border-accent ring-2 ring-accent/30' : 'border-rule'
+      }`}
+    >
+      <header className="flex items-center gap-2 border-b border-rule px-2 py-1">
+        {!readOnly ? (
+          <button
+            type="button"
+            draggable
+            onDragStart={props.onDragStart}
+            onKeyDown={(e) => {
+              if (e.key === 'ArrowUp') {
+                e.preventDefault();
+                props.onMove(-1);
+              } else if (e.key === 'ArrowDown') {
+                e.preventDefault();
+                props.onMove(1);
+              }
+            }}
+            aria-label={`Move ${label.toLowerCase()} (drag, or arrow keys)`}
+            title="Drag to move, or focus and press ↑ / ↓"
+            className="cursor-grab px-1 text-ink-faint hover:text-ink"
+          >
+            ⠿
+          </button>
+        ) : null}
+        <span className="text-xs font-semibold tracking-wide text-ink-soft uppercase">
+          {KIND_LABELS[block.kind]}
+        </span>
+        <span className="num text-xs text-ink-faint">#{index + 1}</span>
+        {issues.length > 0 ? (
+          <span className="text-xs font-medium text-fail">
+            {issues.length} error{issues.length === 1 ? '' : 's'}
+          </span>
+        ) : null}
+        {!readOnly ? (
+          <div className="ml-auto flex items-center gap-0.5 opacity-70 group-focus-within:opacity-100 group-hover:opacity-100">
+            <button
+              type="button"
+              className={iconButton}
+              disabled={index === 0}
+              onClick={() => props.onMove(-1)}
+              aria-label={`Move ${label.toLowerCase()} up`}
+            >
+              ↑
+            </button>
+            <button
+              type="button"
+              className={iconButton}
+              disabled={index === count - 1}
+              onClick={() => props.onMove(1)}
+              aria-label={`Move ${label.toLowerCase()} down`}
+            >
+              ↓
+            </button>
+            <button
+              type="button"
+              className={iconButton}
+              onClick={props.onDuplicate}
+              aria-label={`Duplicate ${label.toLowerCase()}`}
+            >
+              Duplicate
+            </button>
+            <button
+              type="button"
+              className={`${iconButton} hover:text-fail`}
+              onClick={props.onDelete}
+              aria-label={`Delete ${label.toLowerCase()}`}
+            >
+              Delete
+            </button>
+          </div>
+        ) : null}
+      </header>
+      <div className="flex flex-col gap-2 p-2">
+        {!(readOnly && block.kind === 'text') ? (
+          <BlockSource
+            blockId={block.id}
+            kind={block.kind}
+            value={block.source}
+            readOnly={readOnly}
+            issues={issues}
+            onChange={props.onChange}
+            names={props.names}
+            uploads={props.uploads}
+            onMove={props.onMove}
+            label={`Source of ${label.toLowerCase()}`}
+          />
+        ) : null}
+        {issues.length > 0 ? (
+          <ul
+            className="flex flex-col gap-0.5 text-sm text-fail"
+            aria-label={`Errors in ${label.toLowerCase()}`}
+          >
+            {issues.map((issue, i) => (
+              <li key={i}>
+                {issue.line > 0 ? <span className="font-medium">Line {issue.line}: </span> : null}
+                {issue.message}
+              </li>
+            ))}
+          </ul>
+        ) : null}
+        {block.kind === 'text' ? (
+          <div
+            className="markdown px-1 text-sm leading-relaxed text-ink"
+            dangerouslySetInnerHTML={{ __html: markdown }}
+          />
+        ) : result ? (
+          <div
+            className={`px-1 transition-opacity ${stale ? 'opacity-60' : ''}`}
+            aria-live="polite"
+          >
+            <Results result={result} digits={props.digits} />
+          </div>
+        ) : null}
+      </div>
+    </section>
+  );
+}

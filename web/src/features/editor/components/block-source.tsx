@@ -1,0 +1,144 @@
+import { setDiagnostics, type Diagnostic } from '@codemirror/lint';
+import { Prec } from '@codemirror/state';
+import { EditorView, keymap } from '@codemirror/view';
+import CodeMirror from '@uiw/react-codemirror';
+import { useEffect, useMemo, useRef } from 'react';
+import type { SheetIssue } from '../api/results';
+import type { BlockKind } from '../api/types';
+import { sheetCompletion } from '../lib/completion';
+import type { ScopeName } from '../lib/scope';
+import { sheetLanguage } from '../lib/sheet-language';
+
+// The editor's own look: JetBrains Mono (CodeMirror's base theme would force `monospace`),
+// paper background, a thin gutter, the product's accent for the cursor and the selection.
+const theme = EditorView.theme({
+  '&': { fontSize: '13px', backgroundColor: '#fbf9f3', color: '#1d2126' },
+  '.cm-scroller': { fontFamily: '"JetBrains Mono", ui-monospace, monospace', lineHeight: '1.55' },
+  '.cm-content': { caretColor: '#154d42', padding: '4px 0' },
+  '.cm-gutters': {
+    backgroundColor: '#f4f0e6',
+    color: '#6f7379',
+    borderRight: '1px solid #d6cfbf',
+  },
+  '.cm-activeLine': { backgroundColor: 'rgba(31, 107, 92, 0.05)' },
+  '.cm-activeLineGutter': { backgroundColor: 'rgba(31, 107, 92, 0.10)' },
+  '&.cm-focused': { outline: 'none' },
+  '&.cm-focused .cm-selectionBackground, .cm-selectionBackground': {
+    backgroundColor: 'rgba(31, 107, 92, 0.18) !important',
+  },
+  '.cm-tooltip': {
+    fontFamily: '"IBM Plex Sans", system-ui, sans-serif',
+    border: '1px solid #a89f8b',
+    backgroundColor: '#fbf9f3',
+  },
+  '.cm-tooltip-autocomplete ul li[aria-selected]': { backgroundColor: '#1f6b5c', color: '#fbf9f3' },
+  '.cm-diagnostic-error': { borderLeft: '4px solid #a3261b' },
+  '.cm-lintRange-error': {
+    backgroundImage: 'none',
+    textDecoration: 'underline wavy #a3261b',
+    textUnderlineOffset: '3px',
+  },
+});
+
+export type BlockSourceProps = {
+  blockId: string;
+  kind: BlockKind;
+  value: string;
+  readOnly: boolean;
+  issues: readonly SheetIssue[];
+  onChange: (value: string) => void;
+  names: (line: number) => ScopeName[];
+  uploads: () => string[];
+  onMove: (delta: -1 | 1) => void;
+  label: string;
+};
+
+/** One block's source in CodeMirror, with our highlighting, completion and errors at their line. */
+export function BlockSource({
+  kind,
+  value,
+  readOnly,
+  issues,
+  onChange,
+  names,
+  uploads,
+  onMove,
+  label,
+}: BlockSourceProps) {
+  const view = useRef<EditorView | null>(null);
+  // Completion and the move keys read the latest callbacks without reconfiguring the editor.
+  const live = useRef({ names, uploads, onMove });
+  useEffect(() => {
+    live.current = { names, uploads, onMove };
+  });
+
+  const extensions = useMemo(
+    () => [
+      ...sheetLanguage(kind),
+      sheetCompletion(
+        kind,
+        (line) => live.current.names(line),
+        () => live.current.uploads(),
+      ),
+      theme,
+      EditorView.lineWrapping,
+      EditorView.contentAttributes.of({ 'aria-label': label }),
+      Prec.highest(
+        keymap.of([
+          { key: 'Mod-Shift-ArrowUp', run: () => (live.current.onMove(-1), true) },
+          { key: 'Mod-Shift-ArrowDown', run: () => (live.current.onMove(1), true) },
+        ]),
+      ),
+    ],
+    [kind, label],
+  );
+
+  // Errors from the last evaluation, underlined at their line; the message shows on hover.
+  useEffect(() => {
+    const v = view.current;
+    if (!v) return;
+    const doc = v.state.doc;
+    const diagnostics: Diagnostic[] = issues.map((issue) => {
+      const lineNo = Math.min(Math.max(issue.line, 1), doc.lines);
+      const line = doc.line(lineNo);
+      const from =
+        issue.line === 0 ? 0 : line.from + (line.text.length - line.text.trimStart().length);
+      const to = issue.line === 0 ? doc.line(1).to : line.to;
+      return {
+        from,
+        to: Math.max(to, from),
+        severity: 'error',
+        message: issue.line > 0 ? `Line ${issue.line}: ${issue.message}` : issue.message,
+        source: issue.code,
+      };
+    });
+    v.dispatch(setDiagnostics(v.state, diagnostics));
+  }, [issues, value]);
+
+  return (
+    <CodeMirror
+      value={value}
+      onChange={onChange}
+      extensions={extensions}
+      editable={!readOnly}
+      readOnly={readOnly}
+      theme="none"
+      basicSetup={{
+        lineNumbers: true,
+        foldGutter: false,
+        highlightActiveLine: !readOnly,
+        highlightActiveLineGutter: !readOnly,
+        autocompletion: false,
+        searchKeymap: false,
+        syntaxHighlighting: false,
+        bracketMatching: true,
+        closeBrackets: true,
+        lintKeymap: true,
+      }}
+      onCreateEditor={(created) => {
+        view.current = created;
+      }}
+      className="overflow-hidden rounded-sm border border-rule"
+    />
+  );
+}

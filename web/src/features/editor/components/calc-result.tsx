@@ -1,0 +1,31 @@
+import type { CalcBlockResult } from '../api/results';
+import { Tex } from './tex';
+
+/** Each calc line as written by hand: the formula, the values substituted, the result. */
+export function CalcResult({ result }: { result: CalcBlockResult }) {
+  if (result.lines.length === 0) return null;
+  return (
+    <ol className="divide-y divide-rule/60" aria-label="Calculation results">
+      {result.lines.map((line) => {
+        const parts = [line.latex.formula];
+        if (line.latex.substituted) parts.push(line.latex.substituted);
+        parts.push(line.latex.result);
+        return (
+          <li
+            key={line.line}
+            className="flex items-baseline justify-between gap-4 py-1"
+            data-line={line.line}
+          >
+            <span className="min-w-0 overflow-x-auto">
+              <Tex tex={parts.join(' = ')} />
+              <span className="sr-only"> result {line.display}</span>
+            </span>
+            {line.comment ? (
+              <span className="shrink-0 text-xs text-ink-faint">{line.comment}</span>
+            ) : null}
+          </li>
+        );
+      })}
+    </ol>
+  );
+}
