@@ -1,0 +1,132 @@
+/**
+ * `calc` blocks: one mathjs statement per line, `#` comments, blank lines allowed. Each line gives
+ * the formula as LaTeX, the formula with values substituted, and the result in a display unit.
+ */
+import type { MathNode } from 'mathjs';
+import { EngineError } from '../../errors';
+import {
+  checkSize,
+  evaluateNode,
+  formatContext,
+  isUnitName,
+  parseExpression,
+  report,
+  writtenUnits,
+  type EvalContext,
+} from '../context';
+import { formatValue } from '../format';
+import { expressionTex, latexName, substitutionTex } from '../latex';
+import { blockLines, splitComment } from '../source';
+import type { CalcBlockResult, CalcLineResult, SheetBlock } from '../types';
+
+/** The name an assignment defines (`k = …`, `K[1,1] = …`, `f(x) = …`), or null. */
+export function assignedName(node: MathNode): string | null {
+  if (node.type === 'AssignmentNode') {
+    const target = (node as unknown as { object: MathNode }).object;
+    if (target.type === 'SymbolNode') return (target as unknown as { name: string }).name;
+    return null;
+  }
+  if (node.type === 'FunctionAssignmentNode') return (node as unknown as { name: string }).name;
+  return null;
+}
+
+function texTools(ctx: EvalContext, node: MathNode, name: string | null, substitute: boolean) {
+  const substituted = { any: false };
+  return {
+    substituted,
+    tex: {
+      scope: ctx.scope,
+      format: formatContext(ctx, name, writtenUnits(ctx, node)),
+      substitute,
+      substituted,
+      isUnitName: (n: string) => isUnitName(ctx, n),
+      evaluate: (n: MathNode) => evaluateNode(ctx, n, new Map(ctx.scope)),
+      shown: ctx.shown,
+    },
+  };
+}
+
+/** Evaluates one calc line, updating the scope. Throws (rewritten by the caller) on error. */
+export function evaluateCalcLine(
+  ctx: EvalContext,
+  code: string,
+  line: number,
+  comment: string | null,
+): CalcLineResult {
+  const node = parseExpression(ctx, code);
+  const name = assignedName(node);
+  const rhs: MathNode =
+    node.type === 'AssignmentNode' ? (node as unknown as { value: MathNode }).value : node;
+  // LaTeX before evaluating, so substituted values are the ones this line used.
+  const formulaTex = texTools(ctx, node, name, false);
+  const formula =
+    node.type === 'AssignmentNode' && name
+      ? `${latexName(name)}=${expressionTex(rhs, formulaTex.tex)}`
+      : expressionTex(node, formulaTex.tex);
+  let substituted: string | null = null;
+  if (node.type !== 'FunctionAssignmentNode') {
+    const sub = texTools(ctx, rhs, name, true);
+    const t = expressionTex(rhs, sub.tex);
+    substituted = sub.substituted.any ? t : null;
+  }
+  const value = evaluateNode(ctx, node);
+  try {
+    checkSize(ctx, value);
+    const f = formatValue(value, formatContext(ctx, name, writtenUnits(ctx, node)));
+    if (name && node.type === 'AssignmentNode') {
+      ctx.shown.set(name, {
+        value,
+        latex: substitutionTex(value, f.latex, { format: formatContext(ctx, name) }),
+      });
+    }
+    return {
+      line,
+      source: code,
+      comment,
+      name,
+      latex: { formula, substituted, result: f.latex },
+      value: f.value,
+      display: f.display,
+    };
+  } catch (err) {
+    // The assignment happened; a line that fails must not leave its name behind.
+    if (name) ctx.scope.delete(name);
+    throw err;
+  }
+}
+
+export function evaluateCalcBlock(
+  ctx: EvalContext,
+  block: SheetBlock,
+  blockIndex: number,
+): CalcBlockResult {
+  const lines: CalcLineResult[] = [];
+  let ok = true;
+  blockLines(block.source).forEach((raw, i) => {
+    const line = i + 1;
+    const { code, comment } = splitComment(raw);
+    if (code.trim() === '') return;
+    let node: MathNode | null = null;
+    try {
+      node = parseExpression(ctx, code);
+      const name = assignedName(node);
+      try {
+        lines.push(evaluateCalcLine(ctx, code, line, comment));
+        if (name) ctx.failed.delete(name);
+      } catch (err) {
+        if (name) ctx.failed.set(name, { blockId: block.id, blockIndex, line });
+        throw err;
+      }
+    } catch (err) {
+      ok = false;
+      if (err instanceof EngineError && err.code === 'CANCELLED') throw err;
+      if (!node) {
+        // Unparsable: a line that looks like `name = …` still defines (a failed) name.
+        const m = /^\s*([A-Za-z_][A-Za-z0-9_]*)\s*=[^=]/.exec(code);
+        if (m) ctx.failed.set(m[1]!, { blockId: block.id, blockIndex, line });
+      }
+      report(ctx, { blockId: block.id, blockIndex, line }, err, node);
+    }
+  });
+  return { kind: 'calc', blockId: block.id, blockIndex, ok, lines };
+}

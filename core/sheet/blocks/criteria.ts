@@ -1,0 +1,106 @@
+/**
+ * `criteria` blocks: one expression per line that is true or false; the line's comment is its
+ * label. A criterion never assigns and never gives a number.
+ */
+import type { MathNode } from 'mathjs';
+import { EngineError } from '../../errors';
+import {
+  evaluateNode,
+  formatContext,
+  isUnitName,
+  parseExpression,
+  report,
+  writtenUnits,
+  type EvalContext,
+} from '../context';
+import { formatValue } from '../format';
+import { expressionTex } from '../latex';
+import { blockLines, splitComment } from '../source';
+import type { CriteriaBlockResult, CriterionResult, SheetBlock } from '../types';
+
+const COMPARISONS = new Set(['larger', 'smaller', 'largerEq', 'smallerEq', 'equal', 'unequal']);
+
+function sideDisplay(ctx: EvalContext, node: MathNode): string | null {
+  try {
+    const v = evaluateNode(ctx, node, new Map(ctx.scope));
+    return formatValue(v, formatContext(ctx, null, writtenUnits(ctx, node))).display;
+  } catch {
+    return null;
+  }
+}
+
+export function evaluateCriterion(
+  ctx: EvalContext,
+  code: string,
+  line: number,
+  comment: string | null,
+): CriterionResult {
+  const node = parseExpression(ctx, code);
+  if (node.type === 'AssignmentNode' || node.type === 'FunctionAssignmentNode') {
+    throw new EngineError(
+      'SHEET_EVAL',
+      'A criterion compares values; it cannot define a name. Move the assignment to a calc block.',
+    );
+  }
+  const value = evaluateNode(ctx, node, new Map(ctx.scope));
+  if (typeof value !== 'boolean') {
+    let shown: string;
+    try {
+      shown = ` it gives ${formatValue(value, formatContext(ctx, null, writtenUnits(ctx, node))).display}`;
+    } catch {
+      shown = ' it gives a value that is not true or false';
+    }
+    throw new EngineError(
+      'SHEET_EVAL',
+      `This criterion is not true or false:${shown}. Write a comparison such as "f_1 >= 3 Hz".`,
+    );
+  }
+  const op = node as unknown as { type: string; fn?: string; args?: MathNode[] };
+  let lhs: string | null = null;
+  let rhs: string | null = null;
+  if (op.type === 'OperatorNode' && op.fn && COMPARISONS.has(op.fn) && op.args?.length === 2) {
+    lhs = sideDisplay(ctx, op.args[0]!);
+    rhs = sideDisplay(ctx, op.args[1]!);
+  }
+  const latex = expressionTex(node, {
+    scope: ctx.scope,
+    format: formatContext(ctx, null, writtenUnits(ctx, node)),
+    substitute: false,
+    substituted: { any: false },
+    isUnitName: (n) => isUnitName(ctx, n),
+    evaluate: (n) => evaluateNode(ctx, n, new Map(ctx.scope)),
+  });
+  return {
+    line,
+    source: code,
+    label: comment && comment !== '' ? comment : code.trim(),
+    pass: value,
+    lhs,
+    rhs,
+    latex,
+  };
+}
+
+export function evaluateCriteriaBlock(
+  ctx: EvalContext,
+  block: SheetBlock,
+  blockIndex: number,
+): CriteriaBlockResult {
+  const criteria: CriterionResult[] = [];
+  let ok = true;
+  blockLines(block.source).forEach((raw, i) => {
+    const line = i + 1;
+    const { code, comment } = splitComment(raw);
+    if (code.trim() === '') return;
+    let node: MathNode | null = null;
+    try {
+      node = parseExpression(ctx, code);
+      criteria.push(evaluateCriterion(ctx, code, line, comment));
+    } catch (err) {
+      if (err instanceof EngineError && err.code === 'CANCELLED') throw err;
+      ok = false;
+      report(ctx, { blockId: block.id, blockIndex, line }, err, node);
+    }
+  });
+  return { kind: 'criteria', blockId: block.id, blockIndex, ok, criteria };
+}

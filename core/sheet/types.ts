@@ -1,0 +1,221 @@
+/**
+ * Types of a sheet's source and of its evaluated results. Every result type is plain JSON
+ * (numbers, strings, booleans, arrays, objects), so results can be stored, hashed, diffed and sent
+ * to the client as they are. See core/sheet/README.md for the block syntax.
+ */
+
+/** The five kinds of block (DESIGN.md §4). */
+export type BlockKind = 'text' | 'calc' | 'matrix' | 'modes' | 'criteria';
+
+export const BLOCK_KINDS: readonly BlockKind[] = ['text', 'calc', 'matrix', 'modes', 'criteria'];
+
+/** One block of a sheet's source. `id` is stable across revisions. */
+export interface SheetBlock {
+  id: string;
+  kind: BlockKind;
+  source: string;
+}
+
+export interface SheetSettings {
+  /** Significant figures of displayed results, 1–15. Default 4. */
+  significantFigures?: number;
+}
+
+/** A sheet's source: ordered blocks and its settings. */
+export interface Sheet {
+  blocks: SheetBlock[];
+  settings?: SheetSettings;
+}
+
+/** A file uploaded with the sheet, referred to from a matrix block by `from: <name>`. */
+export interface SheetUpload {
+  name: string;
+  text: string;
+}
+
+/** Where a message points: block (by id and 0-based index) and 1-based line within the block. */
+export interface SheetLocation {
+  blockId: string;
+  blockIndex: number;
+  /** 1-based line within the block's source; 0 for the block as a whole. */
+  line: number;
+}
+
+/** An error found while parsing or evaluating a sheet. Evaluation continues where it can. */
+export interface SheetIssue extends SheetLocation {
+  message: string;
+  /** UPPER_SNAKE code: SHEET_PARSE, SHEET_EVAL, SHEET_LIMIT or an engine code. */
+  code: string;
+}
+
+/**
+ * A value as the results carry it. Quantities are given in their display unit (`value`, `unit`)
+ * and in SI base units (`si`, `siUnit`), so diffs compare like with like.
+ */
+export type SheetValue =
+  | { type: 'number'; value: number }
+  | { type: 'quantity'; value: number; unit: string; si: number; siUnit: string }
+  | { type: 'boolean'; value: boolean }
+  | { type: 'string'; value: string }
+  | {
+      type: 'vector';
+      length: number;
+      /** Entries in `unit`; omitted (null) when the vector is larger than the display limit. */
+      values: number[] | null;
+      unit: string | null;
+    }
+  | {
+      type: 'matrix';
+      rows: number;
+      cols: number;
+      /** Rows of entries in `unit`; null when larger than the display limit. */
+      values: number[][] | null;
+      unit: string | null;
+    }
+  | { type: 'object'; fields: Record<string, SheetValue> }
+  | { type: 'function'; signature: string };
+
+/** LaTeX of one calc line, as an engineer writes it by hand. */
+export interface CalcLatex {
+  /** The statement as written: `f_{1}=\frac{\sqrt{k}}{2\pi}`. */
+  formula: string;
+  /** The right-hand side with the values of the names substituted; null when nothing was. */
+  substituted: string | null;
+  /** The result with its unit: `5.812\,\mathrm{Hz}`. */
+  result: string;
+}
+
+export interface CalcLineResult {
+  /** 1-based line within the block. */
+  line: number;
+  /** The line's source without its comment. */
+  source: string;
+  comment: string | null;
+  /** The name assigned, when the line is an assignment. */
+  name: string | null;
+  latex: CalcLatex;
+  value: SheetValue;
+  /** Plain-text result, e.g. `5.812 Hz`. */
+  display: string;
+}
+
+export interface CriterionResult {
+  line: number;
+  source: string;
+  /** The line's comment, or its expression when it has none. */
+  label: string;
+  pass: boolean;
+  /** For comparisons: both sides in display form. */
+  lhs: string | null;
+  rhs: string | null;
+  latex: string;
+}
+
+/** The worst asymmetry of a square matrix: 1-based row and column, values, relative size. */
+export interface Asymmetry {
+  row: number;
+  col: number;
+  upper: number;
+  lower: number;
+  /** |a_ij − a_ji| / max |a|. */
+  relative: number;
+}
+
+/** One row of a modes table. */
+export interface ModeRow {
+  mode: number;
+  lambda: number;
+  omega: number;
+  frequency: number;
+  period: number;
+  gamma: number | null;
+  effectiveMass: number | null;
+  ratio: number | null;
+  cumulative: number | null;
+  backwardError: number | null;
+  iterations: number | null;
+}
+
+interface BlockResultBase {
+  blockId: string;
+  blockIndex: number;
+  /** False when any line of the block has an error. */
+  ok: boolean;
+}
+
+export interface TextBlockResult extends BlockResultBase {
+  kind: 'text';
+}
+
+export interface CalcBlockResult extends BlockResultBase {
+  kind: 'calc';
+  lines: CalcLineResult[];
+}
+
+export interface MatrixBlockResult extends BlockResultBase {
+  kind: 'matrix';
+  name: string | null;
+  unit: string | null;
+  origin: 'inline' | 'upload';
+  rows: number;
+  cols: number;
+  /** Declared by `symmetric:`; default true. */
+  mustBeSymmetric: boolean;
+  symmetric: boolean;
+  asymmetry: Asymmetry | null;
+  value: SheetValue | null;
+}
+
+export interface ModesBlockResult extends BlockResultBase {
+  kind: 'modes';
+  name: string | null;
+  /** The method asked for and the method the engine used. */
+  method: string | null;
+  methodUsed: string | null;
+  size: number | null;
+  modes: ModeRow[];
+  /** Mode shapes, columns = modes, in the normalization asked for; null above the display limit. */
+  shapes: number[][] | null;
+  sturm: { shift: number; count: number; found: number; missed: boolean } | null;
+  criticalTimeStep: number | null;
+  warnings: string[];
+  /** ρ per iteration for each mode, for the convergence plot. */
+  histories: number[][];
+  /** The remaining fields of the engine's result, as JSON. */
+  engine: Record<string, unknown> | null;
+}
+
+export interface CriteriaBlockResult extends BlockResultBase {
+  kind: 'criteria';
+  criteria: CriterionResult[];
+}
+
+export type BlockResult =
+  TextBlockResult | CalcBlockResult | MatrixBlockResult | ModesBlockResult | CriteriaBlockResult;
+
+/** Everything an evaluation produces. Deterministic for the same sheet and uploads. */
+export interface SheetResults {
+  engineVersion: string;
+  significantFigures: number;
+  blocks: BlockResult[];
+  errors: SheetIssue[];
+  summary: { passed: number; failed: number; errors: number };
+}
+
+/** Progress of an evaluation, reported block by block. */
+export interface SheetProgress {
+  blockIndex: number;
+  blockId: string;
+  blockCount: number;
+  kind: BlockKind;
+  message: string;
+}
+
+export interface EvaluateOptions {
+  uploads?: SheetUpload[];
+  onProgress?: (progress: SheetProgress) => void;
+  /** Polled between lines; when it returns true evaluation stops with a CANCELLED error. */
+  isCancelled?: () => boolean;
+  /** Largest matrix a single value may hold (entries). Default 4 000 000. */
+  maxMatrixEntries?: number;
+}
