@@ -15,6 +15,8 @@ import { createActivityRouter } from './modules/activity/activity.routes';
 import { createAuthRouter, SESSION_COOKIE } from './modules/auth/auth.routes';
 import { createMembersRouter } from './modules/members/members.routes';
 import { createProjectsRouter } from './modules/projects/projects.routes';
+import { createSheetsRouter } from './modules/sheets/sheets.routes';
+import { createUploadsRouter } from './modules/uploads/uploads.routes';
 import { createUsersRouter } from './modules/users/users.routes';
 
 export interface AppOptions extends Partial<AppConfig> {
@@ -110,6 +112,8 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     api.use('/projects/:projectId/members', createMembersRouter(ctx));
     api.use('/projects/:projectId/activity', createActivityRouter(ctx));
     api.use('/projects', createProjectsRouter(ctx));
+    api.use(createSheetsRouter(ctx));
+    api.use(createUploadsRouter(ctx));
     api.use(apiNotFound);
     app.use('/api', api);
 

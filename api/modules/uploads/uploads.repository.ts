@@ -1,0 +1,151 @@
+import { gunzipSync, gzipSync } from 'node:zlib';
+import { readJson, type DbOrTx } from '../../db/index';
+
+export type UploadFormat = 'matrix-market' | 'csv';
+
+/** The worst asymmetry found in an uploaded square matrix (1-based row and column). */
+export interface UploadAsymmetry {
+  row: number;
+  col: number;
+  upper: number;
+  lower: number;
+  relative: number;
+}
+
+export interface Upload {
+  id: number;
+  sheetId: number;
+  name: string;
+  format: UploadFormat;
+  size: number;
+  sha256: string;
+  rows: number;
+  cols: number;
+  nonzeros: number;
+  symmetric: boolean;
+  worstAsymmetry: UploadAsymmetry | null;
+  createdAt: Date;
+  createdBy: { id: number; name: string };
+}
+
+interface UploadRow {
+  id: number;
+  sheet_id: number;
+  name: string;
+  format: UploadFormat;
+  size: number;
+  sha256: string;
+  rows: number;
+  cols: number;
+  nonzeros: number | string;
+  symmetric: number | boolean;
+  worst_asymmetry: unknown;
+  created_at: Date;
+  created_by: number;
+  created_by_name: string;
+}
+
+const COLUMNS = [
+  'up.id',
+  'up.sheet_id',
+  'up.name',
+  'up.format',
+  'up.size',
+  'up.sha256',
+  'up.rows',
+  'up.cols',
+  'up.nonzeros',
+  'up.symmetric',
+  'up.worst_asymmetry',
+  'up.created_at',
+  'up.created_by',
+  'u.name as created_by_name',
+];
+
+function toUpload(row: UploadRow): Upload {
+  return {
+    id: row.id,
+    sheetId: row.sheet_id,
+    name: row.name,
+    format: row.format,
+    size: row.size,
+    sha256: row.sha256,
+    rows: row.rows,
+    cols: row.cols,
+    nonzeros: Number(row.nonzeros),
+    symmetric: Boolean(row.symmetric),
+    worstAsymmetry:
+      row.worst_asymmetry === null ? null : readJson<UploadAsymmetry>(row.worst_asymmetry),
+    createdAt: row.created_at,
+    createdBy: { id: row.created_by, name: row.created_by_name },
+  };
+}
+
+function selectUploads(db: DbOrTx) {
+  return db('uploads as up').join('users as u', 'u.id', 'up.created_by').select(COLUMNS);
+}
+
+export async function listUploadsBySheet(db: DbOrTx, sheetId: number): Promise<Upload[]> {
+  const rows = (await selectUploads(db)
+    .where('up.sheet_id', sheetId)
+    .orderBy('up.name', 'asc')) as UploadRow[];
+  return rows.map(toUpload);
+}
+
+export async function findUploadByName(
+  db: DbOrTx,
+  sheetId: number,
+  name: string,
+): Promise<Upload | undefined> {
+  const row = (await selectUploads(db)
+    .where({ 'up.sheet_id': sheetId, 'up.name': name })
+    .first()) as UploadRow | undefined;
+  return row ? toUpload(row) : undefined;
+}
+
+export async function findUploadById(db: DbOrTx, id: number): Promise<Upload | undefined> {
+  const row = (await selectUploads(db).where('up.id', id).first()) as UploadRow | undefined;
+  return row ? toUpload(row) : undefined;
+}
+
+/** Stores an upload; the bytes are gzip-compressed here and inflated by listUploadTexts. */
+export async function insertUpload(
+  db: DbOrTx,
+  upload: Omit<Upload, 'id' | 'createdAt' | 'createdBy'> & { bytes: Buffer; userId: number },
+): Promise<number> {
+  const [id] = await db('uploads').insert({
+    sheet_id: upload.sheetId,
+    name: upload.name,
+    format: upload.format,
+    size: upload.size,
+    sha256: upload.sha256,
+    encoding: 'gzip',
+    bytes: gzipSync(upload.bytes),
+    rows: upload.rows,
+    cols: upload.cols,
+    nonzeros: upload.nonzeros,
+    symmetric: upload.symmetric,
+    worst_asymmetry: upload.worstAsymmetry === null ? null : JSON.stringify(upload.worstAsymmetry),
+    created_by: upload.userId,
+  });
+  return Number(id);
+}
+
+/** Every upload of a sheet as text, for the evaluator (`from: <name>` in a matrix block). */
+export async function listUploadTexts(
+  db: DbOrTx,
+  sheetId: number,
+): Promise<{ name: string; text: string }[]> {
+  const rows = (await db('uploads')
+    .where({ sheet_id: sheetId })
+    .orderBy('name', 'asc')
+    .select('name', 'encoding', 'bytes')) as {
+    name: string;
+    encoding: 'gzip' | 'identity';
+    bytes: Buffer;
+  }[];
+  return rows.map((r) => ({
+    name: r.name,
+    text: (r.encoding === 'gzip' ? gunzipSync(r.bytes) : r.bytes).toString('utf8'),
+  }));
+}

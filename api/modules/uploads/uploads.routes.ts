@@ -1,0 +1,106 @@
+import type { Request, Response } from 'express';
+import { Router } from 'express';
+import multer from 'multer';
+import { currentUser, requireSignedIn } from '../../http/auth';
+import type { AppContext } from '../../http/context';
+import { AppError, PayloadTooLargeError, ValidationError } from '../../http/errors';
+import { parse } from '../../http/validate';
+import { sheetParams } from '../sheets/sheets.schemas';
+import { uploadsService, type ReceivedFile } from './uploads.service';
+
+/** Default largest upload: 20 MB (the bytes are stored compressed; see the uploads migration). */
+export const DEFAULT_UPLOAD_LIMIT_BYTES = 20 * 1024 * 1024;
+
+export interface UploadsRouterOptions {
+  /** Largest file accepted, in bytes; larger ones get 413 PAYLOAD_TOO_LARGE. */
+  uploadLimitBytes?: number;
+}
+
+/** The limit: the router option, else config.uploadLimitBytes when the config has one, else 20 MB. */
+function resolveLimit(ctx: AppContext, options: UploadsRouterOptions): number {
+  const fromConfig = (ctx.config as { uploadLimitBytes?: unknown }).uploadLimitBytes;
+  if (options.uploadLimitBytes !== undefined) return options.uploadLimitBytes;
+  if (typeof fromConfig === 'number' && fromConfig > 0) return fromConfig;
+  return DEFAULT_UPLOAD_LIMIT_BYTES;
+}
+
+function megabytes(bytes: number): string {
+  const mb = bytes / (1024 * 1024);
+  return mb >= 1 ? `${Number(mb.toFixed(1))} MB` : `${Math.ceil(bytes / 1024)} kB`;
+}
+
+/**
+ * Matrix files uploaded to a sheet: POST (multipart, field `file`) and GET. Mounted at /api.
+ */
+export function createUploadsRouter(ctx: AppContext, options: UploadsRouterOptions = {}): Router {
+  const { db } = ctx;
+  const limit = resolveLimit(ctx, options);
+  const receive = multer({
+    storage: multer.memoryStorage(),
+    limits: { fileSize: limit, files: 1, fields: 10, parts: 12 },
+    defParamCharset: 'utf8',
+  }).single('file');
+
+  // multer's own errors become the API's: the size limit is a 413 naming the limit.
+  function receiveFile(req: Request, res: Response): Promise<ReceivedFile | undefined> {
+    return new Promise((resolve, reject) => {
+      receive(req, res, (err: unknown) => {
+        if (!err) return resolve(req.file);
+        if (err instanceof multer.MulterError) {
+          if (err.code === 'LIMIT_FILE_SIZE') {
+            return reject(
+              new PayloadTooLargeError(
+                `The file is larger than the upload limit of ${megabytes(limit)}.`,
+              ),
+            );
+          }
+          if (err.code === 'LIMIT_UNEXPECTED_FILE' || err.code === 'LIMIT_FILE_COUNT') {
+            return reject(
+              new ValidationError('Send one file, in the form field "file".', { field: 'file' }),
+            );
+          }
+          return reject(new ValidationError(`The upload form is not valid: ${err.message}.`));
+        }
+        const message = err instanceof Error ? err.message : String(err);
+        if (/multipart|boundary/i.test(message)) {
+          return reject(
+            new AppError(
+              400,
+              'BAD_REQUEST',
+              'Send the file as multipart/form-data with the form field "file".',
+              { field: 'file' },
+            ),
+          );
+        }
+        reject(err);
+      });
+    });
+  }
+
+  const router = Router();
+
+  router.post('/sheets/:sheetId/uploads', requireSignedIn, async (req, res) => {
+    const { sheetId } = parse(sheetParams, req.params, 'params');
+    const user = currentUser(req);
+    // Refuse the wrong role before reading a large body.
+    await uploadsService.checkCanUpload(db, user, sheetId);
+    if (!req.is('multipart/form-data')) {
+      throw new AppError(
+        415,
+        'UNSUPPORTED_MEDIA_TYPE',
+        'Send the file as multipart/form-data with the form field "file".',
+        { field: 'file' },
+      );
+    }
+    const file = await receiveFile(req, res);
+    const { upload, created } = await uploadsService.add(db, user, sheetId, file);
+    res.status(created ? 201 : 200).json({ upload });
+  });
+
+  router.get('/sheets/:sheetId/uploads', requireSignedIn, async (req, res) => {
+    const { sheetId } = parse(sheetParams, req.params, 'params');
+    res.json({ uploads: await uploadsService.list(db, currentUser(req), sheetId) });
+  });
+
+  return router;
+}

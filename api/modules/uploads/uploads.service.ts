@@ -1,0 +1,165 @@
+import { createHash } from 'node:crypto';
+import type { Db, DbOrTx } from '../../db/index';
+import { isDuplicateKeyError } from '../../db/index';
+import { AppError, ConflictError, ValidationError } from '../../http/errors';
+import type { User } from '../users/users.repository';
+import { checkSheetAccess } from '../sheets/sheets.access';
+import { recordSheetActivity } from '../sheets/sheets.activity';
+import { describeMatrixFile, detectFormat } from './uploads.parse';
+import {
+  findUploadById,
+  findUploadByName,
+  insertUpload,
+  listUploadTexts,
+  listUploadsBySheet,
+  type Upload,
+} from './uploads.repository';
+
+/** A file as multer hands it over (memory storage). */
+export interface ReceivedFile {
+  originalname: string;
+  buffer: Buffer;
+  size: number;
+}
+
+export interface UploadResult {
+  upload: Upload;
+  /** False when the very same file (same name and SHA-256) was already stored. */
+  created: boolean;
+}
+
+const MAX_NAME = 191;
+
+/**
+ * The name a matrix block refers to (`from: <name>`): the file's own name without any folder,
+ * trimmed. Control characters and names that are empty or too long are refused.
+ */
+export function uploadName(originalName: string): string {
+  const name = originalName.split(/[\\/]/).pop()?.trim() ?? '';
+  if (name === '' || name === '.' || name === '..') {
+    throw new ValidationError('The file has no name; give it one ending in .mtx or .csv.', {
+      field: 'file',
+    });
+  }
+  if (name.length > MAX_NAME) {
+    throw new ValidationError(`The file name is longer than ${MAX_NAME} characters.`, {
+      field: 'file',
+    });
+  }
+  // eslint-disable-next-line no-control-regex
+  if (/[\u0000-\u001f\u007f]/.test(name)) {
+    throw new ValidationError('The file name contains control characters.', { field: 'file' });
+  }
+  return name;
+}
+
+export const uploadsService = {
+  /** 404 for an unknown sheet, 403 unless the person is an author on its project. */
+  async checkCanUpload(db: Db, user: User, sheetId: number): Promise<void> {
+    await checkSheetAccess(db, user, sheetId, ['author'], 'upload matrix files');
+  },
+
+  /**
+   * Stores a Matrix Market or CSV file on a sheet after reading it with the engine's readers, so
+   * a file that is not a matrix is refused now (422 MATRIX_FILE_INVALID with its line), not at
+   * the first evaluation. Uploads never change: a different file under a name already taken is
+   * refused (409), the same file again answers with the stored upload.
+   */
+  async add(
+    db: Db,
+    user: User,
+    sheetId: number,
+    file: ReceivedFile | undefined,
+  ): Promise<UploadResult> {
+    const access = await checkSheetAccess(db, user, sheetId, ['author'], 'upload matrix files');
+    if (!file) {
+      throw new ValidationError('Choose a file to upload (form field "file").', { field: 'file' });
+    }
+    const name = uploadName(file.originalname);
+    const text = decodeText(file.buffer, name);
+    const format = detectFormat(name, text);
+    const sha256 = createHash('sha256').update(file.buffer).digest('hex');
+
+    const existing = await findUploadByName(db, sheetId, name);
+    if (existing) return sameOrConflict(existing, sha256);
+
+    const shape = describeMatrixFile(text, format, name);
+    let id: number;
+    try {
+      id = await db.transaction(async (trx) => {
+        const uploadId = await insertUpload(trx, {
+          sheetId,
+          name,
+          format,
+          size: file.buffer.length,
+          sha256,
+          ...shape,
+          bytes: file.buffer,
+          userId: user.id,
+        });
+        await recordSheetActivity(trx, {
+          actorId: user.id,
+          projectId: access.projectId,
+          action: 'upload.added',
+          objectType: 'upload',
+          objectId: uploadId,
+          details: {
+            sheetId,
+            name,
+            format,
+            size: file.buffer.length,
+            sha256,
+            rows: shape.rows,
+            cols: shape.cols,
+          },
+        });
+        return uploadId;
+      });
+    } catch (e) {
+      if (isDuplicateKeyError(e)) {
+        const raced = await findUploadByName(db, sheetId, name);
+        if (raced) return sameOrConflict(raced, sha256);
+      }
+      throw e;
+    }
+    const upload = await findUploadById(db, id);
+    if (!upload) throw new Error('upload vanished after its own insert');
+    return { upload, created: true };
+  },
+
+  async list(db: Db, user: User, sheetId: number): Promise<Upload[]> {
+    await checkSheetAccess(db, user, sheetId);
+    return listUploadsBySheet(db, sheetId);
+  },
+
+  /** The sheet's uploads as `{ name, text }` for the sheet evaluator. No role check: callers do. */
+  textsForSheet(db: DbOrTx, sheetId: number): Promise<{ name: string; text: string }[]> {
+    return listUploadTexts(db, sheetId);
+  },
+};
+
+function sameOrConflict(existing: Upload, sha256: string): UploadResult {
+  if (existing.sha256 === sha256) return { upload: existing, created: false };
+  throw new ConflictError(
+    `This sheet already has a file named ${existing.name} (uploaded by ${existing.createdBy.name}). Uploads are kept unchanged so that issued revisions can be re-run; upload the new file under another name and change the matrix block's "from:" line.`,
+    {
+      code: 'CONFLICT',
+      field: 'file',
+      details: { existing: { id: existing.id, sha256: existing.sha256 } },
+    },
+  );
+}
+
+/** Matrix files are text: UTF-8 (a byte-order mark is dropped). Binary files are refused. */
+function decodeText(buffer: Buffer, name: string): string {
+  if (buffer.includes(0)) {
+    throw new AppError(
+      422,
+      'MATRIX_FILE_INVALID',
+      `${name} is not a text file; upload a Matrix Market (.mtx) or CSV (.csv) file.`,
+      { field: 'file', details: { line: 1 } },
+    );
+  }
+  const text = new TextDecoder('utf-8', { fatal: false }).decode(buffer);
+  return text.startsWith('\uFEFF') ? text.slice(1) : text;
+}
