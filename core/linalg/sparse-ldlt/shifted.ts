@@ -13,8 +13,8 @@ export interface ShiftedPencil {
   assemble(sigma: number): SparseSymmetricMatrix;
   /** The symbolic analysis of the union pattern (computed on first use). */
   symbolic(): SparseLdltSymbolic;
-  /** LDLᵀ of K − σM. */
-  factorize(sigma: number): SparseLdltFactorization;
+  /** LDLᵀ of K − σM (`pivotTolerance` as in `factorizeSparseLdlt`). */
+  factorize(sigma: number, pivotTolerance?: number): SparseLdltFactorization;
 }
 
 /**
@@ -100,8 +100,13 @@ export function createShiftedPencil(
     n,
     assemble,
     symbolic,
-    factorize(sigma: number): SparseLdltFactorization {
-      return factorizeSparseLdlt(assemble(sigma), { symbolic: symbolic() });
+    factorize(sigma: number, pivotTolerance?: number): SparseLdltFactorization {
+      return factorizeSparseLdlt(
+        assemble(sigma),
+        pivotTolerance === undefined
+          ? { symbolic: symbolic() }
+          : { symbolic: symbolic(), pivotTolerance },
+      );
     },
   };
 }

@@ -1,0 +1,471 @@
+/**
+ * Shift-invert Lanczos for K φ = λ M φ with M-inner products, full reorthogonalization (classical
+ * Gram–Schmidt applied twice) and thick restarts.
+ *
+ * The operator is OP = (K − σM)⁻¹ M, self-adjoint in the M-inner product; its eigenvalues
+ * θ = 1/(λ − σ) are largest for the λ just above σ (Ericsson & Ruhe, "The spectral transformation
+ * Lanczos method", Math. Comp. 35, 1980). The basis is kept M-orthonormal by Gram–Schmidt twice
+ * ("twice is enough": Parlett, *The Symmetric Eigenvalue Problem*, §6.9). When the basis is full,
+ * the wanted Ritz vectors are kept and the iteration goes on from the last Lanczos vector (thick
+ * restart: Wu & Simon, SIAM J. Matrix Anal. Appl. 22, 2000), so the relation
+ * OP Q = Q H + β q e_mᵀ holds throughout and |β y_m| is the residual of each Ritz pair.
+ */
+import { EngineError, NoConvergenceError } from '../errors';
+import { diagonalOf, toSparse } from '../linalg/factorize';
+import { createShiftedPencil, multiplyLower } from '../linalg/sparse-ldlt/shifted';
+import type { SparseSymmetricMatrix, SymmetricFactorization } from '../linalg/types';
+import { symmetricEigen } from './dense-eigensolver';
+import { seededRandom } from './random';
+import type { MethodInput, RawEigenResult } from './types';
+
+/** Extra options of the Lanczos method. */
+export interface LanczosOptions {
+  /**
+   * All modes with λ in [lo, hi] (rad²/s²) instead of the lowest `count`: the number is counted
+   * first by Sturm sequences at lo and hi.
+   */
+  band?: { lo: number; hi: number };
+  /** Basis size before a restart (default max(2·count + 10, count + 20), at most n). */
+  basisSize?: number;
+  /** Memory limit of the factorization, bytes. */
+  memoryLimitBytes?: number;
+}
+
+/** The shifted operator used by both subspace iteration and Lanczos. */
+export interface ShiftedOperator {
+  readonly n: number;
+  readonly K: SparseSymmetricMatrix;
+  readonly M: SparseSymmetricMatrix;
+  readonly sigma: number;
+  readonly factorization: SymmetricFactorization;
+  readonly notes: string[];
+  /** Counts eigenvalues below s (Sturm sequence of K − sM) with the same symbolic analysis. */
+  countBelow(s: number): number;
+  /** LDLᵀ of K − sM with the same symbolic analysis. */
+  factorizeAt(s: number): SymmetricFactorization;
+}
+
+/**
+ * Factorizes K − σM for the given shift, reusing `input.factorization` when the caller has one.
+ * When K − σM is singular at σ = 0 (rigid-body modes), moves σ to a small negative value and says
+ * so in `notes`.
+ * @throws EngineError STIFFNESS_SINGULAR when no nearby shift gives a regular K − σM.
+ */
+export function prepareShiftedOperator(
+  input: MethodInput,
+  memoryLimitBytes?: number,
+): ShiftedOperator {
+  const K = toSparse(input.K);
+  const M = toSparse(input.M);
+  if (K.n !== M.n) {
+    throw new EngineError(
+      'MATRIX_SIZE_MISMATCH',
+      `K is ${K.n} × ${K.n} but M is ${M.n} × ${M.n}; they must be the same size.`,
+    );
+  }
+  const pencil = createShiftedPencil(
+    K,
+    M,
+    memoryLimitBytes === undefined ? {} : { memoryLimitBytes },
+  );
+  const notes: string[] = [];
+  let sigma = input.shift;
+  let factorization: SymmetricFactorization | undefined = input.factorization;
+  if (!factorization) {
+    // Scale of λ from the diagonals, for a shift past a singular K (rigid-body modes).
+    const dk = diagonalOf(K);
+    const dm = diagonalOf(M);
+    let sk = 0;
+    let sm = 0;
+    for (let i = 0; i < K.n; i++) {
+      sk += Math.abs(dk[i]!);
+      sm += Math.abs(dm[i]!);
+    }
+    const scale = sm > 0 ? sk / sm : 1;
+    const trials = [sigma, sigma - 1e-10 * scale, sigma - 1e-8 * scale, sigma - 1e-6 * scale];
+    for (const trial of trials) {
+      try {
+        // A pivot below 1e-14 of its row is rounding noise of an exactly singular K − σM (a
+        // rigid-body mode at σ): shift past it. A slender model's genuine pivots, (h/L)³ of
+        // the element stiffness, stay above that for h/L > 2e-5.
+        factorization = pencil.factorize(trial, 1e-14);
+        if (trial !== input.shift) {
+          notes.push(
+            `K − σM is singular at σ = ${input.shift.toPrecision(3)} (rigid-body or mechanism ` +
+              `modes); shifted to σ = ${trial.toPrecision(3)} rad²/s².`,
+          );
+        }
+        sigma = trial;
+        break;
+      } catch (e) {
+        if (!(e instanceof EngineError) || e.code !== 'ZERO_PIVOT') throw e;
+      }
+    }
+    if (!factorization) {
+      throw new EngineError(
+        'STIFFNESS_SINGULAR',
+        `K − σM is singular at σ = ${input.shift.toPrecision(3)} and at three shifts below it: a ` +
+          'DOF has neither stiffness nor mass. Restrain it or give it mass.',
+      );
+    }
+  }
+  return {
+    n: K.n,
+    K,
+    M,
+    sigma,
+    factorization,
+    notes,
+    countBelow: (s: number) => pencil.factorize(s).negativePivots,
+    factorizeAt: (s: number) => pencil.factorize(s),
+  };
+}
+
+/**
+ * The lowest `count` modes (or every mode in `options.band`) by shift-invert Lanczos.
+ * Convergence: a Ritz pair is accepted when its residual |β y_m| ≤ tolerance · |θ|.
+ *
+ * @throws EngineError CANCELLED when `signal.aborted` is seen between restarts;
+ *   NoConvergenceError (with the converged modes as `partial`) after `maxIterations` restarts;
+ *   STIFFNESS_SINGULAR, MODEL_TOO_LARGE from the factorization.
+ * @example
+ * const raw = lanczos({ K, M, count: 10, tolerance: 1e-10, maxIterations: 300, shift: 0, seed: 1 });
+ */
+export function lanczos(input: MethodInput, options: LanczosOptions = {}): RawEigenResult {
+  const op = prepareShiftedOperator(input, options.memoryLimitBytes);
+  const { n, M } = op;
+  let sigma = op.sigma;
+  const notes = [...op.notes];
+  let factorization = op.factorization;
+  let p = Math.min(input.count, n);
+  let band: { lo: number; hi: number; below: number } | undefined;
+  if (options.band) {
+    const { lo, hi } = options.band;
+    if (!(hi > lo)) {
+      throw new EngineError(
+        'INVALID_OPTION',
+        `The frequency band must have its upper end above the lower one (got ${lo} to ${hi}).`,
+      );
+    }
+    const below = op.countBelow(lo);
+    p = op.countBelow(hi) - below;
+    notes.push(`${p} eigenvalue${p === 1 ? '' : 's'} in the band (Sturm counts at both ends).`);
+    if (p === 0) return { lambdas: [], vectors: [], iterations: [], histories: [], notes };
+    // Shift to the lower end: the band's eigenvalues are the largest θ = 1/(λ − σ) > 0.
+    sigma = lo;
+    factorization = op.factorizeAt(lo);
+    band = { lo, hi, below };
+  }
+  if (p === 0) return { lambdas: [], vectors: [], iterations: [], histories: [], notes };
+  const rand = seededRandom(input.seed);
+  let result = lanczosRun(input, M, factorization, sigma, p, [], [], rand, options.basisSize);
+  // A single start vector sees one copy of a repeated eigenvalue. The Sturm count just above the
+  // highest mode found tells how many are missing; those are found by a new run orthogonal to
+  // (locked against) the converged modes, until the count and the modes agree.
+  for (let round = 0; round < 8 && !band; round++) {
+    const lamP = result.lambdas[result.lambdas.length - 1]!;
+    const above = lamP + Math.max(1e-8 * Math.abs(lamP), 1e-12 * Math.abs(sigma) + 1e-300);
+    let below: number;
+    try {
+      below = op.countBelow(above);
+    } catch (e) {
+      if (e instanceof EngineError && e.code === 'ZERO_PIVOT') break;
+      throw e;
+    }
+    const found = result.lambdas.filter((l) => l < above).length;
+    const before = factorization.negativePivots;
+    if (below - before <= found) {
+      notes.push(
+        `Sturm check: ${below - before} eigenvalue${below - before === 1 ? '' : 's'} between ` +
+          `σ = ${sigma.toPrecision(4)} and ${above.toPrecision(6)} rad²/s², ${found} found.`,
+      );
+      break;
+    }
+    const lockedM = result.vectors.map((v) => multiplyLower(M, v));
+    const extra = lanczosRun(
+      input,
+      M,
+      factorization,
+      sigma,
+      below - before - found,
+      result.vectors,
+      lockedM,
+      rand,
+      options.basisSize,
+    );
+    notes.push(
+      `${below - before - found} repeated or hidden mode${below - before - found === 1 ? '' : 's'} ` +
+        'found by a second Lanczos run locked against the converged ones (Sturm count).',
+    );
+    result = mergeResults(result, extra, p);
+  }
+  result.notes = notes;
+  if (band) {
+    // Keep exactly the modes inside the band (a Ritz value can sit just outside by rounding).
+    const keep = result.lambdas.map((l) => l >= band.lo && l <= band.hi);
+    return {
+      lambdas: result.lambdas.filter((_, i) => keep[i]),
+      vectors: result.vectors.filter((_, i) => keep[i]),
+      iterations: result.iterations.filter((_, i) => keep[i]),
+      histories: result.histories.filter((_, i) => keep[i]),
+      notes: result.notes,
+    };
+  }
+  return result;
+}
+
+function mergeResults(a: RawEigenResult, b: RawEigenResult, p: number): RawEigenResult {
+  const idx = [
+    ...a.lambdas.map((l, i) => ({ l, s: a, i })),
+    ...b.lambdas.map((l, i) => ({ l, s: b, i })),
+  ];
+  idx.sort((x, y) => x.l - y.l);
+  const top = idx.slice(0, Math.max(p, a.lambdas.length));
+  return {
+    lambdas: top.map((t) => t.l),
+    vectors: top.map((t) => t.s.vectors[t.i]!),
+    iterations: top.map((t) => t.s.iterations[t.i]!),
+    histories: top.map((t) => t.s.histories[t.i]!),
+    notes: a.notes,
+  };
+}
+
+/** One thick-restart Lanczos run for the `p` largest θ, orthogonal to the `locked` vectors. */
+function lanczosRun(
+  input: MethodInput,
+  M: SparseSymmetricMatrix,
+  factorization: SymmetricFactorization,
+  sigma: number,
+  p: number,
+  locked: Float64Array[],
+  lockedM: Float64Array[],
+  rand: () => number,
+  basisSize: number | undefined,
+): RawEigenResult {
+  const n = M.n;
+  const notes: string[] = [];
+  const free = n - locked.length;
+  const m = Math.min(free, basisSize ?? Math.max(2 * p + 10, p + 20));
+  p = Math.min(p, m);
+  const Q: Float64Array[] = [];
+  const MQ: Float64Array[] = [];
+  const H = new Float64Array(m * m);
+  const mq = new Float64Array(n);
+  const tol = input.tolerance;
+  const deflate = (w: Float64Array): void => {
+    if (locked.length > 0) orthogonalize(w, locked, lockedM, locked.length, null);
+  };
+
+  // Start vector: OP applied to a random vector, which removes the components of massless DOFs
+  // (the infinite eigenvalues) — Ericsson & Ruhe 1980.
+  const start = (): { q: Float64Array; Mq: Float64Array } | null => {
+    for (let attempt = 0; attempt < 5; attempt++) {
+      const r = new Float64Array(n);
+      for (let i = 0; i < n; i++) r[i] = rand() - 0.5;
+      multiplyLower(M, r, mq);
+      const w = factorization.solve(mq);
+      deflate(w);
+      orthogonalize(w, Q, MQ, Q.length, null);
+      deflate(w);
+      const Mw = multiplyLower(M, w);
+      const nrm = Math.sqrt(Math.max(dotv(w, Mw), 0));
+      if (nrm > 0) {
+        scale(w, 1 / nrm);
+        scale(Mw, 1 / nrm);
+        return { q: w, Mq: Mw };
+      }
+    }
+    return null;
+  };
+  const first = start();
+  if (!first) {
+    throw new EngineError('MASS_SINGULAR', 'M has no positive mass: no mode can be found.');
+  }
+  Q.push(first.q);
+  MQ.push(first.Mq);
+  const histories: number[][] = Array.from({ length: p }, () => []);
+  const iterations = new Array<number>(p).fill(0);
+  const h = new Float64Array(m + 1);
+  let beta = 0;
+  let restart = 0;
+  let kept = 0; // basis vectors carried over from the last restart
+  let lastRitz: { theta: number[]; Y: Float64Array[]; j: number } | null = null;
+  let converged = 0;
+  for (;;) {
+    // Extend the basis to m vectors (plus the continuation vector Q[m]).
+    for (let j = Q.length - 1; j < m; j++) {
+      const w = factorization.solve(MQ[j]!);
+      h.fill(0, 0, j + 1);
+      deflate(w);
+      orthogonalize(w, Q, MQ, j + 1, h);
+      deflate(w);
+      for (let i = 0; i <= j; i++) {
+        if (i < kept && j === kept) {
+          // The arrow coupling of a thick restart: keep the stored value (equal in exact arithmetic).
+          continue;
+        }
+        H[i * m + j] = h[i]!;
+        H[j * m + i] = h[i]!;
+      }
+      const Mw = multiplyLower(M, w);
+      beta = Math.sqrt(Math.max(dotv(w, Mw), 0));
+      const hnorm = Math.sqrt(dotv(h.subarray(0, j + 1), h.subarray(0, j + 1)));
+      if (!(beta > 1e-12 * hnorm)) {
+        // Invariant subspace: continue with a fresh vector orthogonal to the basis.
+        beta = 0;
+        const fresh = start();
+        // The whole space is spanned (n small): a zero continuation vector ends the basis.
+        Q.push(fresh ? fresh.q : new Float64Array(n));
+        MQ.push(fresh ? fresh.Mq : new Float64Array(n));
+      } else {
+        scale(w, 1 / beta);
+        scale(Mw, 1 / beta);
+        Q.push(w);
+        MQ.push(Mw);
+      }
+      if (j + 1 < m) {
+        H[(j + 1) * m + j] = beta;
+        H[j * m + j + 1] = beta;
+      }
+    }
+    const size = Math.min(m, Q.length - 1);
+    // Rayleigh–Ritz on H (size × size).
+    const Hs = new Float64Array(size * size);
+    for (let i = 0; i < size; i++) for (let j = 0; j < size; j++) Hs[i * size + j] = H[i * m + j]!;
+    const eig = symmetricEigen({ kind: 'dense', rows: size, cols: size, data: Hs });
+    // Largest θ first.
+    const order = Array.from({ length: size }, (_, i) => size - 1 - i);
+    const theta = order.map((i) => eig.values[i]!);
+    const Y = order.map((i) => eig.vectors[i]!);
+    converged = 0;
+    for (let i = 0; i < p && i < size; i++) {
+      const res = Math.abs(beta * Y[i]![size - 1]!);
+      const lam = sigma + 1 / theta[i]!;
+      histories[i]!.push(lam);
+      if (res <= tol * Math.abs(theta[i]!) && converged === i) {
+        converged++;
+        if (iterations[i] === 0) iterations[i] = restart + 1;
+      }
+    }
+    lastRitz = { theta, Y, j: size };
+    input.onProgress?.({
+      stage: 'Lanczos',
+      iteration: restart + 1,
+      modesConverged: converged,
+      modesWanted: p,
+    });
+    if (converged >= p || size >= n) break;
+    if (input.signal?.aborted) {
+      throw new EngineError(
+        'CANCELLED',
+        `The Lanczos solve was cancelled after ${restart + 1} restarts (${converged} of ${p} modes converged).`,
+      );
+    }
+    restart++;
+    if (restart >= input.maxIterations) {
+      const partial = ritzResult(lastRitz, converged, Q, MQ, sigma, iterations, histories, notes);
+      throw new NoConvergenceError(
+        `Lanczos did not converge within ${input.maxIterations} restarts: ${converged} of ${p} ` +
+          'modes met the tolerance.',
+        partial,
+        { converged, wanted: p },
+      );
+    }
+    // Thick restart: keep k Ritz vectors, then the continuation vector.
+    const k = Math.min(size - 1, Math.max(p + Math.floor((size - p) / 2), p + 1));
+    const newQ: Float64Array[] = [];
+    const newMQ: Float64Array[] = [];
+    for (let i = 0; i < k; i++) {
+      newQ.push(combineBasis(Q, Y[i]!, size));
+      newMQ.push(combineBasis(MQ, Y[i]!, size));
+    }
+    const cont = Q[size]!;
+    const contM = MQ[size]!;
+    H.fill(0);
+    for (let i = 0; i < k; i++) {
+      H[i * m + i] = theta[i]!;
+      const b = beta * Y[i]![size - 1]!;
+      H[i * m + k] = b;
+      H[k * m + i] = b;
+    }
+    Q.length = 0;
+    MQ.length = 0;
+    Q.push(...newQ, cont);
+    MQ.push(...newMQ, contM);
+    kept = k;
+  }
+  return ritzResult(lastRitz!, Math.min(converged, p), Q, MQ, sigma, iterations, histories, notes);
+}
+
+function ritzResult(
+  ritz: { theta: number[]; Y: Float64Array[]; j: number },
+  count: number,
+  Q: Float64Array[],
+  _MQ: Float64Array[],
+  sigma: number,
+  iterations: number[],
+  histories: number[][],
+  notes: string[],
+): RawEigenResult {
+  const pairs: { lambda: number; phi: Float64Array; it: number; hist: number[] }[] = [];
+  for (let i = 0; i < count; i++) {
+    pairs.push({
+      lambda: sigma + 1 / ritz.theta[i]!,
+      phi: combineBasis(Q, ritz.Y[i]!, ritz.j),
+      it: iterations[i]!,
+      hist: histories[i]!,
+    });
+  }
+  pairs.sort((a, b) => a.lambda - b.lambda);
+  return {
+    lambdas: pairs.map((q) => q.lambda),
+    vectors: pairs.map((q) => q.phi),
+    iterations: pairs.map((q) => q.it),
+    histories: pairs.map((q) => q.hist),
+    notes,
+  };
+}
+
+/** w ← w − Σ q_i (q_iᵀ M w), twice; accumulates the coefficients into h when given. */
+export function orthogonalize(
+  w: Float64Array,
+  Q: Float64Array[],
+  MQ: Float64Array[],
+  count: number,
+  h: Float64Array | null,
+): void {
+  const n = w.length;
+  for (let pass = 0; pass < 2; pass++) {
+    for (let i = 0; i < count; i++) {
+      const mq = MQ[i]!;
+      let c = 0;
+      for (let t = 0; t < n; t++) c += mq[t]! * w[t]!;
+      const q = Q[i]!;
+      for (let t = 0; t < n; t++) w[t]! -= c * q[t]!;
+      if (h) h[i]! += c;
+    }
+  }
+}
+
+/** Σ_i y_i B_i over the first `count` basis vectors. */
+export function combineBasis(B: Float64Array[], y: Float64Array, count: number): Float64Array {
+  const n = B[0]!.length;
+  const out = new Float64Array(n);
+  for (let i = 0; i < count; i++) {
+    const c = y[i]!;
+    if (c === 0) continue;
+    const b = B[i]!;
+    for (let t = 0; t < n; t++) out[t]! += c * b[t]!;
+  }
+  return out;
+}
+
+export function dotv(x: Float64Array, y: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < x.length; i++) s += x[i]! * y[i]!;
+  return s;
+}
+
+function scale(x: Float64Array, c: number): void {
+  for (let i = 0; i < x.length; i++) x[i]! *= c;
+}
