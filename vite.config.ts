@@ -22,5 +22,8 @@ export default defineConfig({
   },
   server: {
     host: '127.0.0.1',
+    // In middleware mode (npm run dev) the hot-reload socket is a server of its own: keep it on
+    // loopback like everything else, on a port that can be moved when two copies run.
+    ws: { host: '127.0.0.1', port: Number(process.env.MW_HMR_PORT ?? 5181) },
   },
 });
