@@ -124,3 +124,8 @@ export async function createProjectTeam(db: Knex) {
   await addMember(db, project.id, viewer.id, ['viewer']);
   return { project, admin, author, checker, principal, viewer, outsider };
 }
+
+/** A JSON column as stored: MariaDB keeps JSON as LONGTEXT, the driver may or may not parse it. */
+export function jsonColumn(value: unknown): unknown {
+  return typeof value === 'string' ? JSON.parse(value) : value;
+}

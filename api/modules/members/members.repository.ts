@@ -55,7 +55,9 @@ export const membersRepository = {
     const rows: { role: ProjectRole }[] = await db('project_members')
       .select('role')
       .where({ project_id: projectId, user_id: userId });
-    return rows.map((r) => r.role);
+    return rows
+      .map((r) => r.role)
+      .sort((a, b) => PROJECT_ROLES.indexOf(a) - PROJECT_ROLES.indexOf(b));
   },
 
   async insertRoles(

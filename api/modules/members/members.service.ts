@@ -47,16 +47,16 @@ export const membersService = {
         });
       }
       await membersRepository.insertRoles(trx, projectId, person.id, input.roles);
+      const member = await membersRepository.find(trx, projectId, person.id);
+      if (!member) throw new Error('member vanished inside its own transaction');
       await activityService.record(trx, {
         actorId: actor.id,
         projectId,
         action: 'member.added',
         objectType: 'user',
         objectId: person.id,
-        details: { email: person.email, name: person.name, roles: input.roles },
+        details: { email: person.email, name: person.name, roles: member.roles },
       });
-      const member = await membersRepository.find(trx, projectId, person.id);
-      if (!member) throw new Error('member vanished inside its own transaction');
       return member;
     });
   },
