@@ -289,8 +289,8 @@ function lanczosRun(
   let beta = 0;
   let restart = 0;
   let kept = 0; // basis vectors carried over from the last restart
-  let lastRitz: { theta: number[]; Y: Float64Array[]; j: number } | null = null;
-  let converged = 0;
+  let lastRitz: { theta: number[]; Y: Float64Array[]; j: number };
+  let converged: number;
   for (;;) {
     // Extend the basis to m vectors (plus the continuation vector Q[m]).
     for (let j = Q.length - 1; j < m; j++) {

@@ -30,7 +30,7 @@ export function subspaceIteration(
   options: { memoryLimitBytes?: number } = {},
 ): RawEigenResult {
   const op = prepareShiftedOperator(input, options.memoryLimitBytes);
-  const { n, K, M, sigma, factorization } = op;
+  const { n, K, M, factorization } = op;
   const notes = [...op.notes];
   const p = Math.min(input.count, n);
   const q = Math.min(n, Math.min(2 * p, p + 8));
@@ -58,7 +58,6 @@ export function subspaceIteration(
   const histories: number[][] = Array.from({ length: p }, () => []);
   const iterations = new Array<number>(p).fill(0);
   let previous: Float64Array | null = null;
-  let lambdas = new Float64Array(q);
   let MX = X.map((x) => multiplyLower(M, x));
   for (let it = 1; ; it++) {
     const Xb = MX.map((y) => factorization.solve(y));
@@ -79,7 +78,7 @@ export function subspaceIteration(
       }
     }
     const { values, Z } = projectedEigen(Kh, Mh, q);
-    lambdas = Float64Array.from(values);
+    const lambdas = Float64Array.from(values);
     X = Z.map((z) => combineBasis(Xb, z, q));
     MX = Z.map((z) => combineBasis(MXb, z, q));
     let converged = 0;
