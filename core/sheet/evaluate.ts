@@ -9,6 +9,7 @@ import { evaluateCriteriaBlock } from './blocks/criteria';
 import { evaluateMatrixBlock } from './blocks/matrix';
 import { evaluateModesBlock } from './blocks/modes';
 import { DEFAULT_MAX_MATRIX_ENTRIES, type EvalContext } from './context';
+import './generators';
 import { setMatrixEntryLimit, sheetMath } from './math';
 import { validateSheet } from './source';
 import type { BlockResult, EvaluateOptions, Sheet, SheetResults } from './types';

@@ -69,6 +69,11 @@ export function setMatrixEntryLimit(limit: number): void {
   matrixEntryLimit = limit;
 }
 
+/** The current limit on matrix entries. */
+export function getMatrixEntryLimit(): number {
+  return matrixEntryLimit;
+}
+
 /** Functions that allocate a matrix from sizes: checked against the limit before allocating. */
 const SIZED_FUNCTIONS = ['zeros', 'ones', 'identity', 'resize'] as const;
 

@@ -127,7 +127,8 @@ export interface ModeRow {
   lambda: number;
   omega: number;
   frequency: number;
-  period: number;
+  /** null for a rigid-body mode (infinite period). */
+  period: number | null;
   gamma: number | null;
   effectiveMass: number | null;
   ratio: number | null;

@@ -1,20 +1,169 @@
 /**
- * `modes` blocks: an eigen-solve on matrices in scope.
+ * `modes` blocks: an eigen-solve K φ = λ M φ on matrices in scope, with `key: value` lines:
+ *
+ * ```
+ * stiffness: frame.K        # an expression giving a square matrix with a stiffness unit
+ * mass: frame.M             # … with a mass unit
+ * method: auto              # auto | inverse | forward | shifted | subspace | lanczos | dense
+ * count: 3
+ * shift: 24.5 Hz            # a frequency (Hz, rpm or rad/s); λ = (2πf)²
+ * tolerance: 1e-10
+ * max iterations: 200
+ * normalize: mass           # mass | max | dof 5
+ * direction: frame.r        # an influence vector, or the name of one of the generator's (x)
+ * name: floor               # the results are bound to this name (default "modes")
+ * ```
+ * Before solving, the unit of K divided by the unit of M must reduce to 1/s².
  */
-import { EngineError } from '../../errors';
-import { report, type EvalContext } from '../context';
-import type { ModesBlockResult, SheetBlock } from '../types';
+import type { Matrix, Unit } from 'mathjs';
+import { EngineError, NoConvergenceError } from '../../errors';
+import { solveModes } from '../../eigen/solve-modes';
+import type {
+  InfluenceVector,
+  MethodName,
+  ModalResult,
+  ShapeNormalization,
+  SolveOptions,
+} from '../../eigen/types';
+import { denseFromRows } from '../../linalg/sparse';
+import type { SymmetricMatrix } from '../../linalg/types';
+import { evaluateNode, parseExpression, report, type EvalContext } from '../context';
+import { RESULT_MATRIX_LIMIT } from '../format';
+import { ENGINE_MATRICES } from '../generators';
+import { blockLines, splitComment } from '../source';
+import type { ModeRow, ModesBlockResult, SheetBlock } from '../types';
 
-export function evaluateModesBlock(
-  ctx: EvalContext,
-  block: SheetBlock,
-  blockIndex: number,
-): ModesBlockResult {
-  report(
-    ctx,
-    { blockId: block.id, blockIndex, line: 0 },
-    new EngineError('SHEET_EVAL', 'Modes blocks are not available yet.'),
-  );
+export const MODES_KEYS = [
+  'stiffness',
+  'mass',
+  'method',
+  'count',
+  'shift',
+  'tolerance',
+  'max iterations',
+  'normalize',
+  'direction',
+  'name',
+] as const;
+type ModesKey = (typeof MODES_KEYS)[number];
+
+const METHODS: MethodName[] = [
+  'auto',
+  'inverse',
+  'forward',
+  'shifted',
+  'subspace',
+  'lanczos',
+  'dense',
+];
+
+interface SideMatrix {
+  engine: SymmetricMatrix;
+  /** A unit entry of the matrix (null when plain numbers). */
+  unit: Unit | null;
+  n: number;
+}
+
+function fail(message: string, code: 'SHEET_PARSE' | 'SHEET_EVAL' = 'SHEET_EVAL'): never {
+  throw new EngineError(code, message);
+}
+
+function unitText(u: Unit): string {
+  return u.formatUnits().replace(/\s*\/\s*/g, '/');
+}
+
+/** Converts a mathjs matrix (of quantities or numbers) to the engine's form in SI units. */
+function sideMatrix(ctx: EvalContext, v: unknown, role: 'K' | 'M', expr: string): SideMatrix {
+  const { math } = ctx.sm;
+  if (!math.isMatrix(v)) {
+    fail(`${role} must be a matrix; "${expr}" is not one.`);
+  }
+  const m = v as Matrix;
+  const size = m.size();
+  if (size.length !== 2 || size[0] !== size[1]) {
+    fail(`${role} must be square; "${expr}" is ${size.join('×')}.`);
+  }
+  const n = size[0]!;
+  const rows = m.toArray() as unknown[][];
+  let unit: Unit | null = null;
+  const data: number[][] = [];
+  let plain = false;
+  for (let i = 0; i < n; i++) {
+    const row: number[] = [];
+    for (let j = 0; j < n; j++) {
+      const x = rows[i]![j];
+      if (math.isUnit(x)) {
+        const u = x as Unit;
+        if (unit && !unit.equalBase(u)) {
+          fail(
+            `${role} mixes units (${unitText(unit)} and ${unitText(u)} at ${role}[${i + 1},${j + 1}]); a matrix carries one unit.`,
+          );
+        }
+        if (!unit) unit = u;
+        row.push(u.value);
+      } else if (typeof x === 'number') {
+        if (x !== 0) plain = true;
+        row.push(x);
+      } else {
+        fail(`${role}[${i + 1},${j + 1}] is not a number.`);
+      }
+    }
+    data.push(row);
+  }
+  if (unit && plain) {
+    fail(`${role} has entries with a unit and entries without; give every entry the same unit.`);
+  }
+  const engine = ENGINE_MATRICES.get(m) ?? denseFromRows(data);
+  return { engine, unit, n };
+}
+
+/** The unit check: K/M must reduce to 1/s². Returns a warning for plain-number matrices. */
+export function checkPencilUnits(ctx: EvalContext, K: SideMatrix, M: SideMatrix): string | null {
+  const { math } = ctx.sm;
+  if (!K.unit && !M.unit) {
+    return 'K and M have no units: their entries are taken as consistent SI units (N/m and kg).';
+  }
+  if (!K.unit || !M.unit) {
+    fail(
+      `${K.unit ? 'M' : 'K'} has no unit but ${K.unit ? 'K' : 'M'} has one; give both matrices units (for example kN/m and t).`,
+    );
+  }
+  const force = math.unit(1, 'N');
+  if (M.unit.equalBase(force)) {
+    fail(
+      `M is in ${unitText(M.unit)}; a mass matrix must be in mass units — did you enter weights instead of masses? Divide by g = 9.81 m/s².`,
+    );
+  }
+  const ratio = math.divide(
+    math.unit(1, K.unit.formatUnits()),
+    math.unit(1, M.unit.formatUnits()),
+  ) as Unit | number;
+  const ok = math.isUnit(ratio) && (ratio as Unit).equalBase(math.unit(1, 's^-2'));
+  if (!ok) {
+    fail(
+      `K is in ${unitText(K.unit)} and M in ${unitText(M.unit)}: K/M must reduce to 1/s² (for example kN/m with t, or N/m with kg).`,
+    );
+  }
+  return null;
+}
+
+function parseNormalize(v: string): ShapeNormalization {
+  const t = v.trim().toLowerCase();
+  if (t === 'mass' || t === 'max') return t;
+  const m = /^dof\s+(\d+)$/.exec(t);
+  if (m) return { dof: Number(m[1]) };
+  return fail(`"normalize:" is mass, max or dof <number> (got "${v}").`, 'SHEET_PARSE');
+}
+
+function positiveInteger(v: string, key: string): number {
+  const n = Number(v);
+  if (!/^\d+$/.test(v.trim()) || !Number.isInteger(n) || n < 1) {
+    fail(`"${key}:" must be a whole number of at least 1 (got "${v}").`, 'SHEET_PARSE');
+  }
+  return n;
+}
+
+function emptyResult(block: SheetBlock, blockIndex: number): ModesBlockResult {
   return {
     kind: 'modes',
     blockId: block.id,
@@ -32,4 +181,355 @@ export function evaluateModesBlock(
     histories: [],
     engine: null,
   };
+}
+
+/** The scope object bound under the block's name: vectors and matrices with units. */
+function bindResults(ctx: EvalContext, r: ModalResult): Record<string, unknown> {
+  const { math } = ctx.sm;
+  const vec = (xs: number[], unit: string | null) =>
+    math.matrix((unit ? xs.map((x) => math.unit(x, unit)) : xs) as number[]) as Matrix;
+  const modes = r.modes;
+  const phi =
+    r.n * modes.length <= ctx.maxMatrixEntries
+      ? math.matrix(Array.from({ length: r.n }, (_, i) => modes.map((m) => m.shape[i]!)))
+      : null;
+  const out: Record<string, unknown> = {
+    lambda: vec(
+      modes.map((m) => m.lambda),
+      's^-2',
+    ),
+    omega: vec(
+      modes.map((m) => m.omega),
+      'rad/s',
+    ),
+    f: vec(
+      modes.map((m) => m.frequencyHz),
+      'Hz',
+    ),
+    T: vec(
+      modes.map((m) => m.periodS),
+      's',
+    ),
+    n: r.n,
+    count: modes.length,
+  };
+  if (phi) out.phi = phi;
+  const p = r.participation[0];
+  if (p) {
+    out.gamma = vec(p.gamma, null);
+    out.meff = vec(p.effectiveMass, 'kg');
+    out.ratio = vec(p.ratio, null);
+    out.cumulative = vec(p.cumulative, null);
+    out.total_mass = math.unit(p.totalMass, 'kg');
+  }
+  if (r.participation.length > 1) {
+    const dirs: Record<string, unknown> = {};
+    for (const d of r.participation) {
+      dirs[d.name] = {
+        gamma: vec(d.gamma, null),
+        meff: vec(d.effectiveMass, 'kg'),
+        ratio: vec(d.ratio, null),
+        cumulative: vec(d.cumulative, null),
+      };
+    }
+    out.directions = dirs;
+  }
+  if (r.sturm) out.sturm = { count: r.sturm.countBelow, found: r.sturm.found, ok: r.sturm.ok };
+  if (r.criticalTimeStep) out.dt_cr = math.unit(r.criticalTimeStep.dtCr, 's');
+  return out;
+}
+
+export function evaluateModesBlock(
+  ctx: EvalContext,
+  block: SheetBlock,
+  blockIndex: number,
+): ModesBlockResult {
+  const at = (line: number) => ({ blockId: block.id, blockIndex, line });
+  const result = emptyResult(block, blockIndex);
+  const keys: Partial<Record<ModesKey, { value: string; line: number }>> = {};
+  let bad = false;
+  blockLines(block.source).forEach((raw, i) => {
+    const line = i + 1;
+    const { code } = splitComment(raw);
+    if (code.trim() === '') return;
+    const kv = /^\s*([A-Za-z][A-Za-z ]*?)\s*:\s*(.*)$/.exec(code);
+    if (!kv) {
+      report(
+        ctx,
+        at(line),
+        new EngineError(
+          'SHEET_PARSE',
+          `Expected "key: value" (for example "stiffness: K"); the keys are ${MODES_KEYS.join(', ')}.`,
+        ),
+      );
+      bad = true;
+      return;
+    }
+    const key = kv[1]!.toLowerCase().replace(/\s+/g, ' ') as ModesKey;
+    if (!MODES_KEYS.includes(key)) {
+      report(
+        ctx,
+        at(line),
+        new EngineError(
+          'SHEET_PARSE',
+          `Unknown key "${kv[1]}"; the keys of a modes block are ${MODES_KEYS.join(', ')}.`,
+        ),
+      );
+      bad = true;
+      return;
+    }
+    if (keys[key]) {
+      report(
+        ctx,
+        at(line),
+        new EngineError(
+          'SHEET_PARSE',
+          `"${key}:" is given twice (first on line ${keys[key].line}).`,
+        ),
+      );
+      bad = true;
+      return;
+    }
+    if (kv[2]!.trim() === '') {
+      report(ctx, at(line), new EngineError('SHEET_PARSE', `"${key}:" has no value.`));
+      bad = true;
+      return;
+    }
+    keys[key] = { value: kv[2]!.trim(), line };
+  });
+
+  const name = keys.name?.value ?? 'modes';
+  result.name = name;
+  const nameLine = keys.name?.line ?? 0;
+  const markFailed = () => {
+    ctx.failed.set(name, at(nameLine));
+    ctx.scope.delete(name);
+    return result;
+  };
+  if (keys.name && !/^[A-Za-z][A-Za-z0-9_]*$/.test(name)) {
+    report(
+      ctx,
+      at(nameLine),
+      new EngineError(
+        'SHEET_PARSE',
+        `"${name}" is not a valid name: use letters, digits and _, starting with a letter.`,
+      ),
+    );
+    return result;
+  }
+  if (bad) return markFailed();
+  for (const req of ['stiffness', 'mass'] as const) {
+    if (!keys[req]) {
+      report(
+        ctx,
+        at(0),
+        new EngineError(
+          'SHEET_PARSE',
+          `A modes block needs "${req}:" (for example "${req}: ${req === 'stiffness' ? 'K' : 'M'}").`,
+        ),
+      );
+      bad = true;
+    }
+  }
+  if (bad) return markFailed();
+
+  // Each key is read at its own line so errors point there.
+  const options: SolveOptions = {};
+  const warnings: string[] = [];
+  let K: SideMatrix | null = null;
+  let M: SideMatrix | null = null;
+  let base: Record<string, unknown> | null = null;
+  const evalAt = (key: ModesKey) => {
+    const k = keys[key]!;
+    return evaluateNode(ctx, parseExpression(ctx, k.value), new Map(ctx.scope));
+  };
+  const step = <T>(key: ModesKey, fn: () => T): T | undefined => {
+    try {
+      return fn();
+    } catch (err) {
+      if (err instanceof EngineError && err.code === 'CANCELLED') throw err;
+      report(ctx, at(keys[key]?.line ?? 0), err);
+      bad = true;
+      return undefined;
+    }
+  };
+  K =
+    step('stiffness', () => sideMatrix(ctx, evalAt('stiffness'), 'K', keys.stiffness!.value)) ??
+    null;
+  M = step('mass', () => sideMatrix(ctx, evalAt('mass'), 'M', keys.mass!.value)) ?? null;
+  const baseName = /^([A-Za-z][A-Za-z0-9_]*)\.K$/.exec(keys.stiffness!.value)?.[1];
+  if (baseName) {
+    const b = ctx.scope.get(baseName);
+    if (b && typeof b === 'object' && Object.getPrototypeOf(b) === Object.prototype)
+      base = b as Record<string, unknown>;
+  }
+  if (keys.method) {
+    step('method', () => {
+      const m = keys.method!.value.toLowerCase() as MethodName;
+      if (!METHODS.includes(m))
+        fail(
+          `Unknown method "${keys.method!.value}"; the methods are ${METHODS.join(', ')}.`,
+          'SHEET_PARSE',
+        );
+      options.method = m;
+    });
+  }
+  if (keys.count)
+    step('count', () => (options.count = positiveInteger(keys.count!.value, 'count')));
+  if (keys['max iterations']) {
+    step(
+      'max iterations',
+      () =>
+        (options.maxIterations = positiveInteger(keys['max iterations']!.value, 'max iterations')),
+    );
+  }
+  if (keys.tolerance) {
+    step('tolerance', () => {
+      const t = Number(keys.tolerance!.value);
+      if (!(t > 0 && t < 1))
+        fail(
+          `"tolerance:" must be a number between 0 and 1, such as 1e-10 (got "${keys.tolerance!.value}").`,
+          'SHEET_PARSE',
+        );
+      options.tolerance = t;
+    });
+  }
+  if (keys.normalize)
+    step('normalize', () => (options.normalize = parseNormalize(keys.normalize!.value)));
+  if (keys.shift) {
+    step('shift', () => {
+      const v = evalAt('shift');
+      const { math } = ctx.sm;
+      if (!math.isUnit(v))
+        fail('"shift:" must be a frequency with its unit, such as 24.5 Hz, 1480 rpm or 150 rad/s.');
+      const u = v as Unit;
+      let lambda: number;
+      if (u.equalBase(math.unit(1, 'Hz'))) lambda = (2 * Math.PI * u.toNumber('Hz')) ** 2;
+      else if (u.equalBase(math.unit(1, 'rad/s'))) lambda = u.toNumber('rad/s') ** 2;
+      else return fail(`"shift:" must be a frequency (Hz, rpm or rad/s); got ${u.toString()}.`);
+      options.shift = lambda;
+    });
+  }
+  const influence: InfluenceVector[] = [];
+  if (keys.direction) {
+    step('direction', () => {
+      const d = keys.direction!.value;
+      const inf = base?.influence as Record<string, unknown> | undefined;
+      let v: unknown;
+      if (/^[A-Za-z][A-Za-z0-9_]*$/.test(d) && inf && d in inf && !ctx.scope.has(d)) v = inf[d];
+      else v = evalAt('direction');
+      const { math } = ctx.sm;
+      const arr = math.isMatrix(v) ? ((v as Matrix).toArray() as unknown[]).flat(2) : null;
+      if (!arr || !arr.every((x) => typeof x === 'number')) {
+        fail(
+          `"direction:" must be an influence vector of plain numbers (for example [1, 1, 1]) or the name of one of the model's directions.`,
+        );
+      }
+      influence.push({ name: d, vector: Float64Array.from(arr as number[]) });
+    });
+  } else if (base?.influence && typeof base.influence === 'object') {
+    const { math } = ctx.sm;
+    for (const [nm, v] of Object.entries(base.influence as Record<string, unknown>)) {
+      if (math.isMatrix(v))
+        influence.push({
+          name: nm,
+          vector: Float64Array.from(((v as Matrix).toArray() as number[]).flat()),
+        });
+    }
+  }
+  if (bad || !K || !M) return markFailed();
+
+  const unitsOk = step(K.unit ? 'mass' : 'stiffness', () => checkPencilUnits(ctx, K, M));
+  if (unitsOk === undefined && bad) return markFailed();
+  if (unitsOk) warnings.push(unitsOk);
+  if (K.n !== M.n) {
+    report(
+      ctx,
+      at(keys.mass!.line),
+      new EngineError(
+        'MATRIX_SIZE_MISMATCH',
+        `K is ${K.n}×${K.n} but M is ${M.n}×${M.n}; they must be the same size.`,
+      ),
+    );
+    return markFailed();
+  }
+  for (const inf of influence) {
+    if (inf.vector.length !== K.n) {
+      report(
+        ctx,
+        at(keys.direction?.line ?? 0),
+        new EngineError(
+          'MATRIX_SIZE_MISMATCH',
+          `The direction "${inf.name}" has ${inf.vector.length} entries but the model has ${K.n} DOFs.`,
+        ),
+      );
+      return markFailed();
+    }
+  }
+  if (influence.length > 0) options.influence = influence;
+  options.signal = {
+    get aborted() {
+      return ctx.options.isCancelled?.() ?? false;
+    },
+  };
+
+  let r: ModalResult;
+  try {
+    r = solveModes(K.engine, M.engine, options);
+  } catch (err) {
+    if (err instanceof EngineError && err.code === 'CANCELLED') throw err;
+    const e =
+      err instanceof EngineError
+        ? err
+        : new EngineError('SHEET_EVAL', String((err as Error)?.message ?? err));
+    const msg =
+      e instanceof NoConvergenceError
+        ? `${e.message} Raise "max iterations:" or loosen "tolerance:".`
+        : e.message;
+    const line = e.code === 'INVALID_OPTION' ? (keys.method?.line ?? 0) : 0;
+    ctx.errors.push({ ...at(line), message: msg, code: e.code });
+    return markFailed();
+  }
+
+  const p = r.participation[0];
+  result.method = options.method ?? 'auto';
+  result.methodUsed = r.method;
+  result.size = r.n;
+  result.modes = r.modes.map((m, i): ModeRow => ({
+    mode: m.index,
+    lambda: m.lambda,
+    omega: m.omega,
+    frequency: m.frequencyHz,
+    period: Number.isFinite(m.periodS) ? m.periodS : null,
+    gamma: p ? p.gamma[i]! : null,
+    effectiveMass: p ? p.effectiveMass[i]! : null,
+    ratio: p ? p.ratio[i]! : null,
+    cumulative: p ? p.cumulative[i]! : null,
+    backwardError: m.residual,
+    iterations: m.iterations,
+  }));
+  result.shapes =
+    r.n * r.modes.length <= RESULT_MATRIX_LIMIT
+      ? Array.from({ length: r.n }, (_, i) => r.modes.map((m) => m.shape[i]!))
+      : null;
+  result.histories = r.modes.map((m) => m.history);
+  result.sturm = r.sturm
+    ? { shift: r.sturm.shift, count: r.sturm.countBelow, found: r.sturm.found, missed: !r.sturm.ok }
+    : null;
+  result.criticalTimeStep = r.criticalTimeStep?.dtCr ?? null;
+  result.warnings = [...warnings, ...r.warnings.map((w) => w.message)];
+  result.engine = {
+    methodNote: r.methodNote,
+    options: { ...r.options, shift: r.options.shift },
+    orthogonality: r.orthogonality,
+    rigidBodyModes: r.rigidBodyModes,
+    closelySpaced: r.closelySpaced,
+    conditioning: r.conditioning,
+    participation: r.participation,
+    ...(r.criticalTimeStep ? { criticalTimeStep: r.criticalTimeStep } : {}),
+  };
+  ctx.scope.set(name, bindResults(ctx, r));
+  ctx.failed.delete(name);
+  result.ok = true;
+  return result;
 }
