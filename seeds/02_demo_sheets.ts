@@ -65,7 +65,7 @@ const demoSheets: DemoSheet[] = [
         'k_soil = ': 'k_soil = 640 kN/mm  # vertical soil spring, ground report table 7',
         'k_mount = ': 'k_mount = 310 kN/mm  # grout pads and anchors',
       },
-      'near-running-speed': { 'shift: ': 'shift: 24.75 Hz' },
+      'near-running-speed': { 'shift: ': 'shift: 1485 rpm  # the running speed of P-02' },
     },
   },
 ];

@@ -1,7 +1,10 @@
 import { Router } from 'express';
 import { currentUser, requireSignedIn } from '../../http/auth';
 import type { AppContext } from '../../http/context';
+import { normaliseError } from '../../http/error-middleware';
 import { parse } from '../../http/validate';
+import { checkSheetAccess } from './sheets.access';
+import { evaluateSheetDraft, type SheetRunner } from './sheets.evaluate';
 import {
   createSheetBody,
   draftBody,
@@ -12,11 +15,19 @@ import {
 } from './sheets.schemas';
 import { missingIfMatch, sheetsService } from './sheets.service';
 
+export interface SheetsRouterOptions {
+  /** How evaluations run (default: the sheet engine in this thread; pass the worker pool's). */
+  runner?: SheetRunner;
+}
+
 /**
  * Sheets in a project (DESIGN §4): list, create (empty or from a template), read, rename, save
- * the draft with optimistic concurrency, delete a never-issued draft. Mounted at /api.
+ * the draft with optimistic concurrency, delete a never-issued draft, evaluate the editor's text
+ * (plain or as server-sent events). Mounted at /api.
  */
-export function createSheetsRouter({ db }: AppContext): Router {
+export function createSheetsRouter(ctx: AppContext, options: SheetsRouterOptions = {}): Router {
+  const { db, log } = ctx;
+  const runner = options.runner;
   const router = Router();
 
   router.get('/sheet-templates', requireSignedIn, (_req, res) => {
@@ -60,6 +71,65 @@ export function createSheetsRouter({ db }: AppContext): Router {
     const { sheetId } = parse(sheetParams, req.params, 'params');
     await sheetsService.remove(db, currentUser(req), sheetId);
     res.status(204).end();
+  });
+
+  router.post('/sheets/:sheetId/evaluate', requireSignedIn, async (req, res) => {
+    const { sheetId } = parse(sheetParams, req.params, 'params');
+    const input = parse(draftBody, req.body);
+    const controller = new AbortController();
+    res.on('close', () => {
+      if (!res.writableEnded) controller.abort();
+    });
+    const out = await evaluateSheetDraft(db, currentUser(req), sheetId, input, {
+      signal: controller.signal,
+      ...(runner ? { runner } : {}),
+    });
+    res.json(out);
+  });
+
+  // Server-sent events: `progress` (one per block), then `result` or `error`. A client that
+  // disconnects cancels the evaluation. Refusals found before the stream opens (sign-in, role,
+  // input) answer as ordinary JSON errors.
+  router.post('/sheets/:sheetId/evaluate/stream', requireSignedIn, async (req, res) => {
+    const { sheetId } = parse(sheetParams, req.params, 'params');
+    const input = parse(draftBody, req.body);
+    const user = currentUser(req);
+    await checkSheetAccess(db, user, sheetId);
+
+    const controller = new AbortController();
+    res.on('close', () => {
+      if (!res.writableEnded) controller.abort();
+    });
+    res.status(200).set({
+      'Content-Type': 'text/event-stream; charset=utf-8',
+      'Cache-Control': 'no-cache, no-transform',
+      'X-Accel-Buffering': 'no',
+    });
+    res.flushHeaders();
+    const send = (event: string, data: unknown) => {
+      if (!res.writableEnded) res.write(`event: ${event}\ndata: ${JSON.stringify(data)}\n\n`);
+    };
+    try {
+      const out = await evaluateSheetDraft(db, user, sheetId, input, {
+        signal: controller.signal,
+        onProgress: (p) => send('progress', p),
+        ...(runner ? { runner } : {}),
+      });
+      send('result', out);
+    } catch (e) {
+      if (!controller.signal.aborted) {
+        const err = normaliseError(e, log, `POST ${req.originalUrl}`);
+        send('error', {
+          error: {
+            code: err.code,
+            message: err.message,
+            ...(err.field ? { field: err.field } : {}),
+            ...(err.details ? { details: err.details } : {}),
+          },
+        });
+      }
+    }
+    res.end();
   });
 
   return router;

@@ -205,7 +205,7 @@ const pumpFoundation: SheetTemplate = {
         'stiffness: foundation.K',
         'mass: foundation.M',
         'method: shifted',
-        'shift: 24.67 Hz',
+        'shift: 1480 rpm  # the running speed',
         'count: 2',
         'normalize: max',
       ),

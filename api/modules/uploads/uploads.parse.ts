@@ -18,10 +18,11 @@ export interface MatrixFileShape {
 export const MAX_MATRIX_ENTRIES = 4_000_000;
 
 /**
- * Relative asymmetry |a_ij − a_ji| / max |a| still called symmetric: what rounding in the program
- * that wrote the file leaves behind (common practice; the worst pair is reported either way).
+ * Relative asymmetry |a_ij − a_ji| / max |a| still called symmetric: the sheet engine's matrix
+ * block tolerance (core/sheet/blocks/matrix.ts), so an upload called symmetric here is accepted
+ * by a modes block. The worst pair is reported either way.
  */
-export const SYMMETRY_TOLERANCE = 1e-12;
+export const SYMMETRY_TOLERANCE = 1e-9;
 
 /** Matrix Market by the .mtx extension or its header line; CSV by the .csv extension. */
 export function detectFormat(name: string, text: string): UploadFormat {
