@@ -1,0 +1,51 @@
+import { AppError } from '../../http/errors';
+import type { Db } from '../../db/index';
+import { hashPassword, verifyPassword } from '../auth/passwords';
+import type { User } from '../users/users.repository';
+import { recordReviewActivity } from '../revisions/review-deps';
+import { sealsRepository } from '../seals/seals.repository';
+import { reencryptSigningKey } from '../seals/signing-keys';
+import { accountRepository } from './account.repository';
+
+export const accountService = {
+  /**
+   * Changes the signed-in person's password. A principal's signing key is locked under the
+   * password, so it is unlocked with the current one and locked again under the new one in the
+   * same transaction: the key pair stays the same and every earlier seal still verifies.
+   */
+  async changePassword(
+    db: Db,
+    user: User,
+    input: { currentPassword: string; newPassword: string },
+  ): Promise<{ signingKeyReencrypted: boolean }> {
+    const hash = await accountRepository.passwordHashOf(db, user.id);
+    if (!hash || !(await verifyPassword(hash, input.currentPassword))) {
+      throw new AppError(403, 'WRONG_PASSWORD', 'The current password is not right.', {
+        field: 'currentPassword',
+      });
+    }
+    if (input.newPassword === input.currentPassword) {
+      throw new AppError(422, 'VALIDATION', 'The new password is the same as the current one.', {
+        field: 'newPassword',
+      });
+    }
+    const newHash = await hashPassword(input.newPassword);
+    const key = await sealsRepository.findSigningKey(db, user.id);
+    const relocked = key
+      ? await reencryptSigningKey(key, input.currentPassword, input.newPassword).catch(() => null)
+      : null;
+    await db.transaction(async (trx) => {
+      await accountRepository.setPasswordHash(trx, user.id, newHash);
+      if (relocked) await sealsRepository.saveSigningKey(trx, relocked);
+      await recordReviewActivity(trx, {
+        actorId: user.id,
+        projectId: null,
+        action: 'account.password_changed',
+        objectType: 'user',
+        objectId: user.id,
+        details: { signingKeyReencrypted: relocked !== null, hadSigningKey: key !== undefined },
+      });
+    });
+    return { signingKeyReencrypted: relocked !== null };
+  },
+};

@@ -1,0 +1,30 @@
+import { Router } from 'express';
+import { z } from 'zod';
+import { requireAdmin } from '../../http/auth';
+import type { AppContext } from '../../http/context';
+import { parse } from '../../http/validate';
+import { outboxRepository } from './outbox.repository';
+
+const outboxQuery = z.object({
+  sheetId: z.coerce.number().int().positive({ error: 'sheetId must be a sheet id.' }).optional(),
+  limit: z.coerce
+    .number()
+    .int()
+    .min(1, { error: 'limit must be at least 1.' })
+    .max(1000, { error: 'limit can be at most 1000.' })
+    .optional(),
+});
+
+/** Mounted at /api/outbox (admin): the mail the local fake transport kept, newest first. */
+export function createOutboxRouter({ db }: AppContext): Router {
+  const router = Router();
+  router.get('/', requireAdmin, async (req, res) => {
+    const q = parse(outboxQuery, req.query, 'query');
+    const messages = await outboxRepository.list(db, {
+      limit: q.limit ?? 200,
+      ...(q.sheetId === undefined ? {} : { relatedSheetId: q.sheetId }),
+    });
+    res.json({ messages });
+  });
+  return router;
+}

@@ -1,0 +1,267 @@
+import { AppError, NotFoundError } from '../../http/errors';
+import { verifyPassword } from '../auth/passwords';
+import type { User } from '../users/users.repository';
+import { compareResults, REPRODUCE_RELATIVE_TOLERANCE } from '../revisions/reproduce';
+import { sealedMail } from '../revisions/review-mail';
+import { recordReviewActivity, sendAfterCommit, type ReviewDeps } from '../revisions/review-deps';
+import { reviewRepository } from '../revisions/review.repository';
+import {
+  revisionAccess,
+  sealView,
+  sheetOf,
+  summaryOf,
+  wrongState,
+  type SealView,
+} from '../revisions/revisions.service';
+import { revisionsRepository, type RevisionSummary } from '../revisions/revisions.repository';
+import { generateSealCode } from './seal-code';
+import { sealDigest } from './seal-digest';
+import { sealsRepository } from './seals.repository';
+import {
+  createSigningKey,
+  publicKeyMatches,
+  signDigest,
+  SigningKeyLockedError,
+  unlockSigningKey,
+} from './signing-keys';
+
+function isDuplicate(e: unknown): boolean {
+  return typeof e === 'object' && e !== null && (e as { errno?: unknown }).errno === 1062;
+}
+
+export const sealsService = {
+  /**
+   * Seal (principal): a signed-off revision, the principal role, a licence number and
+   * jurisdiction on the profile, the password typed again, and a fresh evaluation in a worker
+   * that reproduces the stored results within relative 1e-9 on every number.
+   */
+  async seal(
+    deps: ReviewDeps,
+    user: User,
+    revisionId: number,
+    password: string,
+  ): Promise<{ revision: RevisionSummary; seal: SealView }> {
+    const { rev, sheet } = await revisionAccess(
+      deps,
+      user,
+      revisionId,
+      ['principal'],
+      'seal a revision',
+    );
+    if (rev.status !== 'checked') {
+      throw wrongState(
+        rev,
+        'only a revision the checker has signed off can be sealed',
+        'NOT_SIGNED_OFF',
+      );
+    }
+    if (!user.licenceNumber || !user.jurisdiction) {
+      throw new AppError(
+        422,
+        'NO_LICENCE',
+        `Your profile has no ${!user.licenceNumber ? 'licence number' : 'jurisdiction'}: a seal states the principal's licence number and jurisdiction. Ask an administrator to add them.`,
+        { field: !user.licenceNumber ? 'licenceNumber' : 'jurisdiction' },
+      );
+    }
+    const hash = await sealsRepository.passwordHashOf(deps.db, user.id);
+    if (!hash || !(await verifyPassword(hash, password))) {
+      await recordReviewActivity(deps.db, {
+        actorId: user.id,
+        projectId: sheet.projectId,
+        action: 'seal.refused',
+        objectType: 'revision',
+        objectId: rev.id,
+        details: { sheetId: sheet.id, revisionNumber: rev.number, reason: 'WRONG_PASSWORD' },
+      });
+      throw new AppError(
+        403,
+        'WRONG_PASSWORD',
+        'The password is not right; type the password you sign in with.',
+        {
+          field: 'password',
+        },
+      );
+    }
+
+    let key = await sealsRepository.findSigningKey(deps.db, user.id);
+    if (!key) {
+      key = await createSigningKey(user.id, password);
+      await sealsRepository.saveSigningKey(deps.db, key);
+      await recordReviewActivity(deps.db, {
+        actorId: user.id,
+        projectId: null,
+        action: 'signing_key.created',
+        objectType: 'user',
+        objectId: user.id,
+        details: { algorithm: 'ed25519' },
+      });
+    }
+    let privateKey;
+    try {
+      privateKey = await unlockSigningKey(key, password);
+    } catch (e) {
+      if (!(e instanceof SigningKeyLockedError)) throw e;
+      throw new AppError(
+        409,
+        'SIGNING_KEY_LOCKED',
+        'Your signing key is locked under an earlier password (the password was reset without it). Ask an administrator; a new key must be issued before you can seal.',
+      );
+    }
+    if (!publicKeyMatches(privateKey, key.publicKey)) {
+      throw new AppError(
+        409,
+        'SIGNING_KEY_LOCKED',
+        'Your signing key does not match its public key; a new key must be issued.',
+      );
+    }
+
+    // The fresh evaluation, from the revision's own frozen blocks and the sheet's uploads.
+    const uploads = await reviewRepository.uploadsOf(deps.db, sheet.id);
+    const fresh = await deps.evaluate(sheetOf(rev), uploads);
+    const stored = JSON.parse(rev.resultsText) as unknown;
+    const { moved, total } = compareResults(stored, JSON.parse(fresh.resultsJson) as unknown);
+    const textChanged = fresh.canonicalText !== rev.canonicalText;
+    if (total > 0 || textChanged) {
+      await recordReviewActivity(deps.db, {
+        actorId: user.id,
+        projectId: sheet.projectId,
+        action: 'seal.refused',
+        objectType: 'revision',
+        objectId: rev.id,
+        details: {
+          sheetId: sheet.id,
+          revisionNumber: rev.number,
+          reason: 'RESULTS_DO_NOT_REPRODUCE',
+          moved: total,
+        },
+      });
+      const list = moved
+        .slice(0, 5)
+        .map(
+          (m) => `${m.where}: stored ${JSON.stringify(m.stored)}, now ${JSON.stringify(m.fresh)}`,
+        )
+        .join('; ');
+      throw new AppError(
+        409,
+        'RESULTS_DO_NOT_REPRODUCE',
+        textChanged && total === 0
+          ? `A fresh evaluation of Rev ${rev.number} does not give the stored canonical text, so it cannot be sealed.`
+          : `A fresh evaluation of Rev ${rev.number} does not reproduce its stored results (tolerance: relative ${REPRODUCE_RELATIVE_TOLERANCE} on every number); ${total} value(s) moved: ${list}${total > 5 ? '; …' : ''}. It cannot be sealed; issue a new revision.`,
+        {
+          details: {
+            tolerance: REPRODUCE_RELATIVE_TOLERANCE,
+            movedCount: total,
+            moved,
+            canonicalTextChanged: textChanged,
+            storedEngineVersion: rev.engineVersion,
+            freshEngineVersion: fresh.engineVersion,
+          },
+        },
+      );
+    }
+
+    const sealedAt = new Date();
+    const payload = {
+      canonicalTextDigest: rev.digests.canonicalText,
+      resultsDigest: rev.digests.results,
+      engineVersion: rev.engineVersion,
+      revisionId: rev.id,
+      revisionNumber: rev.number,
+      sheetId: sheet.id,
+      principalId: user.id,
+      licenceNumber: user.licenceNumber,
+      sealedAt: sealedAt.toISOString(),
+    };
+    const digest = sealDigest(payload);
+    const signature = signDigest(privateKey, digest);
+
+    let code = '';
+    let superseded: number[] = [];
+    for (let attempt = 0; ; attempt++) {
+      code = generateSealCode();
+      try {
+        superseded = await deps.db.transaction(async (trx) => {
+          const status = await revisionsRepository.lockStatus(trx, rev.id);
+          if (status !== 'checked') {
+            throw wrongState(
+              { number: rev.number, status: status ?? rev.status },
+              'only a revision the checker has signed off can be sealed',
+              'NOT_SIGNED_OFF',
+            );
+          }
+          await reviewRepository.lockSheet(trx, sheet.id);
+          const earlier = await revisionsRepository.supersedeEarlier(
+            trx,
+            sheet.id,
+            rev.id,
+            sealedAt,
+          );
+          await sealsRepository.insert(trx, {
+            revisionId: rev.id,
+            code,
+            principalId: user.id,
+            principalName: user.name,
+            licenceNumber: user.licenceNumber ?? '',
+            jurisdiction: user.jurisdiction ?? '',
+            sealedAt,
+            canonicalTextDigest: payload.canonicalTextDigest,
+            resultsDigest: payload.resultsDigest,
+            engineVersion: payload.engineVersion,
+            digest,
+            signature,
+            publicKey: key.publicKey,
+          });
+          await revisionsRepository.markSealed(trx, rev.id, user.id, sealedAt);
+          await reviewRepository.setSheetStatus(trx, sheet.id, 'sealed');
+          await recordReviewActivity(trx, {
+            actorId: user.id,
+            projectId: sheet.projectId,
+            action: 'revision.sealed',
+            objectType: 'revision',
+            objectId: rev.id,
+            details: {
+              sheetId: sheet.id,
+              revisionNumber: rev.number,
+              sealCode: code,
+              digest,
+              superseded: earlier,
+            },
+          });
+          for (const id of earlier) {
+            await recordReviewActivity(trx, {
+              actorId: user.id,
+              projectId: sheet.projectId,
+              action: 'revision.superseded',
+              objectType: 'revision',
+              objectId: id,
+              details: { sheetId: sheet.id, supersededBy: rev.number },
+            });
+          }
+          return earlier;
+        });
+        break;
+      } catch (e) {
+        // A seal code already taken (1 in 2^50 per seal): draw another.
+        if (isDuplicate(e) && attempt < 3) continue;
+        throw e;
+      }
+    }
+
+    const numbers = (await revisionsRepository.listBySheet(deps.db, sheet.id))
+      .filter((r) => superseded.includes(r.id))
+      .map((r) => r.number);
+    const everyone = (await reviewRepository.members(deps.db, sheet.projectId)).map((p) => p.email);
+    await sendAfterCommit(
+      deps,
+      sealedMail(sheet, everyone, {
+        revisionNumber: rev.number,
+        by: user.name,
+        code,
+        supersededNumbers: numbers,
+      }),
+    );
+    const seal = await sealsRepository.findByRevision(deps.db, rev.id);
+    if (!seal) throw new NotFoundError('The seal was not found after it was made.');
+    return { revision: await summaryOf(deps, rev.id), seal: sealView(seal) };
+  },
+};

@@ -1,0 +1,45 @@
+import { Router } from 'express';
+import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
+import { z } from 'zod';
+import { RateLimitedError } from '../../http/errors';
+import { parse } from '../../http/validate';
+import type { ReviewDeps } from '../revisions/review-deps';
+import { verifyService } from './verify.service';
+
+const verifyParams = z.object({
+  code: z
+    .string()
+    .min(1, { error: 'Give the seal code.' })
+    .max(64, { error: 'A seal code is 11 characters.' }),
+});
+
+export interface VerifyRouterOptions {
+  /** Look-ups allowed per client address per minute (public route). Default 60. */
+  perMinute?: number;
+}
+
+/** GET /verify/:code — public, no sign-in, rate limited. */
+export function createVerifyRouter(deps: ReviewDeps, options: VerifyRouterOptions = {}): Router {
+  const router = Router();
+  const limiter = rateLimit({
+    windowMs: 60_000,
+    limit: options.perMinute ?? Number(process.env.MW_VERIFY_LIMIT ?? 60),
+    standardHeaders: 'draft-7',
+    legacyHeaders: false,
+    keyGenerator: (req) => ipKeyGenerator(req.ip ?? 'unknown'),
+    handler: (_req, res, next) => {
+      const retryAfter = Number(res.getHeader('Retry-After')) || 60;
+      next(
+        new RateLimitedError(
+          `Too many seal look-ups from this address; try again in a minute.`,
+          retryAfter,
+        ),
+      );
+    },
+  });
+  router.get('/verify/:code', limiter, async (req, res) => {
+    const { code } = parse(verifyParams, req.params, 'params');
+    res.set('Cache-Control', 'no-store').json(await verifyService.verify(deps.db, code));
+  });
+  return router;
+}
