@@ -16,3 +16,15 @@ export { canonicalJson, sha256Hex, digestSheet, type SheetDigests } from './cano
 export { latexName } from './latex';
 export { formatNumber } from './format';
 export { FORBIDDEN_FUNCTIONS } from './math';
+export {
+  diffSheets,
+  diffBlocks,
+  diffResults,
+  mapLine,
+  type SheetDiff,
+  type BlockChange,
+  type LineHunk,
+  type ResultChange,
+  type CriterionFlip,
+  type MappedLine,
+} from './diff';
