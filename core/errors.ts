@@ -15,6 +15,7 @@ export type EngineErrorCode =
   | 'MASS_NOT_PSD'
   | 'MASS_SINGULAR'
   | 'STIFFNESS_SINGULAR'
+  | 'STIFFNESS_NOT_PSD'
   | 'ZERO_PIVOT'
   | 'NO_CONVERGENCE'
   | 'MODEL_TOO_LARGE'

@@ -1,1 +1,9 @@
-export {};
+export * from './types';
+export * from './random';
+export * from './vector-tools';
+export * from './dense-eigensolver';
+export * from './inverse-iteration';
+export * from './shifted-inverse-iteration';
+export * from './forward-iteration';
+export * from './modal-quantities';
+export * from './solve-modes';

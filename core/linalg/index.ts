@@ -1,2 +1,6 @@
 export * from './types';
 export * from './sparse';
+export * from './dense';
+export * from './ordering';
+export * from './skyline';
+export * from './factorize';

@@ -1,0 +1,442 @@
+/**
+ * `solveModes`: the single entry point of the eigen engine. It checks the pencil and the options,
+ * picks the method, handles rigid-body modes and massless DOFs, runs the method module and turns
+ * its `RawEigenResult` into a `ModalResult` with every quantity of DESIGN.md §5.
+ */
+import { EngineError } from '../errors';
+import {
+  assertSymmetricMatrix,
+  combine,
+  diagonalOf,
+  factorizeSymmetric,
+  normOne,
+} from '../linalg/factorize';
+import type { SymmetricFactorization, SymmetricMatrix } from '../linalg/types';
+import { denseEigensolver } from './dense-eigensolver';
+import { forwardIteration } from './forward-iteration';
+import { inverseIteration } from './inverse-iteration';
+import { lanczos } from './lanczos';
+import {
+  backwardError,
+  closelySpacedPairs,
+  criticalTimeStep,
+  fixSign,
+  frequencies,
+  massOrthogonality,
+  normalizeShape,
+  participation,
+} from './modal-quantities';
+import { shiftedInverseIteration } from './shifted-inverse-iteration';
+import { subspaceIteration } from './subspace-iteration';
+import type {
+  MethodInput,
+  MethodName,
+  ModalResult,
+  Mode,
+  RawEigenResult,
+  ResolvedSolveOptions,
+  SolveOptions,
+} from './types';
+import { lambdaScale, pencilSize, sturmCount } from './vector-tools';
+
+const EPS = 2 ** -52;
+/** Largest model `auto` sends to the dense method. */
+export const AUTO_DENSE_LIMIT = 400;
+/** Eigenvalues below this fraction of max K_ii/M_ii count as rigid-body modes (common practice). */
+export const RIGID_BODY_THRESHOLD = 1e-10;
+const METHODS: MethodName[] = [
+  'auto',
+  'inverse',
+  'forward',
+  'shifted',
+  'dense',
+  'subspace',
+  'lanczos',
+];
+
+function invalid(field: string, message: string): EngineError {
+  return new EngineError('INVALID_OPTION', message, { field });
+}
+
+function resolveOptions(n: number, o: SolveOptions): ResolvedSolveOptions {
+  const method = o.method ?? 'auto';
+  if (!METHODS.includes(method)) {
+    throw invalid(
+      'method',
+      `Unknown method '${String(method)}'; choose one of ${METHODS.join(', ')}.`,
+    );
+  }
+  const count = o.count ?? (method === 'dense' ? n : Math.min(10, n));
+  if (!Number.isInteger(count) || count < 1) {
+    throw invalid('count', `The number of modes must be a whole number ≥ 1, got ${count}.`);
+  }
+  const tolerance = o.tolerance ?? 1e-10;
+  if (!(tolerance > 0 && tolerance < 1)) {
+    throw invalid(
+      'tolerance',
+      `The tolerance is relative on λ and must lie between 0 and 1, got ${tolerance}.`,
+    );
+  }
+  const maxIterations = o.maxIterations ?? 2000;
+  if (!Number.isInteger(maxIterations) || maxIterations < 1) {
+    throw invalid(
+      'maxIterations',
+      `The iteration limit must be a whole number ≥ 1, got ${maxIterations}.`,
+    );
+  }
+  if (o.shift !== undefined && !Number.isFinite(o.shift)) {
+    throw invalid('shift', `The shift must be a finite number (rad²/s²), got ${o.shift}.`);
+  }
+  if (method === 'shifted' && o.shift === undefined) {
+    throw invalid(
+      'shift',
+      'The shifted method needs a target: give a shift (λ in rad²/s², or a frequency in Hz on the command line).',
+    );
+  }
+  const seed = o.seed ?? 1;
+  if (!Number.isInteger(seed))
+    throw invalid('seed', `The seed must be a whole number, got ${seed}.`);
+  const normalize = o.normalize ?? 'mass';
+  if (typeof normalize === 'object') {
+    if (!Number.isInteger(normalize.dof) || normalize.dof < 1 || normalize.dof > n) {
+      throw invalid(
+        'normalize',
+        `Shapes can be normalized at a DOF between 1 and ${n}, got ${normalize.dof}.`,
+      );
+    }
+  } else if (normalize !== 'mass' && normalize !== 'max') {
+    throw invalid(
+      'normalize',
+      `Normalization must be 'mass', 'max' or { dof }, got '${String(normalize)}'.`,
+    );
+  }
+  const xi = o.dampingRatio;
+  if (xi !== undefined && !(xi >= 0 && xi < 1)) {
+    throw invalid('dampingRatio', `The damping ratio must lie in [0, 1), got ${xi}.`);
+  }
+  return {
+    method,
+    count: Math.min(count, n),
+    tolerance,
+    maxIterations,
+    shift: o.shift ?? null,
+    seed,
+    normalize,
+    dampingRatio: xi ?? null,
+  };
+}
+
+function tryFactorize(A: SymmetricMatrix): SymmetricFactorization | EngineError {
+  try {
+    return factorizeSymmetric(A);
+  } catch (e) {
+    if (e instanceof EngineError && e.code === 'ZERO_PIVOT') return e;
+    throw e;
+  }
+}
+
+/**
+ * Solves K φ = λ M φ with the method asked for (`auto` by default) and returns every modal
+ * quantity of DESIGN.md §5. See the module files for each method's published source.
+ *
+ * Rigid-body modes (K singular) are detected by a zero pivot and counted with a Sturm count at
+ * 1e-10 · max K_ii/M_ii; the inverse family then iterates on K − σM with σ = −1e-10 · max K_ii/M_ii
+ * (stated in `methodNote`). Massless DOFs are handled by inverse, shifted and dense, refused by
+ * forward (MASS_SINGULAR).
+ *
+ * @throws EngineError MATRIX_SIZE_MISMATCH, MATRIX_NOT_SQUARE, MATRIX_NOT_SYMMETRIC,
+ *   MATRIX_NOT_FINITE, MASS_NOT_PSD, MASS_SINGULAR (forward), STIFFNESS_NOT_PSD, INVALID_OPTION,
+ *   INVALID_MODEL (empty model), CANCELLED, NO_CONVERGENCE (NoConvergenceError with the converged
+ *   modes as a RawEigenResult in `partial`).
+ * @example
+ * const { K, M, influence } = storeyChain({ masses: [2e5, 1e5], stiffnesses: [4e7, 2e7] });
+ * const r = solveModes(K, M, { count: 2, influence });
+ * r.modes[0].frequencyHz;
+ */
+export function solveModes(
+  K: SymmetricMatrix,
+  M: SymmetricMatrix,
+  options: SolveOptions = {},
+): ModalResult {
+  const n = pencilSize(K, M);
+  if (n === 0) throw new EngineError('INVALID_MODEL', 'The model has no DOFs: K and M are empty.');
+  assertSymmetricMatrix(K, 'K');
+  assertSymmetricMatrix(M, 'M');
+  const opts = resolveOptions(n, options);
+  const dm = diagonalOf(M);
+  const dk = diagonalOf(K);
+  for (let i = 0; i < n; i++) {
+    if ((dm[i] as number) < 0) {
+      throw new EngineError(
+        'MASS_NOT_PSD',
+        `M[${i + 1},${i + 1}] = ${dm[i]} is negative: a mass matrix cannot have negative mass at a DOF (DOF ${i + 1}).`,
+        { dof: i + 1 },
+      );
+    }
+    if ((dk[i] as number) < 0) {
+      throw new EngineError(
+        'STIFFNESS_NOT_PSD',
+        `K[${i + 1},${i + 1}] = ${dk[i]} is negative: a stiffness matrix cannot have negative stiffness on its diagonal (DOF ${i + 1}).`,
+        { dof: i + 1 },
+      );
+    }
+  }
+  for (const inf of options.influence ?? []) {
+    if (inf.vector.length !== n) {
+      throw invalid(
+        'influence',
+        `The influence vector '${inf.name}' has ${inf.vector.length} entries but the model has ${n} DOFs.`,
+      );
+    }
+  }
+  let massless = 0;
+  for (let i = 0; i < n; i++) if (dm[i] === 0) massless++;
+
+  // method choice
+  let method: Exclude<MethodName, 'auto'>;
+  const noteParts: string[] = [];
+  if (opts.method === 'auto') {
+    if (opts.shift !== null) {
+      method = 'shifted';
+      noteParts.push(
+        'auto: a target was given, so shifted inverse iteration finds the modes nearest it.',
+      );
+    } else if (n <= AUTO_DENSE_LIMIT) {
+      method = 'dense';
+      noteParts.push(
+        `auto: ${n} DOFs ≤ ${AUTO_DENSE_LIMIT}, so the dense method computes every mode.`,
+      );
+    } else {
+      method = 'inverse';
+      noteParts.push(
+        `auto: ${n} DOFs > ${AUTO_DENSE_LIMIT} (${K.kind === 'dense' ? 'dense' : 'sparse'} storage), so inverse iteration finds the lowest ${opts.count}.`,
+      );
+    }
+  } else {
+    method = opts.method;
+  }
+  // stiffness: singular (rigid-body modes) or indefinite?
+  const scale = lambdaScale(K, M);
+  const kf = tryFactorize(K);
+  let rigidBodyModes = 0;
+  let shift = 0;
+  let factorization: SymmetricFactorization | undefined;
+  if (kf instanceof EngineError) {
+    rigidBodyModes = sturmCount(K, M, RIGID_BODY_THRESHOLD * scale);
+    if (rigidBodyModes === 0) rigidBodyModes = 1; // K singular yet nothing below the threshold: at least one
+  } else {
+    if (kf.negativePivots > 0) {
+      throw new EngineError(
+        'STIFFNESS_NOT_PSD',
+        `K is not positive semi-definite: it has ${kf.negativePivots} negative eigenvalue${kf.negativePivots === 1 ? '' : 's'} (negative pivots of K = LDLᵀ). Check for negative spring stiffnesses or a sign error.`,
+        { negativePivots: kf.negativePivots },
+      );
+    }
+    factorization = kf;
+  }
+  if (rigidBodyModes > 0) {
+    noteParts.push(
+      `K is singular: ${rigidBodyModes} rigid-body mode${rigidBodyModes === 1 ? '' : 's'} (λ ≈ 0) detected (zero pivot at DOF ${String((kf as EngineError).details?.dof)}).`,
+    );
+  }
+  if (method === 'inverse' && rigidBodyModes > 0) {
+    factorization = undefined;
+    for (const f of [1, 100, 1e4]) {
+      const sigma = -RIGID_BODY_THRESHOLD * f * (scale > 0 ? scale : 1);
+      const F = tryFactorize(combine(K, 1, M, -sigma));
+      if (!(F instanceof EngineError)) {
+        shift = sigma;
+        factorization = F;
+        break;
+      }
+    }
+    if (!factorization) {
+      throw new EngineError(
+        'STIFFNESS_SINGULAR',
+        'K is singular and K − σM stays singular for small negative σ: some DOF has neither stiffness nor mass. Remove it or give it a support or a mass.',
+      );
+    }
+    noteParts.push(
+      `Inverse iteration ran on K − σM with σ = ${shift.toPrecision(3)} to step past them.`,
+    );
+  }
+  if (massless > 0) {
+    noteParts.push(
+      `${massless} DOF${massless === 1 ? ' has' : 's have'} no mass on the diagonal of M: ${method === 'forward' ? 'forward iteration needs M⁻¹.' : 'their infinite-frequency modes are never reached.'}`,
+    );
+  }
+
+  const input: MethodInput = {
+    K,
+    M,
+    count: opts.count,
+    tolerance: opts.tolerance,
+    maxIterations: opts.maxIterations,
+    shift:
+      method === 'shifted' || (method === 'lanczos' && opts.shift !== null)
+        ? (opts.shift as number)
+        : shift,
+    seed: opts.seed,
+    ...(method === 'inverse' && factorization ? { factorization } : {}),
+    ...(options.onProgress ? { onProgress: options.onProgress } : {}),
+    ...(options.signal ? { signal: options.signal } : {}),
+  };
+  const raw: RawEigenResult =
+    method === 'dense'
+      ? denseEigensolver(input)
+      : method === 'inverse'
+        ? inverseIteration(input)
+        : method === 'shifted'
+          ? shiftedInverseIteration(input)
+          : method === 'forward'
+            ? forwardIteration(input)
+            : method === 'subspace'
+              ? subspaceIteration(input)
+              : lanczos(input);
+  noteParts.push(...raw.notes);
+  const result = buildResult(K, M, raw, {
+    method,
+    opts,
+    n,
+    rigidBodyModes,
+    scale,
+    methodNote: noteParts.join(' '),
+    influence: options.influence ?? [],
+    massless,
+  });
+  return result;
+}
+
+interface BuildContext {
+  method: Exclude<MethodName, 'auto'>;
+  opts: ResolvedSolveOptions;
+  n: number;
+  rigidBodyModes: number;
+  scale: number;
+  methodNote: string;
+  influence: { name: string; vector: Float64Array }[];
+  massless: number;
+}
+
+function buildResult(
+  K: SymmetricMatrix,
+  M: SymmetricMatrix,
+  raw: RawEigenResult,
+  c: BuildContext,
+): ModalResult {
+  const { method, opts, n } = c;
+  const warnings: { code: string; message: string }[] = [];
+  const normK = normOne(K);
+  const normM = normOne(M);
+  const vectors = raw.vectors.map((v) => {
+    const phi = Float64Array.from(v);
+    fixSign(phi);
+    return phi;
+  });
+  const modes: Mode[] = raw.lambdas.map((lambda, k) => {
+    const phi = vectors[k] as Float64Array;
+    const fr = frequencies(lambda);
+    return {
+      index: k + 1,
+      lambda,
+      ...fr,
+      shape: normalizeShape(phi, opts.normalize, k + 1),
+      residual: backwardError(K, M, lambda, phi, normK, normM),
+      iterations: raw.iterations[k] ?? 0,
+      history: raw.histories[k] ?? [],
+    };
+  });
+  const orthogonality = massOrthogonality(M, vectors);
+  const parts = participation(M, vectors, c.influence);
+
+  // conditioning: λ_max / λ_1 with λ_max ≥ max K_ii/M_ii and λ_1 the lowest flexible mode found
+  const flexible = raw.lambdas.filter((l) => l > RIGID_BODY_THRESHOLD * c.scale);
+  const top = Math.max(c.scale, ...raw.lambdas);
+  const low = flexible.length > 0 ? Math.min(...flexible) : NaN;
+  const estimate = Number.isFinite(low) && low > 0 ? top / low : NaN;
+  const digitsLost = Number.isFinite(estimate) ? Math.max(0, Math.log10(estimate)) : NaN;
+  if (Number.isFinite(estimate) && estimate * EPS > opts.tolerance) {
+    warnings.push({
+      code: 'ILL_CONDITIONED',
+      message: `The model's conditioning λ_max/λ₁ ≈ ${estimate.toPrecision(2)} times machine precision (${(estimate * EPS).toPrecision(2)}) exceeds the tolerance asked for (${opts.tolerance}): about ${digitsLost.toFixed(1)} of 16 digits may be lost, so the lowest modes' last digits and residual checks cannot reach that tolerance. A coarser mesh or a looser tolerance is consistent with the data.`,
+    });
+  }
+
+  // Sturm check
+  let sturm: ModalResult['sturm'];
+  const lams = raw.lambdas;
+  if (lams.length > 0) {
+    const delta = 1e-6;
+    const floor = RIGID_BODY_THRESHOLD * (c.scale > 0 ? c.scale : 1);
+    const hiL = lams[lams.length - 1] as number;
+    const loL = lams[0] as number;
+    const hi = hiL + delta * Math.max(Math.abs(hiL), floor);
+    const lo = loL - delta * Math.max(Math.abs(loL), floor);
+    const found = lams.length;
+    if (method === 'forward') {
+      const below = sturmCount(K, M, lo);
+      const above = n - c.massless - below;
+      sturm = { shift: lo, countBelow: below, found, ok: above === found };
+      if (!sturm.ok) {
+        warnings.push({
+          code: 'STURM_MISMATCH',
+          message: `Sturm check failed: K − σM at σ = ${lo.toPrecision(6)} (just below the lowest mode found) shows ${above} eigenvalues above σ, but forward iteration found ${found}: ${Math.abs(above - found)} mode${Math.abs(above - found) === 1 ? ' is' : 's are'} missing or repeated.`,
+        });
+      }
+    } else {
+      const lowest = !(method === 'shifted' || (method === 'lanczos' && opts.shift !== null));
+      const below = sturmCount(K, M, hi);
+      const belowLo = lowest ? 0 : sturmCount(K, M, lo);
+      const inside = below - belowLo;
+      sturm = { shift: hi, countBelow: below, found, ok: inside === found };
+      if (!sturm.ok) {
+        warnings.push({
+          code: 'STURM_MISMATCH',
+          message: lowest
+            ? `Sturm check failed: K − σM at σ = ${hi.toPrecision(6)} (just above the highest mode found) has ${below} negative pivots, so ${below} eigenvalues lie below σ, but ${found} were found: ${below - found} mode${Math.abs(below - found) === 1 ? ' is' : 's are'} missing (a repeated or closely spaced eigenvalue may have been skipped).`
+            : `Sturm check failed: ${inside} eigenvalues lie between σ = ${lo.toPrecision(6)} and ${hi.toPrecision(6)}, but ${found} were found there: ${inside - found} missing.`,
+        });
+      }
+    }
+  }
+
+  let critical: ModalResult['criticalTimeStep'];
+  const allFinite = n - c.massless;
+  if (
+    (method === 'forward' || (method === 'dense' && modes.length >= allFinite)) &&
+    modes.length > 0
+  ) {
+    const top = modes[modes.length - 1] as Mode;
+    if (top.omega > 0) critical = criticalTimeStep(top.omega, opts.dampingRatio ?? undefined);
+  }
+
+  const worst = Math.max(0, ...modes.map((m) => m.residual));
+  if (worst > Math.max(1e-8, 1e3 * EPS * (Number.isFinite(estimate) ? estimate : 1))) {
+    warnings.push({
+      code: 'RESIDUAL_LARGE',
+      message: `The largest backward error ${worst.toPrecision(2)} is above what the model's conditioning explains: check the results before use.`,
+    });
+  }
+  if (c.rigidBodyModes > 0) {
+    warnings.push({
+      code: 'RIGID_BODY_MODES',
+      message: `K is singular: the model has ${c.rigidBodyModes} rigid-body mode${c.rigidBodyModes === 1 ? '' : 's'} (λ ≈ 0). Check supports if the structure should be restrained.`,
+    });
+  }
+  const closelySpaced = closelySpacedPairs(modes.map((m) => m.periodS));
+  return {
+    method,
+    methodNote: c.methodNote || `${method} as asked.`,
+    options: opts,
+    n,
+    modes,
+    orthogonality,
+    participation: parts,
+    rigidBodyModes: c.rigidBodyModes,
+    closelySpaced,
+    ...(critical ? { criticalTimeStep: critical } : {}),
+    ...(sturm ? { sturm } : {}),
+    conditioning: { estimate, digitsLost },
+    warnings,
+  };
+}

@@ -1,0 +1,97 @@
+/**
+ * Small helpers shared by the vector-iteration methods: M-orthogonal Gram–Schmidt deflation,
+ * seeded start vectors, the λ scale of a pencil, the Sturm count and cancellation checks.
+ */
+import { EngineError } from '../errors';
+import { combine, diagonalOf, factorizeSymmetric } from '../linalg/factorize';
+import { matrixSize } from '../linalg/sparse';
+import type { SymmetricMatrix } from '../linalg/types';
+
+/**
+ * Removes from x its M-components along the converged vectors φ_i (ψ_i = Mφ_i, φ_iᵀMφ_i = 1):
+ * x ← x − Σ (ψ_iᵀx) φ_i, applied twice ("twice is enough": Parlett, *The Symmetric Eigenvalue
+ * Problem*, §6.9; Giraud et al. 2005).
+ * @example mOrthogonalize(x, found, foundM)
+ */
+export function mOrthogonalize(x: Float64Array, phis: Float64Array[], psis: Float64Array[]): void {
+  const n = x.length;
+  for (let pass = 0; pass < 2; pass++) {
+    for (let k = 0; k < phis.length; k++) {
+      const phi = phis[k] as Float64Array;
+      const psi = psis[k] as Float64Array;
+      let c = 0;
+      for (let i = 0; i < n; i++) c += (psi[i] as number) * (x[i] as number);
+      if (c === 0) continue;
+      for (let i = 0; i < n; i++) x[i] = (x[i] as number) - c * (phi[i] as number);
+    }
+  }
+}
+
+/**
+ * A start vector with entries uniform in [−1, 1) from a seeded generator.
+ * @example startVector(n, rand)
+ */
+export function startVector(n: number, rand: () => number): Float64Array {
+  const x = new Float64Array(n);
+  for (let i = 0; i < n; i++) x[i] = 2 * rand() - 1;
+  return x;
+}
+
+/**
+ * max_i K_ii / M_ii over the DOFs with mass: a lower bound of λ_max (Rayleigh quotient of a unit
+ * vector) and the scale used for rigid-body thresholds and automatic shifts.
+ * @example lambdaScale(K, M)
+ */
+export function lambdaScale(K: SymmetricMatrix, M: SymmetricMatrix): number {
+  const dk = diagonalOf(K);
+  const dm = diagonalOf(M);
+  let s = 0;
+  for (let i = 0; i < dk.length; i++)
+    if ((dm[i] as number) > 0) s = Math.max(s, (dk[i] as number) / (dm[i] as number));
+  return s;
+}
+
+/**
+ * Sturm count: the number of eigenvalues of K φ = λ M φ below σ, from the negative pivots of
+ * K − σM = LDLᵀ (Sylvester's law of inertia). A zero pivot (σ on an eigenvalue) moves σ up by
+ * 1e-9 relative and tries again, at most three times.
+ * @throws EngineError ZERO_PIVOT when σ cannot be moved off an eigenvalue.
+ * @example sturmCount(K, M, 1.01 * lambdaTop)
+ */
+export function sturmCount(K: SymmetricMatrix, M: SymmetricMatrix, sigma: number): number {
+  let s = sigma;
+  for (let attempt = 0; ; attempt++) {
+    try {
+      return factorizeSymmetric(s === 0 ? K : combine(K, 1, M, -s)).negativePivots;
+    } catch (e) {
+      if (!(e instanceof EngineError) || e.code !== 'ZERO_PIVOT' || attempt >= 3) throw e;
+      s = s === 0 ? 1e-12 : s * (1 + 1e-9 * 10 ** attempt);
+    }
+  }
+}
+
+/**
+ * Throws EngineError('CANCELLED') when the caller's signal says so.
+ * @example checkCancelled(signal, 'inverse iteration, mode 3')
+ */
+export function checkCancelled(
+  signal: { readonly aborted: boolean } | undefined,
+  where: string,
+): void {
+  if (signal?.aborted) {
+    throw new EngineError('CANCELLED', `The solve was cancelled during ${where}.`);
+  }
+}
+
+/** Size check shared by the methods. */
+export function pencilSize(K: SymmetricMatrix, M: SymmetricMatrix): number {
+  const n = matrixSize(K);
+  if (matrixSize(M) !== n) {
+    throw new EngineError(
+      'MATRIX_SIZE_MISMATCH',
+      `K is ${n} × ${n} but M is ${matrixSize(M)} × ${matrixSize(M)}; they must be the same size.`,
+      { kSize: n, mSize: matrixSize(M) },
+    );
+  }
+  return n;
+}
