@@ -1,0 +1,51 @@
+#!/usr/bin/env python3
+"""Reference eigen solves for `npm run bench`, on the Matrix Market files the bench wrote.
+
+usage: reference.py sparse K.mtx M.mtx k runs   -> scipy.sparse.linalg.eigsh(K, k, M, sigma=0)
+       reference.py dense  K.mtx M.mtx 0 runs   -> scipy.linalg.eigh(K, M), every mode
+
+Prints one JSON object: tool versions, the median and every run's seconds (the solve only, not the
+file read), the eigenvalues (ascending), and the process's peak resident memory in MB.
+"""
+import json
+import resource
+import sys
+import time
+
+import numpy
+import scipy
+import scipy.io
+import scipy.linalg
+import scipy.sparse.linalg
+
+
+def main() -> None:
+    mode, kpath, mpath, k, runs = sys.argv[1], sys.argv[2], sys.argv[3], int(sys.argv[4]), int(sys.argv[5])
+    K = scipy.io.mmread(kpath).tocsc()
+    M = scipy.io.mmread(mpath).tocsc()
+    times = []
+    values = None
+    for _ in range(runs):
+        if mode == 'sparse':
+            t0 = time.perf_counter()
+            w = scipy.sparse.linalg.eigsh(K, k=k, M=M, sigma=0, which='LM', return_eigenvectors=False)
+            times.append(time.perf_counter() - t0)
+        else:
+            Kd = K.toarray()
+            Md = M.toarray()
+            t0 = time.perf_counter()
+            w = scipy.linalg.eigh(Kd, Md, eigvals_only=True)
+            times.append(time.perf_counter() - t0)
+        values = sorted(float(x) for x in w)
+    peak_mb = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024.0
+    print(json.dumps({
+        'tool': f'scipy {scipy.__version__}, numpy {numpy.__version__}',
+        'median': sorted(times)[len(times) // 2],
+        'times': times,
+        'lambdas': values,
+        'peakMB': peak_mb,
+    }))
+
+
+if __name__ == '__main__':
+    main()
