@@ -2,7 +2,7 @@
 // migrated the test database. Seeds the demo scenario, builds the client when it is missing or
 // older than its sources, and starts the real app on a free loopback port for the browser tests.
 import { execFileSync } from 'node:child_process';
-import { existsSync, readdirSync, statSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, statSync } from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
 import type { TestProject } from 'vitest/node';
@@ -56,7 +56,16 @@ export default async function setup(project: TestProject) {
     { MW_DB_NAME: TEST_DB },
   );
 
-  if (clientIsStale()) run('npx', ['vite', 'build'], 'building the client (npx vite build)');
+  if (clientIsStale()) {
+    // Engineers run browser tests side by side: one build at a time into dist/client.
+    const lock = path.join(root, '.data', 'vite-build.lock');
+    mkdirSync(path.dirname(lock), { recursive: true });
+    run(
+      'flock',
+      ['-w', '170', lock, 'npx', 'vite', 'build'],
+      'building the client (npx vite build)',
+    );
+  }
 
   // The app reads its configuration from the environment when createApp() runs.
   process.env.MW_DB_NAME = TEST_DB;

@@ -1,4 +1,3 @@
-import { useEffect } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { Section } from '../../components/ui/section';
 import { Alert } from '../../components/ui/alert';
@@ -16,10 +15,6 @@ export function ProjectRoute() {
   const user = useSignedInUser();
   const { projectId: raw } = useParams();
   const projectId = Number(raw);
-
-  useEffect(() => {
-    document.title = 'Project · Modewright';
-  }, []);
 
   if (!Number.isInteger(projectId) || projectId <= 0) {
     return (

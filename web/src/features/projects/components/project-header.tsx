@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { Button } from '../../../components/ui/button';
 import { Spinner } from '../../../components/ui/spinner';
 import { QueryError } from '../../../components/ui/alert';
@@ -13,6 +13,11 @@ export function ProjectHeader({ projectId, canEdit }: { projectId: number; canEd
   const project = useProject(projectId);
   const update = useUpdateProject(projectId);
   const [editing, setEditing] = useState(false);
+  const title = project.data ? `${project.data.jobNumber} ${project.data.name}` : null;
+
+  useEffect(() => {
+    if (title) document.title = `${title} · Modewright`;
+  }, [title]);
 
   if (project.isPending) return <Spinner label="Loading the project…" />;
   if (project.isError) {
