@@ -76,10 +76,11 @@ export function sturmCount(K: SymmetricMatrix, M: SymmetricMatrix, sigma: number
  */
 export function checkCancelled(
   signal: { readonly aborted: boolean } | undefined,
-  where: string,
+  where: string | (() => string),
 ): void {
   if (signal?.aborted) {
-    throw new EngineError('CANCELLED', `The solve was cancelled during ${where}.`);
+    const at = typeof where === 'function' ? where() : where;
+    throw new EngineError('CANCELLED', `The solve was cancelled during ${at}.`);
   }
 }
 
