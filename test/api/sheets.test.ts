@@ -262,6 +262,38 @@ describe('PATCH /api/sheets/:sheetId', () => {
     expect(res.status).toBe(409);
     expect(res.body.error.field).toBe('number');
   });
+  it('keeps the number of an issued sheet with 409, while the title may still change', async () => {
+    const sheet = await createSheet();
+    // Rev 1 as the review module writes it (inserted directly: this file tests the sheets API).
+    await t.db('revisions').insert({
+      sheet_id: sheet.id,
+      number: 1,
+      status: 'in_check',
+      purpose: 'For check',
+      blocks: '[]',
+      settings: '{}',
+      canonical_text: '',
+      results: '{}',
+      canonical_text_digest: '0'.repeat(64),
+      results_digest: '0'.repeat(64),
+      engine_version: 'test',
+      issued_by: team.author.id,
+      issued_at: t.db.fn.now(3),
+    });
+    await t.db('sheets').where({ id: sheet.id }).update({ status: 'in_check' });
+    const renumber = await author.patch(`/api/sheets/${sheet.id}`, { number: `X-${unique()}` });
+    expect(renumber.status).toBe(409);
+    expect(renumber.body.error.field).toBe('number');
+    const retitle = await author.patch(`/api/sheets/${sheet.id}`, { title: 'Corrected title' });
+    expect(retitle.status).toBe(200);
+    expect(retitle.body.sheet.latestRevision).toMatchObject({ number: 1, status: 'in_check' });
+    const listed = await viewer.get(sheetsUrl());
+    const row = listed.body.sheets.find((x: { id: number }) => x.id === sheet.id);
+    expect(row.latestRevision).toMatchObject({ number: 1, status: 'in_check' });
+    expect(row.status).toBe('in_check');
+    // Issued sheets are kept: delete is refused.
+    expect((await author.delete(`/api/sheets/${sheet.id}`)).status).toBe(409);
+  });
 });
 
 describe('PUT /api/sheets/:sheetId/draft', () => {
@@ -355,6 +387,21 @@ describe('PUT /api/sheets/:sheetId/draft', () => {
     const activity = await activityFor(sheet.id, 'sheet.draft_saved');
     expect(activity).toHaveLength(1);
     expect(activity[0]).toMatchObject({ actor_id: team.author.id, project_id: team.project.id });
+  });
+  it('records a new sheet.draft_saved once the last one is more than ten minutes old', async () => {
+    const sheet = await createSheet();
+    // An autosave eleven minutes ago (activity rows can be added, never changed).
+    await t.db('activity').insert({
+      actor_id: team.author.id,
+      project_id: team.project.id,
+      action: 'sheet.draft_saved',
+      object_type: 'sheet',
+      object_id: sheet.id,
+      details: JSON.stringify({}),
+      at: t.db.raw('now(3) - interval 11 minute'),
+    });
+    expect((await putDraft(author, sheet.id, '"1"', draftA)).status).toBe(200);
+    expect(await activityFor(sheet.id, 'sheet.draft_saved')).toHaveLength(2);
   });
 });
 

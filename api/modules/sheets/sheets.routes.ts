@@ -112,7 +112,12 @@ export function createSheetsRouter(ctx: AppContext, options: SheetsRouterOptions
     try {
       const out = await evaluateSheetDraft(db, user, sheetId, input, {
         signal: controller.signal,
-        onProgress: (p) => send('progress', p),
+        // `fraction`: the share of blocks already done, for a progress bar.
+        onProgress: (p) =>
+          send('progress', {
+            ...p,
+            fraction: p.blockCount > 0 ? p.blockIndex / p.blockCount : null,
+          }),
         ...(runner ? { runner } : {}),
       });
       send('result', out);
