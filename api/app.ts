@@ -11,10 +11,13 @@ import type { AppContext } from './http/context';
 import { csrfProtection } from './http/csrf';
 import { apiNotFound, errorMiddleware } from './http/error-middleware';
 import { createLogger, requestLogger } from './http/logger';
+import { createAccountRouter } from './modules/account/account.routes';
 import { createActivityRouter } from './modules/activity/activity.routes';
 import { createAuthRouter, SESSION_COOKIE } from './modules/auth/auth.routes';
 import { createMembersRouter } from './modules/members/members.routes';
+import { createOutboxRouter } from './modules/outbox/outbox.routes';
 import { createProjectsRouter } from './modules/projects/projects.routes';
+import { createReviewRouter } from './modules/revisions/review.routes';
 import { createSheetsRouter } from './modules/sheets/sheets.routes';
 import { createUploadsRouter } from './modules/uploads/uploads.routes';
 import { createUsersRouter } from './modules/users/users.routes';
@@ -86,7 +89,9 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
       }),
     );
     app.use(express.json({ limit: config.bodyLimitBytes }));
+    // Sessions only for the API: the client's files never touch the sessions table.
     app.use(
+      '/api',
       session({
         name: SESSION_COOKIE,
         store: sessions.store,
@@ -108,12 +113,15 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     api.use(csrfProtection);
     api.use(loadSessionUser(db));
     api.use('/auth', createAuthRouter(ctx));
+    api.use('/auth', createAccountRouter(ctx));
     api.use('/users', createUsersRouter(ctx));
     api.use('/projects/:projectId/members', createMembersRouter(ctx));
     api.use('/projects/:projectId/activity', createActivityRouter(ctx));
     api.use('/projects', createProjectsRouter(ctx));
     api.use(createSheetsRouter(ctx));
     api.use(createUploadsRouter(ctx));
+    api.use('/outbox', createOutboxRouter(ctx));
+    api.use(createReviewRouter(ctx));
     api.use(apiNotFound);
     app.use('/api', api);
 

@@ -10,6 +10,12 @@ export function createDb(db: AppConfig['db']): Db {
   return createKnex(knexConfig(db));
 }
 
+const PERMANENT_CODES = new Set([
+  'ER_ACCESS_DENIED_ERROR',
+  'ER_DBACCESS_DENIED_ERROR',
+  'ER_BAD_DB_ERROR',
+]);
+
 /** Waits until the database answers `select 1`, or throws one clear line after timeoutMs. */
 export async function waitForDb(db: Db, where: AppConfig['db'], timeoutMs = 15_000): Promise<void> {
   const started = Date.now();
@@ -20,13 +26,25 @@ export async function waitForDb(db: Db, where: AppConfig['db'], timeoutMs = 15_0
       return;
     } catch (e) {
       lastError = e;
+      // A wrong password or a missing database will not mend itself by waiting.
+      if (PERMANENT_CODES.has(String((e as { code?: unknown }).code))) break;
       await new Promise((resolve) => setTimeout(resolve, 250));
     }
   }
   const reason = lastError instanceof Error ? lastError.message : String(lastError);
+  const code = String((lastError as { code?: unknown } | undefined)?.code);
+  if (PERMANENT_CODES.has(code)) {
+    throw new Error(
+      `MariaDB at ${where.host}:${where.port} refused database ${where.name}: ${reason}. ` +
+        'npm run db:start creates the databases and the app user (run it with MW_DB_NAME set ' +
+        'for a database of another name).',
+      { cause: lastError },
+    );
+  }
   throw new Error(
     `MariaDB at ${where.host}:${where.port} (database ${where.name}) does not answer: ${reason}. ` +
       'Start it with npm run db:start and migrate with npm run db:migrate.',
+    { cause: lastError },
   );
 }
 

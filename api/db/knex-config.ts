@@ -24,6 +24,14 @@ export function knexConfig(
       bigNumberStrings: false,
     },
     pool: { min: 0, max: 10 },
+    // Knex's own warnings (a refused connection, say) as one line each, not a stack per retry.
+    log: {
+      warn: (message: string) => process.stderr.write(`knex: ${firstLine(message)}\n`),
+      error: (message: string) => process.stderr.write(`knex: ${firstLine(message)}\n`),
+      deprecate: (method: string, alternative: string) =>
+        process.stderr.write(`knex: ${method} is deprecated; use ${alternative}\n`),
+      debug: () => undefined,
+    },
     migrations: {
       directory: path.join(projectRoot, 'migrations'),
       tableName: 'knex_migrations',
@@ -36,4 +44,8 @@ export function knexConfig(
       extension: 'ts',
     },
   };
+}
+
+function firstLine(message: unknown): string {
+  return String(message).split('\n')[0] ?? '';
 }

@@ -9,6 +9,14 @@ export interface Logger {
   error(message: string, error?: unknown): void;
 }
 
+// Knex puts a failed query's SQL with its values into the error message; a password hash must
+// not reach the log even then.
+const HASH_PATTERN = /\$argon2(?:id|i|d)\$[^\s'",)]+/g;
+
+export function redact(text: string): string {
+  return text.replace(HASH_PATTERN, '[password hash]');
+}
+
 export function createLogger(enabled: boolean): Logger {
   return {
     info(message) {
@@ -17,7 +25,7 @@ export function createLogger(enabled: boolean): Logger {
     error(message, error) {
       const stack = error instanceof Error ? (error.stack ?? error.message) : '';
       process.stderr.write(
-        `${new Date().toISOString()} ERROR ${message}${stack ? `\n${stack}` : ''}\n`,
+        redact(`${new Date().toISOString()} ERROR ${message}${stack ? `\n${stack}` : ''}\n`),
       );
     },
   };
