@@ -1,31 +1,8 @@
-import * as core from '../../../core/index';
-import type { Sheet, SheetBlock } from '../../../core/index';
+import { mapLine, type Sheet, type SheetBlock } from '../../../core/index';
 import type { DbOrTx } from '../../db/index';
 import { remarksRepository } from '../remarks/remarks.repository';
 import type { RevisionRecord } from './revisions.repository';
 import { recordReviewActivity } from './review-deps';
-
-/** Where a (block, line) of the old sheet is in the new one: the sheet engine's re-anchoring. */
-export type MappedLine =
-  | { status: 'same'; blockId: string; line: number }
-  | { status: 'changed'; blockId: string; line: number }
-  | { status: 'gone' };
-
-type MapLine = (
-  oldSheet: Sheet,
-  newSheet: Sheet,
-  at: { blockId: string; line: number },
-) => MappedLine;
-
-function engineMapLine(): MapLine {
-  const fn = (core as unknown as { mapLine?: MapLine }).mapLine;
-  if (typeof fn !== 'function') {
-    throw new Error(
-      'The sheet engine does not export mapLine yet: remarks cannot be carried over.',
-    );
-  }
-  return fn;
-}
 
 /**
  * Copies the open and answered remarks of the previous revision to the new one. A remark whose
@@ -48,7 +25,6 @@ export async function carryRemarks(
     (r) => r.state !== 'closed',
   );
   if (remarks.length === 0) return { carried: 0, lineChanged: 0 };
-  const mapLine = engineMapLine();
   const oldSheet: Sheet = {
     blocks: input.from.blocks as SheetBlock[],
     settings: input.from.settings,
