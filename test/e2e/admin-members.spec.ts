@@ -121,10 +121,20 @@ describe('admin (browser)', () => {
     const members = page.getByRole('table', { name: 'Members' });
     await page.getByRole('button', { name: `Change roles of ${demoPeople.tomasz.name}` }).click();
     const rolesForm = page.getByRole('form', { name: `Roles of ${demoPeople.tomasz.name}` });
-    await rolesForm.getByRole('checkbox', { name: 'Viewer' }).check();
-    await rolesForm.getByRole('button', { name: 'Save roles' }).click();
+    // The inline editor takes the focus (first box), and gives it back when it closes.
+    await expect
+      .poll(() => page.evaluate(() => (document.activeElement as HTMLInputElement).value))
+      .toBe('author');
+    // Keyboard only: Tab to the Viewer box (author, checker, principal, viewer), Space, Enter.
+    for (let i = 0; i < 3; i += 1) await page.keyboard.press('Tab');
+    await page.keyboard.press('Space');
+    expect(await rolesForm.getByRole('checkbox', { name: 'Viewer' }).isChecked()).toBe(true);
+    await page.keyboard.press('Enter');
     const row = members.getByRole('row', { name: demoPeople.tomasz.name });
     await row.getByText('Viewer', { exact: true }).waitFor();
+    await expect
+      .poll(() => page.evaluate(() => document.activeElement?.getAttribute('aria-label')))
+      .toBe(`Change roles of ${demoPeople.tomasz.name}`);
     expect(await row.getByText('Checker', { exact: true }).count()).toBe(1);
     await page
       .getByRole('list', { name: 'Activity' })

@@ -1,4 +1,4 @@
-import type { ButtonHTMLAttributes } from 'react';
+import type { ComponentPropsWithRef } from 'react';
 
 type Variant = 'primary' | 'secondary' | 'quiet' | 'danger';
 
@@ -10,7 +10,8 @@ const variants: Record<Variant, string> = {
   danger: 'bg-paper-sheet text-fail border-fail hover:bg-fail-soft',
 };
 
-export type ButtonProps = ButtonHTMLAttributes<HTMLButtonElement> & {
+// React 19 passes `ref` as a prop, so callers can focus the button.
+export type ButtonProps = ComponentPropsWithRef<'button'> & {
   variant?: Variant;
   busy?: boolean;
 };

@@ -12,6 +12,8 @@ export type CheckboxGroupProps = {
   disabled?: boolean;
   /** Hide the legend visually (it stays for screen readers), e.g. inside a table row. */
   legendHidden?: boolean;
+  /** Move the focus to the first box when the group appears (an inline editor opening). */
+  autoFocusFirst?: boolean;
 };
 
 export function CheckboxGroup({
@@ -23,6 +25,7 @@ export function CheckboxGroup({
   error,
   disabled = false,
   legendHidden = false,
+  autoFocusFirst = false,
 }: CheckboxGroupProps) {
   const id = useId();
   const errorId = `${id}-error`;
@@ -37,12 +40,13 @@ export function CheckboxGroup({
         {legend}
       </legend>
       <div className="flex flex-wrap gap-x-4 gap-y-1">
-        {options.map((option) => (
+        {options.map((option, index) => (
           <label key={option.value} className="inline-flex items-center gap-1.5 text-sm">
             <input
               type="checkbox"
               name={name}
               value={option.value}
+              autoFocus={autoFocusFirst && index === 0}
               checked={value.includes(option.value)}
               onChange={(event) =>
                 onChange(

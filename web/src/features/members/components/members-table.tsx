@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { Table, Td, Th } from '../../../components/ui/table';
 import { Spinner } from '../../../components/ui/spinner';
 import { Alert, QueryError } from '../../../components/ui/alert';
@@ -69,6 +69,13 @@ function MemberRow({
   const remove = useRemoveMember(projectId);
   const changeError = splitFormError(change.error, ['roles']);
   const removeError = splitFormError(remove.error, []);
+  // Keyboard users land back on "Change roles" when an inline editor closes.
+  const changeButton = useRef<HTMLButtonElement>(null);
+  const wasEditing = useRef(false);
+  useEffect(() => {
+    if (mode === 'view' && wasEditing.current) changeButton.current?.focus();
+    wasEditing.current = mode !== 'view';
+  }, [mode]);
 
   const cancel = () => {
     setMode('view');
@@ -97,6 +104,7 @@ function MemberRow({
             <CheckboxGroup
               legend={`Roles of ${member.name}`}
               legendHidden
+              autoFocusFirst
               name="roles"
               options={ROLE_OPTIONS}
               value={roles}
@@ -126,6 +134,7 @@ function MemberRow({
           {mode === 'view' ? (
             <span className="inline-flex gap-1">
               <Button
+                ref={changeButton}
                 variant="quiet"
                 aria-label={`Change roles of ${member.name}`}
                 onClick={() => setMode('roles')}
@@ -153,7 +162,7 @@ function MemberRow({
                 >
                   Remove {member.name}
                 </Button>
-                <Button variant="secondary" onClick={cancel}>
+                <Button variant="secondary" onClick={cancel} autoFocus>
                   Keep
                 </Button>
               </span>
