@@ -50,6 +50,22 @@ describe('client shell (browser)', () => {
     await page.getByText(demoProjects.footbridge.jobNumber, { exact: true }).first().waitFor();
   });
 
+  it('answers an unknown address and a missing project in words', async () => {
+    const { page } = session;
+    await page.goto('/no/such/page');
+    await page.getByRole('heading', { name: 'Page not found' }).waitFor();
+    // Project ids are integers from 1; this one is far beyond any the tests create.
+    await page.goto('/projects/987654321');
+    const alert = page.getByRole('alert').filter({ hasText: 'Could not load this project.' });
+    await alert.waitFor();
+    // The server's own message is shown under the title, not a bare status code.
+    const text = (await alert.textContent()) ?? '';
+    expect(
+      text.replace('Could not load this project.', '').replace('Try again', '').trim(),
+    ).not.toBe('');
+    expect(text).not.toMatch(/HTTP 404/);
+  });
+
   it('bundles its fonts and loads them from its own server', async () => {
     const { page } = session;
     const fonts = await page.evaluate(async () => {

@@ -2,6 +2,7 @@
 // send strangers to sign in and back; sign-out ends the session; the form works by keyboard.
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import {
+  baseUrl,
   DEMO_PASSWORD,
   demoPeople,
   fillSignIn,
@@ -57,6 +58,16 @@ describe('sign in (browser)', () => {
     await fillSignIn(page, demoPeople.ada.email, DEMO_PASSWORD);
     await page.waitForURL((url) => url.pathname === '/admin');
     await page.getByRole('table', { name: 'People' }).waitFor();
+  });
+
+  it('does not follow a redirect to another site after sign-in', async () => {
+    const { page } = session;
+    // A crafted link must not carry a person off-site once signed in (web/src/config/paths.ts).
+    await page.goto('/sign-in?redirectTo=' + encodeURIComponent('//elsewhere.example/phish'));
+    await fillSignIn(page, demoPeople.lena.email, DEMO_PASSWORD);
+    await page.getByText(`Signed in as ${demoPeople.lena.name}`).waitFor();
+    expect(new URL(page.url()).pathname).toBe('/');
+    expect(new URL(page.url()).host).toBe(new URL(baseUrl()).host);
   });
 
   it('signs out, and the projects list then asks for sign-in again', async () => {
