@@ -31,6 +31,22 @@ export interface LanczosOptions {
   memoryLimitBytes?: number;
 }
 
+/**
+ * The Sturm proof made inside the method: K − σM factored at `shift` = λ_p + δ (δ = 1e-8·|λ_p|)
+ * has `countBelow` negative pivots; `found` modes lie below that shift (`below` = eigenvalues
+ * below the working shift σ, normally 0).
+ */
+export interface LanczosSturm {
+  shift: number;
+  countBelow: number;
+  belowSigma: number;
+  found: number;
+  ok: boolean;
+}
+
+/** What `lanczos` returns: the raw result plus its Sturm proof (absent in band mode). */
+export type LanczosResult = RawEigenResult & { sturm?: LanczosSturm };
+
 /** The shifted operator used by both subspace iteration and Lanczos. */
 export interface ShiftedOperator {
   readonly n: number;
@@ -131,7 +147,7 @@ export function prepareShiftedOperator(
  * @example
  * const raw = lanczos({ K, M, count: 10, tolerance: 1e-10, maxIterations: 300, shift: 0, seed: 1 });
  */
-export function lanczos(input: MethodInput, options: LanczosOptions = {}): RawEigenResult {
+export function lanczos(input: MethodInput, options: LanczosOptions = {}): LanczosResult {
   const op = prepareShiftedOperator(input, options.memoryLimitBytes);
   const { n, M } = op;
   let sigma = op.sigma;
@@ -158,7 +174,18 @@ export function lanczos(input: MethodInput, options: LanczosOptions = {}): RawEi
   }
   if (p === 0) return { lambdas: [], vectors: [], iterations: [], histories: [], notes };
   const rand = seededRandom(input.seed);
-  let result = lanczosRun(input, M, factorization, sigma, p, [], [], rand, options.basisSize);
+  let result: LanczosResult = lanczosRun(
+    input,
+    M,
+    factorization,
+    sigma,
+    p,
+    [],
+    [],
+    rand,
+    options.basisSize,
+  );
+  let sturm: LanczosSturm | undefined;
   // A single start vector sees one copy of a repeated eigenvalue. The Sturm count just above the
   // highest mode found tells how many are missing; those are found by a new run orthogonal to
   // (locked against) the converged modes, until the count and the modes agree.
@@ -174,10 +201,20 @@ export function lanczos(input: MethodInput, options: LanczosOptions = {}): RawEi
     }
     const found = result.lambdas.filter((l) => l < above).length;
     const before = factorization.negativePivots;
+    sturm = {
+      shift: above,
+      countBelow: below,
+      belowSigma: before,
+      found,
+      ok: below - before === found,
+    };
     if (below - before <= found) {
       notes.push(
         `Sturm check: ${below - before} eigenvalue${below - before === 1 ? '' : 's'} between ` +
-          `σ = ${sigma.toPrecision(4)} and ${above.toPrecision(6)} rad²/s², ${found} found.`,
+          `σ = ${sigma.toPrecision(4)} and ${above.toPrecision(6)} rad²/s², ${found} found` +
+          (below - before < found
+            ? ' — fewer than found: the model is too ill-conditioned for its pivots to be trusted.'
+            : '.'),
       );
       break;
     }
@@ -200,6 +237,7 @@ export function lanczos(input: MethodInput, options: LanczosOptions = {}): RawEi
     result = mergeResults(result, extra, p);
   }
   result.notes = notes;
+  if (sturm) result.sturm = sturm;
   if (band) {
     // Keep exactly the modes inside the band (a Ritz value can sit just outside by rounding).
     const keep = result.lambdas.map((l) => l >= band.lo && l <= band.hi);
@@ -297,7 +335,7 @@ function lanczosRun(
       const w = factorization.solve(MQ[j]!);
       h.fill(0, 0, j + 1);
       deflate(w);
-      orthogonalize(w, Q, MQ, j + 1, h);
+      orthogonalizeOnce(w, M, Q, MQ, j + 1, h);
       deflate(w);
       for (let i = 0; i <= j; i++) {
         if (i < kept && j === kept) {
@@ -424,6 +462,46 @@ function ritzResult(
     histories: pairs.map((q) => q.hist),
     notes,
   };
+}
+
+/**
+ * w ← w − Σ q_i (q_iᵀ M w), with a second pass only when the first removed more than half of
+ * ‖w‖²_M (the Daniel–Gragg–Kaufman–Stewart criterion, Math. Comp. 30, 1976): "twice is enough",
+ * and once is enough when little cancellation happened. Accumulates the coefficients into h.
+ */
+function orthogonalizeOnce(
+  w: Float64Array,
+  M: SparseSymmetricMatrix,
+  Q: Float64Array[],
+  MQ: Float64Array[],
+  count: number,
+  h: Float64Array,
+): void {
+  const n = w.length;
+  // The three-term part first (the newest vectors carry almost all of w), so that the full pass
+  // below only removes rounding-sized components and usually needs no repetition.
+  for (let i = count - 1; i >= Math.max(0, count - 2); i--) {
+    const mq = MQ[i]!;
+    let c = 0;
+    for (let t = 0; t < n; t++) c += mq[t]! * w[t]!;
+    const q = Q[i]!;
+    for (let t = 0; t < n; t++) w[t]! -= c * q[t]!;
+    h[i]! += c;
+  }
+  const before = dotv(w, multiplyLower(M, w));
+  for (let pass = 0; pass < 2; pass++) {
+    let removed = 0;
+    for (let i = 0; i < count; i++) {
+      const mq = MQ[i]!;
+      let c = 0;
+      for (let t = 0; t < n; t++) c += mq[t]! * w[t]!;
+      const q = Q[i]!;
+      for (let t = 0; t < n; t++) w[t]! -= c * q[t]!;
+      h[i]! += c;
+      removed += c * c;
+    }
+    if (pass === 0 && before - removed > 0.5 * before) break;
+  }
 }
 
 /** w ← w − Σ q_i (q_iᵀ M w), twice; accumulates the coefficients into h when given. */

@@ -8,7 +8,7 @@ import { denseEigensolver, diagonalOf, type SparseSymmetricMatrix } from '../../
 // The integrator re-exports these from core/index.ts (issue 4); until then the bench reaches them
 // directly.
 // eslint-disable-next-line import-x/no-restricted-paths
-import { lanczos } from '../../core/eigen/lanczos';
+import { lanczos, type LanczosSturm } from '../../core/eigen/lanczos';
 // eslint-disable-next-line import-x/no-restricted-paths
 import { createShiftedPencil } from '../../core/linalg/sparse-ldlt/index';
 import { writeMatrixMarket } from './matrix-market';
@@ -44,6 +44,7 @@ async function main(): Promise<void> {
   let lambdas: number[] = [];
   let notes: string[] = [];
   let sturm: { shift: number; below: number; found: number };
+  let lastSturm: LanczosSturm | undefined;
   let mlSeconds: number | null = null;
   let mlLambdas: number[] | null = null;
   if (problem!.kind === 'sparse') {
@@ -61,12 +62,13 @@ async function main(): Promise<void> {
       times.push((performance.now() - t0) / 1000);
       lambdas = raw.lambdas;
       notes = raw.notes;
+      lastSturm = raw.sturm;
     }
-    // Sturm proof: K − σM at σ just above λ_p (λ_p(1 + δ), δ = 1e-6), counted by our LDLᵀ.
-    const lamP = lambdas[lambdas.length - 1]!;
-    const shift = lamP * (1 + 1e-6);
-    const pencil = createShiftedPencil(K, M);
-    sturm = { shift, below: pencil.factorize(shift).negativePivots, found: lambdas.length };
+    // Sturm proof, made inside the method: K − σM at σ = λ_p(1 + 1e-8), counted by our LDLᵀ.
+    const st = lastSturm;
+    sturm = st
+      ? { shift: st.shift, below: st.countBelow - st.belowSigma, found: st.found }
+      : { shift: NaN, below: -1, found: lambdas.length };
   } else {
     for (let r = 0; r < runs; r++) {
       const t0 = performance.now();

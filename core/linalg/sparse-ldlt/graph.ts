@@ -53,37 +53,25 @@ export function compressGraph(g: AdjacencyGraph): {
   members: Int32Array;
 } {
   const { n, xadj, adj } = g;
-  // Hash of the closed neighbourhood; equal hashes are then compared exactly.
+  // Indistinguishable vertices are adjacent (each lies in the other's closed neighbourhood), so
+  // each vertex is compared only with its smaller neighbours of equal degree and equal hash.
   const hash = new Float64Array(n);
   for (let v = 0; v < n; v++) {
-    let h = v + 1;
-    let s = (v + 1) * (v + 1);
-    for (let p = xadj[v]!; p < xadj[v + 1]!; p++) {
-      const u = adj[p]! + 1;
-      h += u;
-      s = (s + u * u) % 1_000_000_007;
-    }
-    hash[v] = (h % 1_000_000_007) * 1_000_003 + s + (xadj[v + 1]! - xadj[v]!) * 1e-3;
+    let h = v;
+    for (let p = xadj[v]!; p < xadj[v + 1]!; p++) h += adj[p]!;
+    hash[v] = h;
   }
-  const order = Array.from({ length: n }, (_, i) => i);
-  order.sort((a, b) => hash[a]! - hash[b]! || a - b);
   const rep = new Int32Array(n).fill(-1);
   const closedEqual = (a: number, b: number): boolean => {
-    // Closed neighbourhoods N[a] = adj(a) ∪ {a}; with a, b adjacent they are equal iff
-    // adj(a) \ {b} == adj(b) \ {a}.
-    const da = xadj[a + 1]! - xadj[a]!;
-    const db = xadj[b + 1]! - xadj[b]!;
-    if (da !== db) return false;
+    // With a, b adjacent: N[a] = N[b] iff adj(a) \ {b} == adj(b) \ {a}.
     let pa = xadj[a]!;
     let pb = xadj[b]!;
     const ea = xadj[a + 1]!;
     const eb = xadj[b + 1]!;
-    let adjacent = false;
     while (pa < ea || pb < eb) {
       const x = pa < ea ? adj[pa]! : -1;
       const y = pb < eb ? adj[pb]! : -1;
       if (x === b) {
-        adjacent = true;
         pa++;
         continue;
       }
@@ -95,21 +83,20 @@ export function compressGraph(g: AdjacencyGraph): {
       pa++;
       pb++;
     }
-    return adjacent;
+    return true;
   };
-  for (let s = 0; s < n;) {
-    let e = s + 1;
-    while (e < n && hash[order[e]!] === hash[order[s]!]) e++;
-    for (let a = s; a < e; a++) {
-      const va = order[a]!;
-      if (rep[va] !== -1) continue;
-      rep[va] = va;
-      for (let b = a + 1; b < e; b++) {
-        const vb = order[b]!;
-        if (rep[vb] === -1 && closedEqual(va, vb)) rep[vb] = va;
+  for (let v = 0; v < n; v++) {
+    rep[v] = v;
+    const dv = xadj[v + 1]! - xadj[v]!;
+    for (let p = xadj[v]!; p < xadj[v + 1]!; p++) {
+      const u = adj[p]!;
+      if (u >= v) break; // sorted lists: only smaller neighbours
+      if (rep[u] !== u || hash[u] !== hash[v] || xadj[u + 1]! - xadj[u]! !== dv) continue;
+      if (closedEqual(u, v)) {
+        rep[v] = u;
+        break;
       }
     }
-    s = e;
   }
   const newId = new Int32Array(n).fill(-1);
   let m = 0;

@@ -79,6 +79,11 @@ export function analyzeSparseLdlt(
   } else if (options.ordering === 'natural') {
     perm = Int32Array.from({ length: n }, (_, i) => i);
     ordering = 'natural';
+  } else if (options.ordering === undefined && envelope(A) <= colPtr[n]! - n + 16) {
+    // Pick by measurement: the envelope of the natural order bounds its nnz(L) from above; when
+    // it adds nothing to the pattern (a chain, a beam) the model factors without fill as it is.
+    perm = Int32Array.from({ length: n }, (_, i) => i);
+    ordering = 'natural';
   } else {
     perm = orderNestedDissection(A);
     ordering = 'nested-dissection';
@@ -178,6 +183,20 @@ export function analyzeSparseLdlt(
     patternColPtr: colPtr,
     patternRowIdx: rowIdx,
   };
+}
+
+/** Σ over rows of (row − first column in that row): the envelope of the natural order. */
+function envelope(A: SparseSymmetricMatrix): number {
+  const first = Int32Array.from({ length: A.n }, (_, i) => i);
+  for (let j = 0; j < A.n; j++) {
+    for (let p = A.colPtr[j]!; p < A.colPtr[j + 1]!; p++) {
+      const i = A.rowIdx[p]!;
+      if (j < first[i]!) first[i] = j;
+    }
+  }
+  let s = 0;
+  for (let i = 0; i < A.n; i++) s += i - first[i]!;
+  return s;
 }
 
 /** Factor entries (index 4 + value 8), pivots, permuted values and the numeric workspace. */
