@@ -14,7 +14,10 @@ export interface MatrixFileShape {
   worstAsymmetry: UploadAsymmetry | null;
 }
 
-/** Largest matrix a file may describe (entries of the full matrix), as the sheet engine's limit. */
+/**
+ * Largest dense matrix (array or CSV rows) a file may describe, in entries: the sheet engine's
+ * limit for one value. Coordinate files are sparse and limited by the upload size only.
+ */
 export const MAX_MATRIX_ENTRIES = 4_000_000;
 
 /**
@@ -45,57 +48,137 @@ function invalid(name: string, line: number, reason: string): AppError {
   );
 }
 
-/** A finite number, or the reason it is not one. */
+const WHITESPACE = /\s+/;
+
+/** A finite number, or the reason it is not one (Fortran's 1.5D+03 exponents accepted). */
 function number(token: string): number | string {
-  if (!/^[+-]?(\d+\.?\d*|\.\d+)([eEdD][+-]?\d+)?$/.test(token)) {
-    if (/^[+-]?(nan|inf|infinity)$/i.test(token)) return `"${token}" is not a finite number`;
-    return `"${token}" is not a number`;
+  const c = token.charCodeAt(0);
+  // Fast path: a plain decimal (Number() alone would also take "0x1f", "Infinity" and "").
+  const plausible = (c >= 48 && c <= 57) || c === 45 || c === 43 || c === 46;
+  if (plausible && token.charCodeAt(1) !== 120 && token.charCodeAt(1) !== 88) {
+    const v = Number(token);
+    if (Number.isFinite(v)) return v;
   }
-  const value = Number(token.replace(/[dD]/, 'e'));
-  return Number.isFinite(value) ? value : `"${token}" is too large to be a number`;
+  if (/^[+-]?(\d+\.?\d*|\.\d+)[dD][+-]?\d+$/.test(token)) {
+    const v = Number(token.replace(/[dD]/, 'e'));
+    if (Number.isFinite(v)) return v;
+  }
+  if (/^[+-]?(nan|inf|infinity)$/i.test(token)) return `"${token}" is not a finite number`;
+  if (/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(token)) {
+    return `"${token}" is too large to be a number`;
+  }
+  return `"${token}" is not a number`;
 }
 
-/** Entries of a matrix, keyed by row * cols + col (0-based). */
+/**
+ * Entries of a matrix as triplets (0-based), gathered in file order. Duplicates are summed when
+ * the shape is worked out (as the engine's triplet assembly does).
+ */
 class Entries {
-  readonly values = new Map<number, number>();
+  private is: number[] = [];
+  private js: number[] = [];
+  private vs: number[] = [];
   constructor(
     readonly rows: number,
     readonly cols: number,
   ) {}
   add(i: number, j: number, v: number): void {
-    const key = i * this.cols + j;
-    this.values.set(key, (this.values.get(key) ?? 0) + v);
+    this.is.push(i);
+    this.js.push(j);
+    this.vs.push(v);
   }
-  get(i: number, j: number): number {
-    return this.values.get(i * this.cols + j) ?? 0;
+
+  /** Compressed rows: columns sorted within each row, duplicates summed. */
+  compress(): { ptr: Int32Array; col: Int32Array; val: Float64Array } {
+    const count = new Int32Array(this.rows + 1);
+    for (const i of this.is) count[i + 1]! += 1;
+    for (let r = 0; r < this.rows; r++) count[r + 1]! += count[r]!;
+    const next = count.slice(0, this.rows);
+    const col = new Int32Array(this.is.length);
+    const val = new Float64Array(this.is.length);
+    for (let k = 0; k < this.is.length; k++) {
+      const at = next[this.is[k]!]!++;
+      col[at] = this.js[k]!;
+      val[at] = this.vs[k]!;
+    }
+    // Sort each row by column (insertion sort: rows of a stiffness matrix are short) and sum
+    // duplicates, writing the result compactly.
+    const ptr = new Int32Array(this.rows + 1);
+    let out = 0;
+    for (let r = 0; r < this.rows; r++) {
+      const start = count[r]!;
+      const end = count[r + 1]!;
+      for (let k = start + 1; k < end; k++) {
+        const c = col[k]!;
+        const v = val[k]!;
+        let m = k - 1;
+        while (m >= start && col[m]! > c) {
+          col[m + 1] = col[m]!;
+          val[m + 1] = val[m]!;
+          m -= 1;
+        }
+        col[m + 1] = c;
+        val[m + 1] = v;
+      }
+      ptr[r] = out;
+      for (let k = start; k < end; k++) {
+        if (out > ptr[r]! && col[out - 1] === col[k]) {
+          val[out - 1]! += val[k]!;
+        } else {
+          col[out] = col[k]!;
+          val[out] = val[k]!;
+          out += 1;
+        }
+      }
+    }
+    ptr[this.rows] = out;
+    return { ptr, col: col.subarray(0, out), val: val.subarray(0, out) };
   }
 }
 
 function shapeOf(entries: Entries): MatrixFileShape {
+  const { ptr, col, val } = entries.compress();
   let nonzeros = 0;
   let maxAbs = 0;
-  for (const v of entries.values.values()) {
+  for (const v of val) {
     if (v !== 0) nonzeros += 1;
     maxAbs = Math.max(maxAbs, Math.abs(v));
   }
+  // a_ij with i, j 0-based, by binary search in row i.
+  const get = (i: number, j: number): number => {
+    let lo = ptr[i]!;
+    let hi = ptr[i + 1]! - 1;
+    while (lo <= hi) {
+      const mid = (lo + hi) >> 1;
+      const c = col[mid]!;
+      if (c === j) return val[mid]!;
+      if (c < j) lo = mid + 1;
+      else hi = mid - 1;
+    }
+    return 0;
+  };
   let worst: UploadAsymmetry | null = null;
   if (entries.rows === entries.cols) {
     let worstGap = 0;
-    for (const [key, v] of entries.values) {
-      const i = Math.floor(key / entries.cols);
-      const j = key % entries.cols;
-      if (j <= i) {
-        // Lower-triangle entries are seen again through their upper partner below.
-        if (j === i || entries.values.has(j * entries.cols + i)) continue;
-      }
-      const lower = j < i ? v : entries.get(j, i);
-      const upper = j < i ? entries.get(j, i) : v;
-      const gap = Math.abs(upper - lower);
-      if (gap > worstGap) {
-        worstGap = gap;
-        const row = Math.min(i, j) + 1;
-        const col = Math.max(i, j) + 1;
-        worst = { row, col, upper, lower, relative: maxAbs > 0 ? gap / maxAbs : 0 };
+    for (let i = 0; i < entries.rows; i++) {
+      for (let k = ptr[i]!; k < ptr[i + 1]!; k++) {
+        const j = col[k]!;
+        if (j === i) continue;
+        // Each pair once: from its upper entry, or from a lower entry whose upper partner is 0.
+        const upper = j > i ? val[k]! : get(j, i);
+        const lower = j > i ? get(j, i) : val[k]!;
+        if (j < i && upper !== 0) continue;
+        const gap = Math.abs(upper - lower);
+        if (gap > worstGap) {
+          worstGap = gap;
+          worst = {
+            row: Math.min(i, j) + 1,
+            col: Math.max(i, j) + 1,
+            upper,
+            lower,
+            relative: maxAbs > 0 ? gap / maxAbs : 0,
+          };
+        }
       }
     }
   }
@@ -155,8 +238,8 @@ function readMatrixMarket(text: string, name: string): MatrixFileShape {
     while (n < lines.length) {
       const raw = (lines[n] ?? '').trim();
       n += 1;
-      if (raw === '' || raw.startsWith('%')) continue;
-      return { tokens: raw.split(/\s+/), line: n };
+      if (raw === '' || raw.charCodeAt(0) === 37) continue; // '%' starts a comment line
+      return { tokens: raw.split(WHITESPACE), line: n };
     }
     return undefined;
   };
@@ -188,7 +271,8 @@ function readMatrixMarket(text: string, name: string): MatrixFileShape {
       `a ${symmetry} matrix must be square, not ${rows} × ${cols}`,
     );
   }
-  checkSize(name, sizeLine.line, rows, cols);
+  // Coordinate files are sparse: their size is bounded by the upload limit, not by rows × cols.
+  if (layout === 'array') checkSize(name, sizeLine.line, rows, cols);
   const entries = new Entries(rows, cols);
 
   if (layout === 'coordinate') {
@@ -306,9 +390,12 @@ function readCsv(text: string, name: string): MatrixFileShape {
       if (typeof v === 'string') throw invalid(name, line, v);
       return { i, j, v };
     });
-    const rows = Math.max(...parsed.map((p) => p.i));
-    const cols = Math.max(...parsed.map((p) => p.j));
-    checkSize(name, 0, rows, cols);
+    let rows = 0;
+    let cols = 0;
+    for (const p of parsed) {
+      rows = Math.max(rows, p.i);
+      cols = Math.max(cols, p.j);
+    }
     const entries = new Entries(rows, cols);
     for (const p of parsed) entries.add(p.i - 1, p.j - 1, p.v);
     return shapeOf(entries);
