@@ -78,7 +78,8 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     const ctx: AppContext = { db, config, log };
     const app = express();
     app.disable('x-powered-by');
-    app.set('trust proxy', false);
+    // The sign-in limit is keyed on the client address: behind a proxy, say how many hops to trust.
+    app.set('trust proxy', config.trustProxyHops > 0 ? config.trustProxyHops : false);
 
     app.use(requestLogger(log));
     app.use(

@@ -11,6 +11,8 @@ export interface AppConfig {
   /** Mount Vite in middleware mode (hot reload) instead of serving dist/client. */
   dev: boolean;
   secureCookies: boolean;
+  /** Reverse proxies in front of the server whose X-Forwarded-For is believed (0: none). */
+  trustProxyHops: number;
   /** Sign-in attempts allowed per client IP and e-mail within signinWindowMs. */
   signinLimit: number;
   signinWindowMs: number;
@@ -80,6 +82,10 @@ export function loadConfig(overrides: Partial<AppConfig> = {}): AppConfig {
     sessionSecret: overrides.sessionSecret ?? loadSessionSecret(dataDir),
     dev: process.env.MW_DEV === '1',
     secureCookies: process.env.MW_SECURE_COOKIES === '1',
+    trustProxyHops:
+      process.env.MW_TRUST_PROXY && process.env.MW_TRUST_PROXY !== '0'
+        ? intFromEnv('MW_TRUST_PROXY', 1)
+        : 0,
     signinLimit: intFromEnv('MW_SIGNIN_LIMIT', 10),
     signinWindowMs: 15 * 60 * 1000,
     dataDir,
