@@ -1,0 +1,200 @@
+/**
+ * The pool of worker threads that evaluates sheets, so the event loop never blocks on a solve.
+ *
+ * - Sized to the cores (`os.availableParallelism()`), at least one thread.
+ * - A time limit per evaluation (an AbortSignal that fires `timeLimitMs` after the worker starts
+ *   the evaluation, so a worker still loading mathjs does not eat the budget) and a memory limit
+ *   per worker (piscina `resourceLimits`): a worker that hits either is terminated and piscina
+ *   starts a fresh one; the server keeps serving.
+ * - Cancellation: the caller's AbortSignal (the route aborts when the client disconnects).
+ * - Progress: the worker posts SheetProgress on a MessagePort, relayed to `onProgress`.
+ * - A bounded queue: when `maxQueue` evaluations wait, `run` rejects with a 429 carrying a retry
+ *   hint in seconds.
+ *
+ * The worker file is TypeScript, loaded with `--import tsx` both under `npm start` (the server
+ * runs with tsx) and under Vitest.
+ */
+import os from 'node:os';
+import { MessageChannel } from 'node:worker_threads';
+import { Piscina } from 'piscina';
+import type { Sheet, SheetProgress, SheetResults, SheetUpload } from '../../core/index';
+import { AppError, RateLimitedError } from '../http/errors';
+import type { EvaluateReply, EvaluateTask } from './evaluate.worker';
+
+export interface EvaluationPoolOptions {
+  /** Worker threads; default the number of cores. */
+  threads?: number;
+  /** Time limit per evaluation, ms; default 30 000. */
+  timeLimitMs?: number;
+  /** Old-generation heap limit per worker, MB; default 512. */
+  memoryLimitMb?: number;
+  /** Evaluations that may wait for a thread; default 16. Beyond that: 429. */
+  maxQueue?: number;
+  /** Largest matrix value a sheet may hold (entries); default the engine's 4 000 000. */
+  maxMatrixEntries?: number;
+}
+
+export interface RunOptions {
+  signal?: AbortSignal;
+  onProgress?: (progress: SheetProgress) => void;
+}
+
+export interface EvaluationPool {
+  /** Evaluates a sheet in a worker. Same contract as the sheets module's SheetRunner. */
+  run(sheet: Sheet, uploads: SheetUpload[], options?: RunOptions): Promise<SheetResults>;
+  stats(): {
+    threads: number;
+    queued: number;
+    running: number;
+    completed: number;
+    limits: Required<Omit<EvaluationPoolOptions, 'maxMatrixEntries'>>;
+  };
+  close(): Promise<void>;
+}
+
+function envNumber(name: string): number | undefined {
+  const v = process.env[name];
+  if (v === undefined || v === '') return undefined;
+  const n = Number(v);
+  return Number.isFinite(n) && n > 0 ? n : undefined;
+}
+
+/** Options from the environment: MW_EVAL_THREADS, MW_EVAL_TIME_LIMIT_MS, MW_EVAL_MEMORY_MB, MW_EVAL_MAX_QUEUE. */
+export function poolOptionsFromEnv(): EvaluationPoolOptions {
+  const o: EvaluationPoolOptions = {};
+  const threads = envNumber('MW_EVAL_THREADS');
+  const time = envNumber('MW_EVAL_TIME_LIMIT_MS');
+  const mem = envNumber('MW_EVAL_MEMORY_MB');
+  const queue = envNumber('MW_EVAL_MAX_QUEUE');
+  if (threads) o.threads = Math.floor(threads);
+  if (time) o.timeLimitMs = time;
+  if (mem) o.memoryLimitMb = mem;
+  if (queue) o.maxQueue = Math.floor(queue);
+  return o;
+}
+
+const WORKER_FILE = new URL('./evaluate.worker.ts', import.meta.url).href;
+
+/** Creates the pool. Close it when the server stops. */
+export function createEvaluationPool(options: EvaluationPoolOptions = {}): EvaluationPool {
+  const threads = Math.max(1, options.threads ?? os.availableParallelism());
+  const timeLimitMs = options.timeLimitMs ?? 30_000;
+  const memoryLimitMb = options.memoryLimitMb ?? 512;
+  const maxQueue = options.maxQueue ?? 16;
+  const piscina = new Piscina({
+    filename: WORKER_FILE,
+    minThreads: 1,
+    maxThreads: threads,
+    maxQueue,
+    // Keep idle workers: mathjs costs ~1.5 s to load in each new thread.
+    idleTimeout: 10 * 60 * 1000,
+    execArgv: ['--import', 'tsx'],
+    resourceLimits: {
+      maxOldGenerationSizeMb: memoryLimitMb,
+      maxYoungGenerationSizeMb: Math.max(16, Math.min(64, Math.floor(memoryLimitMb / 8))),
+    },
+  });
+  // A worker that is terminated mid-task emits 'error' on the pool; the task's promise already
+  // carries it, so the pool event needs no more than a listener.
+  piscina.on('error', () => {});
+  let running = 0;
+
+  async function run(
+    sheet: Sheet,
+    uploads: SheetUpload[],
+    runOptions: RunOptions = {},
+  ): Promise<SheetResults> {
+    if (piscina.queueSize >= maxQueue) {
+      throw queueFull(timeLimitMs);
+    }
+    const controller = new AbortController();
+    let reason: 'time' | 'cancel' | null = null;
+    let timer: NodeJS.Timeout | undefined;
+    const startClock = () => {
+      timer ??= setTimeout(() => {
+        reason = 'time';
+        controller.abort();
+      }, timeLimitMs);
+    };
+    const onCancel = () => {
+      reason ??= 'cancel';
+      controller.abort();
+    };
+    if (runOptions.signal?.aborted) onCancel();
+    runOptions.signal?.addEventListener('abort', onCancel, { once: true });
+    const { port1, port2 } = new MessageChannel();
+    port1.on('message', (msg: { type: string; progress: SheetProgress }) => {
+      if (msg.type === 'start') startClock();
+      else if (msg.type === 'progress') runOptions.onProgress?.(msg.progress);
+    });
+    const task: EvaluateTask = { sheet, uploads, port: port2 };
+    if (options.maxMatrixEntries) task.maxMatrixEntries = options.maxMatrixEntries;
+    running++;
+    let reply: EvaluateReply;
+    try {
+      reply = (await piscina.run(task, {
+        signal: controller.signal,
+        transferList: [port2],
+      })) as EvaluateReply;
+    } catch (err) {
+      throw translate(err, reason, timeLimitMs, memoryLimitMb);
+    } finally {
+      running--;
+      if (timer) clearTimeout(timer);
+      runOptions.signal?.removeEventListener('abort', onCancel);
+      port1.close();
+    }
+    if (reply.ok) return reply.results;
+    const { code, message, details } = reply.error;
+    throw new AppError(code === 'CANCELLED' ? 499 : 422, code, message, details ? { details } : {});
+  }
+
+  return {
+    run,
+    stats: () => ({
+      threads: piscina.threads.length,
+      queued: piscina.queueSize,
+      running,
+      completed: piscina.completed,
+      limits: { threads, timeLimitMs, memoryLimitMb, maxQueue },
+    }),
+    close: () => piscina.destroy(),
+  };
+}
+
+function queueFull(timeLimitMs: number): RateLimitedError {
+  const retry = Math.max(1, Math.ceil(timeLimitMs / 1000 / 4));
+  return new RateLimitedError(
+    `The server is evaluating as many sheets as it can queue; try again in ${retry} s.`,
+    retry,
+  );
+}
+
+function translate(
+  err: unknown,
+  reason: 'time' | 'cancel' | null,
+  timeLimitMs: number,
+  memoryLimitMb: number,
+): unknown {
+  const e = err as { name?: string; message?: string; code?: string };
+  if (reason === 'time') {
+    return new AppError(
+      422,
+      'SHEET_LIMIT',
+      `The evaluation took longer than the ${timeLimitMs / 1000} s limit and was stopped. Reduce the model size or the number of modes asked for.`,
+    );
+  }
+  if (reason === 'cancel') return new AppError(499, 'CANCELLED', 'The evaluation was cancelled.');
+  if (
+    e?.code === 'ERR_WORKER_OUT_OF_MEMORY' ||
+    /out of memory|heap limit/i.test(e?.message ?? '')
+  ) {
+    return new AppError(
+      422,
+      'SHEET_LIMIT',
+      `The evaluation needed more than the ${memoryLimitMb} MB memory limit and was stopped. Reduce the size of the matrices in the sheet.`,
+    );
+  }
+  if (e?.message === 'Task queue is at limit') return queueFull(timeLimitMs);
+  return err;
+}
