@@ -54,8 +54,10 @@ ensure_installed() {
     command -v sudo >/dev/null 2>&1 || die "mariadb-server is missing and we are not root; install it with: apt-get install mariadb-server"
     sudo=(sudo -n)
   fi
-  "${sudo[@]}" apt-get update -qq >/dev/null
-  DEBIAN_FRONTEND=noninteractive "${sudo[@]}" apt-get install -y -qq mariadb-server mariadb-client >/dev/null
+  "${sudo[@]}" apt-get update -qq >/dev/null || die "apt-get update failed; cannot install mariadb-server"
+  DEBIAN_FRONTEND=noninteractive "${sudo[@]}" apt-get install -y -qq mariadb-server mariadb-client \
+    >/dev/null || die "apt-get install mariadb-server failed"
+  hash -r
   command -v mariadbd >/dev/null 2>&1 || die "apt installed mariadb-server but mariadbd is still not on PATH"
 }
 
@@ -66,9 +68,12 @@ user_args() {
 initialise() {
   if [[ -f "$MARKER" ]]; then return; fi
   # No marker: either a fresh clone or an initialisation that was interrupted. Start over.
-  if [[ -d "$DB_DIR" ]]; then
-    say "found an unfinished data directory at $DB_DIR; initialising it again"
-    rm -rf "$DB_DIR"
+  # An existing directory is moved aside, never deleted: it may still hold someone's data.
+  if [[ -d "$DB_DIR" ]] && [[ -n "$(ls -A "$DB_DIR" 2>/dev/null)" ]]; then
+    local aside
+    aside="$DB_DIR.unfinished-$(date -u +%Y%m%dT%H%M%SZ)"
+    say "found an unfinished data directory; moved it to $aside and initialising afresh"
+    mv "$DB_DIR" "$aside"
   fi
   mkdir -p "$DB_DIR"
   # shellcheck disable=SC2046
@@ -124,12 +129,17 @@ bootstrap_sql() {
 
 start() {
   ensure_installed
+  # A Unix socket path is limited to 107 bytes.
+  if ((${#SOCK} > 100)); then
+    die "the data directory path is too long for MariaDB's socket ($SOCK); set MW_DATA_DIR to a shorter path"
+  fi
   mkdir -p "$DATA_DIR"
   exec 9>"$LOCK_FILE"
   flock -w 120 9 || die "another db.sh has held $LOCK_FILE for 2 minutes; is it stuck?"
 
   if ping_db; then
     bootstrap_sql
+    touch "$MARKER"
     say "MariaDB already running on 127.0.0.1:$PORT (data: $DB_DIR)"
     return
   fi
@@ -138,6 +148,7 @@ start() {
     # A live server without an answering socket yet: it is still starting (or recovering).
     wait_for_ping "$(cat "$PID_FILE")"
     bootstrap_sql
+    touch "$MARKER"
     say "MariaDB running on 127.0.0.1:$PORT (data: $DB_DIR)"
     return
   fi

@@ -128,6 +128,19 @@ describe('scripts/db.sh', () => {
     expect(again.stdout).toMatch(/not running/);
   });
 
+  it('moves an unfinished data directory aside (never deletes it) and starts afresh', async () => {
+    await rm(path.join(dataDir, 'mariadb', '.modewright-initialised'));
+    const start = await dbsh('start');
+    expect(start.code, start.stderr).toBe(0);
+    const aside = /moved it to (\S+)/.exec(start.stdout)?.[1];
+    expect(aside).toBeTruthy();
+    // The old system tables are still there, beside the new directory.
+    expect(existsSync(path.join(aside ?? '', 'mysql'))).toBe(true);
+    expect(existsSync(path.join(dataDir, 'mariadb', '.modewright-initialised'))).toBe(true);
+    expect((await dbsh('status')).code).toBe(0);
+    expect((await dbsh('stop')).code).toBe(0);
+  });
+
   it('refuses in one clear line when the port is taken by another program', async () => {
     const blocker = net.createServer();
     const taken = await new Promise<number>((resolve) =>
