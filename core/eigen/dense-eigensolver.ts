@@ -270,6 +270,42 @@ export function denseEigensolver(input: MethodInput): RawEigenResult {
       solveLowerTransposeInPlace(massL as Float64Array, n, phi);
       return phi;
     });
+    // The reduction with M resolves λ to eps·λ_max absolutely, so on an ill-conditioned model
+    // the lowest modes lose digits. The reduction with K (μ = 1/λ) resolves them to eps·λ
+    // relative instead: use it for the lower half of the spectrum when K is positive definite.
+    const positive = lambdas.filter((l) => l > 0);
+    const lmax = lambdas[n - 1] as number;
+    const lmin = positive.length > 0 ? Math.min(...positive) : 0;
+    if (lmin > 0 && lmax / lmin > 1e4) {
+      let stiffL: Float64Array | null = null;
+      try {
+        stiffL = denseCholesky(Kd).L;
+      } catch (e) {
+        if (!(e instanceof EngineError) || e.code !== 'ZERO_PIVOT') throw e;
+      }
+      if (stiffL) {
+        const split = Math.sqrt(lmin * lmax);
+        const lowCount = lambdas.filter((l) => l < split).length;
+        const needed = Math.min(lowCount, input.count);
+        if (needed > 0) {
+          const Cm = congruence(stiffL, Md.data, n);
+          const { values: mu, vectors: Y } = symmetricEigen(Cm);
+          for (let r = 0; r < needed; r++) {
+            const k = n - 1 - r; // largest μ first = lowest λ
+            const m = mu[k] as number;
+            const phi = Float64Array.from(Y[k] as Float64Array);
+            solveLowerTransposeInPlace(stiffL, n, phi);
+            const c = 1 / Math.sqrt(m);
+            for (let i = 0; i < n; i++) phi[i] = (phi[i] as number) * c;
+            lambdas[r] = 1 / m;
+            vectors[r] = phi;
+          }
+          notes.push(
+            `Dense: λ_max/λ₁ ≈ ${(lmax / lmin).toPrecision(2)}, so the ${needed} lowest mode${needed === 1 ? '' : 's'} came from the reduction with K (accurate relative to λ) and the rest from the reduction with M.`,
+          );
+        }
+      }
+    }
   } else {
     // M singular: reduce with a positive definite A = K − σM.
     const dg = diagonalOf(input.M);

@@ -1,0 +1,180 @@
+/**
+ * Command line for the eigen engine:
+ *
+ *   npm run --silent solve -- --stiffness K.mtx --mass M.mtx [--count N]
+ *     [--method auto|inverse|forward|shifted|dense|subspace|lanczos] [--shift-hz F]
+ *     [--tolerance T] [--max-iterations I] [--seed S] [--json]
+ *
+ * Files are Matrix Market (.mtx) or CSV (dense rows, or `i,j,value` triplets). Prints a table, or
+ * with --json one object. Errors go to stderr with exit code 1 (2 for a wrong command line).
+ */
+import { readFileSync } from 'node:fs';
+import { basename } from 'node:path';
+import { parseArgs } from 'node:util';
+import { isEngineError, readSymmetricMatrix, solveModes } from '../core/index';
+import type { MethodName, SolveOptions } from '../core/index';
+
+const USAGE =
+  'usage: solve --stiffness K.mtx --mass M.mtx [--count N] [--method auto|inverse|forward|shifted|dense|subspace|lanczos] [--shift-hz F] [--tolerance T] [--max-iterations I] [--seed S] [--json]';
+
+class UsageError extends Error {}
+
+function numberArg(value: string | undefined, flag: string, integer: boolean): number | undefined {
+  if (value === undefined) return undefined;
+  const v = Number(value);
+  if (value.trim() === '' || !Number.isFinite(v) || (integer && !Number.isInteger(v))) {
+    throw new UsageError(
+      `--${flag} needs ${integer ? 'a whole number' : 'a number'}, got '${value}'.`,
+    );
+  }
+  return v;
+}
+
+function readMatrix(path: string, what: string) {
+  let text: string;
+  try {
+    text = readFileSync(path, 'utf8');
+  } catch (e) {
+    throw new UsageError(`cannot read the ${what} file '${path}': ${(e as Error).message}`);
+  }
+  return readSymmetricMatrix(text, {
+    name: basename(path),
+    format: /\.csv$/i.test(path) ? 'csv' : 'auto',
+  });
+}
+
+function fmt(x: number, digits = 6): string {
+  if (!Number.isFinite(x)) return x > 0 ? '∞' : String(x);
+  if (x === 0) return '0';
+  const a = Math.abs(x);
+  return a >= 1e-3 && a < 1e7 ? x.toPrecision(digits) : x.toExponential(digits - 1);
+}
+
+function main(argv: string[]): number {
+  const { values } = parseArgs({
+    args: argv,
+    options: {
+      stiffness: { type: 'string' },
+      mass: { type: 'string' },
+      count: { type: 'string' },
+      method: { type: 'string' },
+      'shift-hz': { type: 'string' },
+      tolerance: { type: 'string' },
+      'max-iterations': { type: 'string' },
+      seed: { type: 'string' },
+      json: { type: 'boolean', default: false },
+      help: { type: 'boolean', default: false },
+    },
+    strict: true,
+  });
+  if (values.help) {
+    process.stdout.write(`${USAGE}\n`);
+    return 0;
+  }
+  if (!values.stiffness || !values.mass)
+    throw new UsageError('both --stiffness and --mass are required.');
+  const started = performance.now();
+  const K = readMatrix(values.stiffness, 'stiffness');
+  const M = readMatrix(values.mass, 'mass');
+  const options: SolveOptions = {};
+  const count = numberArg(values.count, 'count', true);
+  if (count !== undefined) options.count = count;
+  if (values.method !== undefined) options.method = values.method as MethodName;
+  const shiftHz = numberArg(values['shift-hz'], 'shift-hz', false);
+  if (shiftHz !== undefined) options.shift = (2 * Math.PI * shiftHz) ** 2;
+  const tol = numberArg(values.tolerance, 'tolerance', false);
+  if (tol !== undefined) options.tolerance = tol;
+  const maxIt = numberArg(values['max-iterations'], 'max-iterations', true);
+  if (maxIt !== undefined) options.maxIterations = maxIt;
+  const seed = numberArg(values.seed, 'seed', true);
+  if (seed !== undefined) options.seed = seed;
+  const r = solveModes(K, M, options);
+  const seconds = (performance.now() - started) / 1000;
+  if (values.json) {
+    const out = {
+      method: r.method,
+      methodNote: r.methodNote,
+      n: r.n,
+      modes: r.modes.map((m) => ({
+        index: m.index,
+        lambda: m.lambda,
+        omega: m.omega,
+        frequencyHz: m.frequencyHz,
+        periodS: Number.isFinite(m.periodS) ? m.periodS : null,
+        residual: m.residual,
+        iterations: m.iterations,
+      })),
+      orthogonality: r.orthogonality,
+      rigidBodyModes: r.rigidBodyModes,
+      closelySpaced: r.closelySpaced,
+      sturm: r.sturm ?? null,
+      criticalTimeStep: r.criticalTimeStep ?? null,
+      conditioning: r.conditioning,
+      options: r.options,
+      warnings: r.warnings,
+      seconds,
+    };
+    process.stdout.write(`${JSON.stringify(out, null, 2)}\n`);
+    return 0;
+  }
+  const lines: string[] = [];
+  lines.push(`${r.n} DOFs, method ${r.method}: ${r.methodNote}`);
+  lines.push('');
+  const head = [
+    'mode',
+    'λ (rad²/s²)',
+    'ω (rad/s)',
+    'f (Hz)',
+    'T (s)',
+    'backward error',
+    'iterations',
+  ];
+  const rows = r.modes.map((m) => [
+    String(m.index),
+    fmt(m.lambda, 10),
+    fmt(m.omega),
+    fmt(m.frequencyHz),
+    fmt(m.periodS),
+    m.residual.toExponential(1),
+    String(m.iterations),
+  ]);
+  const widths = head.map((h, c) =>
+    Math.max(h.length, ...rows.map((row) => (row[c] as string).length)),
+  );
+  const line = (cells: string[]) => cells.map((s, c) => s.padStart(widths[c] as number)).join('  ');
+  lines.push(line(head));
+  lines.push(widths.map((w) => '─'.repeat(w)).join('  '));
+  for (const row of rows) lines.push(line(row));
+  lines.push('');
+  lines.push(`max |ΦᵀMΦ − I| = ${r.orthogonality.toExponential(1)}`);
+  if (r.sturm) {
+    lines.push(
+      `Sturm check at σ = ${fmt(r.sturm.shift)}: ${r.sturm.countBelow} below, ${r.sturm.found} found — ${r.sturm.ok ? 'consistent' : 'MISMATCH'}`,
+    );
+  }
+  if (r.rigidBodyModes > 0) lines.push(`rigid-body modes: ${r.rigidBodyModes}`);
+  if (r.criticalTimeStep)
+    lines.push(`critical time step 2/ω_max = ${fmt(r.criticalTimeStep.dtCr)} s`);
+  for (const w of r.warnings) lines.push(`warning (${w.code}): ${w.message}`);
+  lines.push(`${seconds.toFixed(2)} s`);
+  process.stdout.write(`${lines.join('\n')}\n`);
+  return 0;
+}
+
+try {
+  process.exitCode = main(process.argv.slice(2));
+} catch (e) {
+  if (
+    e instanceof UsageError ||
+    (e instanceof TypeError && 'code' in e && String(e.code).startsWith('ERR_PARSE_ARGS'))
+  ) {
+    process.stderr.write(`solve: ${e.message}\n${USAGE}\n`);
+    process.exitCode = 2;
+  } else if (isEngineError(e)) {
+    process.stderr.write(`solve: ${e.code}: ${e.message}\n`);
+    process.exitCode = 1;
+  } else {
+    process.stderr.write(`solve: unexpected error: ${(e as Error).stack ?? String(e)}\n`);
+    process.exitCode = 1;
+  }
+}
