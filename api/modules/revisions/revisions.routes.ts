@@ -4,7 +4,8 @@ import { parse } from '../../http/validate';
 import { checkSheetAccess } from '../sheets/sheets.access';
 import { reviewRepository } from './review.repository';
 import type { ReviewDeps } from './review-deps';
-import { issueBody, revisionParams, sheetParams } from './revisions.schemas';
+import { comparePrintService } from './compare-print.service';
+import { compareQuery, issueBody, revisionParams, sheetParams } from './revisions.schemas';
 import { revisionsService } from './revisions.service';
 
 /** Revisions of a sheet: issue, list, read, return, sign off, and the sheet's history. */
@@ -46,6 +47,17 @@ export function createRevisionsRouter(deps: ReviewDeps): Router {
   router.post('/revisions/:revisionId/sign-off', requireSignedIn, async (req, res) => {
     const { revisionId } = parse(revisionParams, req.params, 'params');
     res.json({ revision: await revisionsService.signOff(deps, currentUser(req), revisionId) });
+  });
+
+  router.get('/sheets/:sheetId/compare', requireSignedIn, async (req, res) => {
+    const { sheetId } = parse(sheetParams, req.params, 'params');
+    const q = parse(compareQuery, req.query, 'query');
+    res.json(await comparePrintService.compare(deps, currentUser(req), sheetId, q.from, q.to));
+  });
+
+  router.get('/revisions/:revisionId/print', requireSignedIn, async (req, res) => {
+    const { revisionId } = parse(revisionParams, req.params, 'params');
+    res.json(await comparePrintService.print(deps, currentUser(req), revisionId));
   });
 
   return router;

@@ -1,0 +1,192 @@
+import {
+  diffSheets,
+  mapLine,
+  type Sheet,
+  type SheetBlock,
+  type SheetResults,
+} from '../../../core/index';
+import { AppError, NotFoundError } from '../../http/errors';
+import type { User } from '../users/users.repository';
+import { checkSheetAccess } from '../sheets/sheets.access';
+import { remarksRepository, type Remark } from '../remarks/remarks.repository';
+import { sealsRepository } from '../seals/seals.repository';
+import { reviewRepository } from './review.repository';
+import type { ReviewDeps } from './review-deps';
+import {
+  revisionsRepository,
+  type RevisionRecord,
+  type RevisionSummary,
+} from './revisions.repository';
+import { revisionAccess, sealView, sheetOf, type SealView } from './revisions.service';
+
+/** DESIGN §12, on every print. */
+export const CAUTION =
+  'Results must be verified by a qualified engineer; built-in criteria do not replace the codes ' +
+  'adopted by the authority having jurisdiction or licensed professional judgement.';
+
+/** The firm printed in the title block (MW_FIRM_NAME; the demo firm by default). */
+export function firmName(): string {
+  return process.env.MW_FIRM_NAME ?? 'Brackwater Structural Ltd';
+}
+
+type Side =
+  | { kind: 'revision'; id: number; number: number; status: string; issuedAt: string }
+  | { kind: 'draft'; draftVersion: number };
+
+/** A remark shown in the comparison: where it was, and where that line is on the other side. */
+export interface RemarkInContext extends Remark {
+  revisionNumber: number;
+  mapped: { status: 'same' | 'changed' | 'gone'; blockId: string | null; line: number | null };
+}
+
+async function revisionOfSheet(
+  deps: ReviewDeps,
+  sheetId: number,
+  revisionId: number,
+  field: string,
+): Promise<RevisionRecord> {
+  const rev = await revisionsRepository.findById(deps.db, revisionId);
+  if (!rev || rev.sheetId !== sheetId) {
+    throw new AppError(
+      422,
+      'VALIDATION',
+      `Revision ${revisionId} is not a revision of this sheet.`,
+      { field },
+    );
+  }
+  return rev;
+}
+
+export const comparePrintService = {
+  /**
+   * Compare two revisions, or a revision and the draft: per-block source changes with line
+   * hunks, result changes and flipped criteria (the sheet engine's diff), and the remarks of both
+   * sides with where their lines are on the other side.
+   */
+  async compare(
+    deps: ReviewDeps,
+    user: User,
+    sheetId: number,
+    fromId: number,
+    to: number | 'draft',
+  ) {
+    await checkSheetAccess(deps.db, user, sheetId);
+    const from = await revisionOfSheet(deps, sheetId, fromId, 'from');
+    const fromSheet = sheetOf(from);
+    const fromResults = JSON.parse(from.resultsText) as SheetResults;
+    let toSheet: Sheet;
+    let toResults: SheetResults;
+    let toSide: Side;
+    let toRev: RevisionRecord | null = null;
+    if (to === 'draft') {
+      const snapshot = await reviewRepository.draftOf(deps.db, sheetId);
+      if (!snapshot) throw new NotFoundError(`There is no sheet with id ${sheetId}.`);
+      toSheet = {
+        blocks: snapshot.draft.blocks as SheetBlock[],
+        settings: snapshot.draft.settings ?? {},
+      };
+      toResults = (await deps.evaluate(toSheet, await reviewRepository.uploadsOf(deps.db, sheetId)))
+        .results;
+      toSide = { kind: 'draft', draftVersion: snapshot.version };
+    } else {
+      toRev = await revisionOfSheet(deps, sheetId, to, 'to');
+      toSheet = sheetOf(toRev);
+      toResults = JSON.parse(toRev.resultsText) as SheetResults;
+      toSide = {
+        kind: 'revision',
+        id: toRev.id,
+        number: toRev.number,
+        status: toRev.status,
+        issuedAt: toRev.issuedAt,
+      };
+    }
+    const diff = diffSheets(fromSheet, toSheet, fromResults, toResults);
+    const remarks: RemarkInContext[] = [];
+    for (const r of await remarksRepository.listByRevision(deps.db, from.id)) {
+      const m = mapLine(fromSheet, toSheet, { blockId: r.blockId, line: r.line });
+      remarks.push({
+        ...r,
+        revisionNumber: from.number,
+        mapped: m.status === 'gone' ? { status: 'gone', blockId: null, line: null } : m,
+      });
+    }
+    if (toRev) {
+      for (const r of await remarksRepository.listByRevision(deps.db, toRev.id)) {
+        remarks.push({
+          ...r,
+          revisionNumber: toRev.number,
+          mapped: { status: 'same', blockId: r.blockId, line: r.line },
+        });
+      }
+    }
+    return {
+      from: {
+        kind: 'revision',
+        id: from.id,
+        number: from.number,
+        status: from.status,
+        issuedAt: from.issuedAt,
+      },
+      to: toSide,
+      blocks: diff.blocks,
+      results: diff.results,
+      flipped: diff.flipped,
+      summary: diff.summary,
+      remarks,
+    };
+  },
+
+  /** Everything the print view needs, in one call. */
+  async print(deps: ReviewDeps, user: User, revisionId: number) {
+    const { rev, sheet } = await revisionAccess(deps, user, revisionId);
+    const history: RevisionSummary[] = await revisionsRepository.listBySheet(deps.db, sheet.id);
+    const seal = await sealsRepository.findByRevision(deps.db, rev.id);
+    const sealed: SealView | null = seal ? sealView(seal) : null;
+    return {
+      firm: { name: firmName() },
+      project: {
+        id: sheet.projectId,
+        jobNumber: sheet.projectJobNumber,
+        name: sheet.projectName,
+        client: sheet.projectClient,
+        site: sheet.projectSite,
+      },
+      sheet: { id: sheet.id, number: sheet.number, title: sheet.title, subject: sheet.subject },
+      revision: {
+        id: rev.id,
+        number: rev.number,
+        status: rev.status,
+        purpose: rev.purpose,
+        preparedBy: rev.issuedBy,
+        preparedAt: rev.issuedAt,
+        checkedBy: rev.checkedBy,
+        checkedAt: rev.checkedAt,
+        sealedBy: rev.sealedBy,
+        sealedAt: rev.sealedAt,
+        digests: rev.digests,
+        engineVersion: rev.engineVersion,
+        preliminary: rev.status !== 'sealed' && rev.status !== 'superseded',
+        banner:
+          rev.status === 'sealed' || rev.status === 'superseded'
+            ? null
+            : `Preliminary — not for construction. ${rev.purpose}`,
+      },
+      history: history.map((h) => ({
+        number: h.number,
+        status: h.status,
+        purpose: h.purpose,
+        issuedBy: h.issuedBy,
+        issuedAt: h.issuedAt,
+        checkedBy: h.checkedBy,
+        checkedAt: h.checkedAt,
+        sealedBy: h.sealedBy,
+        sealedAt: h.sealedAt,
+        sealCode: h.sealCode,
+      })),
+      blocks: rev.blocks,
+      results: JSON.parse(rev.resultsText) as unknown,
+      seal: sealed ? { ...sealed, verifyPath: `/verify/${sealed.code}` } : null,
+      caution: CAUTION,
+    };
+  },
+};

@@ -1,0 +1,132 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import {
+  anonymous,
+  createTestApp,
+  signedIn,
+  type ApiClient,
+  type TestApp,
+} from '../support/api-app';
+import { createProjectTeam, unique } from '../support/factories';
+
+// Mail to whoever must act next (issue 7 item 9): with no MW_SMTP_URL every message lands in the
+// outbox table. Checkers on issue, the author on a remark and on return, principals on sign off,
+// every member on seal.
+
+let t: TestApp;
+let team: Awaited<ReturnType<typeof createProjectTeam>>;
+let author: ApiClient;
+let checker: ApiClient;
+let principal: ApiClient;
+let admin: ApiClient;
+let sheetId: number;
+
+interface Message {
+  to: string[];
+  subject: string;
+  text: string;
+  relatedSheetId: number | null;
+}
+
+async function messages(): Promise<Message[]> {
+  const res = await admin.get(`/api/outbox?sheetId=${sheetId}`);
+  expect(res.status).toBe(200);
+  return res.body.messages;
+}
+
+beforeAll(async () => {
+  delete process.env.MW_SMTP_URL;
+  t = await createTestApp();
+  team = await createProjectTeam(t.db);
+  [author, checker, principal, admin] = await Promise.all([
+    signedIn(t.app, team.author),
+    signedIn(t.app, team.checker),
+    signedIn(t.app, team.principal),
+    signedIn(t.app, team.admin),
+  ]);
+  const sheet = await author.post(`/api/projects/${team.project.id}/sheets`, {
+    number: `OB-${unique()}`,
+    title: 'Mail check',
+  });
+  sheetId = sheet.body.sheet.id;
+  const put = await author.agent
+    .put(`/api/sheets/${sheetId}/draft`)
+    .set('X-CSRF-Token', author.csrfToken)
+    .set('If-Match', `"${sheet.body.sheet.draftVersion}"`)
+    .send({
+      blocks: [
+        { id: 'calc', kind: 'calc', source: 'k = 24 kN/mm\nm = 18 t\nf = sqrt(k/m)/(2 pi)' },
+      ],
+      settings: { significantFigures: 4 },
+    });
+  expect(put.status).toBe(200);
+});
+
+afterAll(async () => {
+  await t?.close();
+});
+
+describe('mail on each transition (outbox transport)', () => {
+  it('leaves the right message for the right people at every step', async () => {
+    const rev1 = await author.post(`/api/sheets/${sheetId}/revisions`, { purpose: 'For check' });
+    expect(rev1.status).toBe(201);
+    let box = await messages();
+    expect(box).toHaveLength(1);
+    expect(box[0]).toMatchObject({ to: [team.checker.email], relatedSheetId: sheetId });
+    expect(box[0]!.subject).toMatch(/Rev 1 issued for check/);
+
+    const remark = await checker.post(`/api/revisions/${rev1.body.revision.id}/remarks`, {
+      blockId: 'calc',
+      line: 2,
+      type: 'query',
+      text: 'Mass source?',
+    });
+    expect(remark.status).toBe(201);
+    box = await messages();
+    expect(box[0]).toMatchObject({ to: [team.author.email] });
+    expect(box[0]!.subject).toMatch(/new query remark/);
+    expect(box[0]!.text).toContain('block calc, line 2');
+
+    await checker.post(`/api/revisions/${rev1.body.revision.id}/return`);
+    box = await messages();
+    expect(box[0]).toMatchObject({ to: [team.author.email] });
+    expect(box[0]!.subject).toMatch(/Rev 1 returned/);
+
+    const rev2 = await author.post(`/api/sheets/${sheetId}/revisions`, { purpose: 'For check' });
+    expect(rev2.status).toBe(201);
+    box = await messages();
+    expect(box[0]!.subject).toMatch(/Rev 2 issued for check/);
+    expect(box[0]!.text).toMatch(/1 remark\(s\) carried over/);
+    const carried = await checker.get(`/api/revisions/${rev2.body.revision.id}/remarks`);
+    await checker.patch(`/api/remarks/${carried.body.remarks[0].id}`, { state: 'closed' });
+    await checker.post(`/api/revisions/${rev2.body.revision.id}/sign-off`);
+    box = await messages();
+    expect(box[0]).toMatchObject({ to: [team.principal.email] });
+    expect(box[0]!.subject).toMatch(/Rev 2 signed off/);
+
+    const sealed = await principal.post(`/api/revisions/${rev2.body.revision.id}/seal`, {
+      password: team.principal.password,
+    });
+    expect(sealed.status).toBe(200);
+    box = await messages();
+    expect(box[0]!.subject).toContain(sealed.body.seal.code);
+    expect([...box[0]!.to].sort()).toEqual(
+      [team.author.email, team.checker.email, team.principal.email, team.viewer.email].sort(),
+    );
+    expect(box).toHaveLength(6);
+    // Every message carries the caution of DESIGN §12.
+    for (const m of box) expect(m.text).toMatch(/verified by a qualified engineer/);
+  });
+});
+
+describe('GET /api/outbox', () => {
+  it('is for administrators only', async () => {
+    expect((await author.get('/api/outbox')).status).toBe(403);
+    expect((await (await anonymous(t.app)).get('/api/outbox')).status).toBe(401);
+  });
+
+  it('refuses a bad filter naming the field', async () => {
+    const res = await admin.get('/api/outbox?sheetId=abc');
+    expect(res.status).toBe(422);
+    expect(res.body.error.field).toBe('sheetId');
+  });
+});
