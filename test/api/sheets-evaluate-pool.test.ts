@@ -1,0 +1,127 @@
+import type { AddressInfo } from 'node:net';
+import type { Server } from 'node:http';
+import express from 'express';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { loadSessionUser } from '../../api/http/auth';
+import { csrfProtection } from '../../api/http/csrf';
+import { createSheetsRouter } from '../../api/modules/sheets/sheets.routes';
+import { createEvaluationPool, type EvaluationPool } from '../../api/workers/evaluation-pool';
+import { createTestApp, signedIn, type ApiClient, type TestApp } from '../support/api-app';
+import { createProjectTeam, unique } from '../support/factories';
+
+// Sheet evaluation through the worker pool: a client that disconnects from the event stream
+// cancels the solve (the pool's own tests cover determinism across workers and the limits).
+
+let t: TestApp;
+let pool: EvaluationPool;
+let server: Server;
+let base: string;
+let author: ApiClient;
+let projectId: number;
+
+/**
+ * Puts a sheets router running on the pool in front of the app's own /api router (which runs
+ * the engine in-process until createApp hands it the pool), with the CSRF check and session user
+ * that router applies.
+ */
+function mountWithPool(app: TestApp['app']): void {
+  const router = express.Router();
+  router.use(csrfProtection);
+  router.use(loadSessionUser(t.db));
+  router.use(
+    createSheetsRouter({ db: t.db, config: t.config, log: console } as never, { runner: pool.run }),
+  );
+  app.use('/api', router);
+  const stack = (app as unknown as { router: { stack: { handle: unknown }[] } }).router.stack;
+  const mine = stack.pop()!;
+  const apiIndex = stack.findIndex(
+    (l, i) => i > 0 && typeof l.handle === 'function' && 'stack' in (l.handle as object),
+  );
+  stack.splice(apiIndex >= 0 ? apiIndex : stack.length, 0, mine);
+}
+
+beforeAll(async () => {
+  t = await createTestApp();
+  pool = createEvaluationPool({ threads: 1, timeLimitMs: 60_000, memoryLimitMb: 512 });
+  mountWithPool(t.app);
+  const team = await createProjectTeam(t.db);
+  projectId = team.project.id;
+  author = await signedIn(t.app, team.author);
+  server = t.app.listen(0, '127.0.0.1');
+  await new Promise<void>((resolve) => server.once('listening', () => resolve()));
+  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+});
+
+afterAll(async () => {
+  await new Promise<void>((resolve) => (server ? server.close(() => resolve()) : resolve()));
+  await pool?.close();
+  await t?.close();
+});
+
+async function newSheet(template: string) {
+  const res = await author.post(`/api/projects/${projectId}/sheets`, {
+    number: `POOL-${unique()}`,
+    title: 'Pool',
+    template,
+  });
+  expect(res.status).toBe(201);
+  return res.body.sheet as { id: number; draft: { blocks: unknown[] } };
+}
+
+describe('POST /api/sheets/:sheetId/evaluate/stream on the worker pool', () => {
+  it('stops the solve when the client disconnects', async () => {
+    const sheet = await newSheet('four-storey-frame');
+    // Slow on purpose: four products of 1500 × 1500 dense matrices (seconds to minutes).
+    const blocks = [
+      { id: 'first', kind: 'calc', source: 'x = 1 m' },
+      { id: 'heavy', kind: 'calc', source: 'A = ones(1500, 1500)\nB = A * A * A * A * A' },
+    ];
+    const controller = new AbortController();
+    const res = await fetch(`${base}/api/sheets/${sheet.id}/evaluate/stream`, {
+      method: 'POST',
+      headers: {
+        'Content-Type': 'application/json',
+        'X-CSRF-Token': author.csrfToken,
+        Cookie: cookieOf(author),
+      },
+      body: JSON.stringify({ blocks, settings: { significantFigures: 4 } }),
+      signal: controller.signal,
+    });
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-type')).toContain('text/event-stream');
+    const reader = res.body!.pipeThrough(new TextDecoderStream()).getReader();
+    let text = '';
+    // Wait until the worker reports the heavy block, then hang up.
+    while (!text.includes('"blockId":"heavy"')) {
+      const { value, done } = await reader.read();
+      if (done) throw new Error(`stream ended early: ${text}`);
+      text += value;
+    }
+    expect(text).toContain('event: progress');
+    const hungUpAt = Date.now();
+    controller.abort();
+    await reader.cancel().catch(() => {});
+    // Cancelled: the only worker is free again within seconds (the pool terminates it), long
+    // before the products would finish.
+    while (pool.stats().running > 0) {
+      expect(Date.now() - hungUpAt).toBeLessThan(10_000);
+      await new Promise((r) => setTimeout(r, 50));
+    }
+  });
+});
+
+/** The session cookie the supertest agent holds, for a plain fetch. */
+function cookieOf(client: ApiClient): string {
+  const jar = (
+    client.agent as unknown as {
+      jar: { getCookies(a: unknown): { name: string; value: string }[] };
+    }
+  ).jar;
+  const cookies = jar.getCookies({
+    domain: '127.0.0.1',
+    path: '/',
+    secure: false,
+    script: false,
+  });
+  return cookies.map((c) => `${c.name}=${c.value}`).join('; ');
+}
