@@ -1,5 +1,6 @@
 import { EngineError } from '../../errors';
 import type { SparseSymmetricMatrix, SymmetricFactorization } from '../types';
+import { multifrontalNumeric, multifrontalSolve, supernodalStructure } from './multifrontal';
 import { analyzeSparseLdlt, type SparseLdltSymbolic } from './symbolic';
 
 export interface SparseLdltOptions {
@@ -13,6 +14,11 @@ export interface SparseLdltOptions {
    * has pivots near (h/L)³ ≈ 1e-13 of its element stiffness, so the default is set below that.
    */
   readonly pivotTolerance?: number;
+  /**
+   * `'multifrontal'` (default): supernodal fronts with dense kernels; `'up-looking'`: the
+   * simplicial row algorithm (kept as an independent check of the other).
+   */
+  readonly kernel?: 'multifrontal' | 'up-looking';
 }
 
 /** The sparse LDLᵀ factorization: a `SymmetricFactorization` with its factor and analysis. */
@@ -63,6 +69,9 @@ export function factorizeSparseLdlt(
     );
   }
   const tol = options.pivotTolerance ?? 1e-15;
+  if ((options.kernel ?? 'multifrontal') === 'multifrontal') {
+    return multifrontalFactorization(A, symbolic, tol);
+  }
   const { n, perm, parent, colStart, cPtr, cRow, cSrc } = symbolic;
   const values = A.values;
   const nnzL = colStart[n]!;
@@ -144,6 +153,71 @@ export function factorizeSparseLdlt(
     factorNonzeros: nnzL + n,
     symbolic,
     pivots: D,
+    solve(b: Float64Array, out?: Float64Array): Float64Array {
+      if (b.length !== n) {
+        throw new EngineError(
+          'MATRIX_SIZE_MISMATCH',
+          `The right-hand side has ${b.length} entries but the matrix has ${n} rows.`,
+        );
+      }
+      const x = out ?? new Float64Array(n);
+      solveInto(b, 0, x, 0);
+      return x;
+    },
+    solveMany(b: Float64Array, count: number, out?: Float64Array): Float64Array {
+      if (b.length !== n * count) {
+        throw new EngineError(
+          'MATRIX_SIZE_MISMATCH',
+          `${count} right-hand sides of ${n} entries need ${n * count} values, got ${b.length}.`,
+        );
+      }
+      const x = out ?? new Float64Array(n * count);
+      for (let c = 0; c < count; c++) solveInto(b, c * n, x, c * n);
+      return x;
+    },
+  };
+}
+
+function zeroPivotError(dof: number, dk: number, size: number): EngineError {
+  return new EngineError(
+    'ZERO_PIVOT',
+    `The matrix is singular at DOF ${dof}: its pivot vanished (${dk.toExponential(3)} against ` +
+      `entries of size ${size.toExponential(3)} in that row). Check the supports ` +
+      `and massless unknowns, or factor at another shift.`,
+    { dof, pivot: dk },
+  );
+}
+
+function multifrontalFactorization(
+  A: SparseSymmetricMatrix,
+  symbolic: SparseLdltSymbolic,
+  tol: number,
+): SparseLdltFactorization {
+  const { n, perm } = symbolic;
+  const st = supernodalStructure(symbolic);
+  const rowMax = rowMagnitudes(A, symbolic);
+  const fac = multifrontalNumeric(
+    A,
+    symbolic,
+    st,
+    (k, d) => !(Math.abs(d) > tol * rowMax[k]!) || !Number.isFinite(d),
+    (k, d) => {
+      throw zeroPivotError(perm[k]! + 1, d, rowMax[k]!);
+    },
+  );
+  const work = new Float64Array(n);
+  const solveInto = (b: Float64Array, bOff: number, out: Float64Array, oOff: number): void => {
+    for (let k = 0; k < n; k++) work[k] = b[bOff + perm[k]!]!;
+    multifrontalSolve(st, fac, work);
+    for (let k = 0; k < n; k++) out[oOff + perm[k]!] = work[k]!;
+  };
+  return {
+    n,
+    method: 'sparse-ldlt',
+    negativePivots: fac.negative,
+    factorNonzeros: symbolic.factorNonzeros,
+    symbolic,
+    pivots: fac.pivots,
     solve(b: Float64Array, out?: Float64Array): Float64Array {
       if (b.length !== n) {
         throw new EngineError(
