@@ -147,6 +147,44 @@ describe('factorizeSparseLdlt', () => {
     expect(pencil.factorize(-1).negativePivots).toBe(0);
   });
 
+  it('gives the same solution and inertia with the multifrontal and the up-looking kernels', () => {
+    // Two independent numeric algorithms on the same symbolic analysis (a 2D grid shifted to be
+    // indefinite): solutions agree to 1e-10 relative, negative pivots exactly.
+    const A0 = grid(40);
+    const A = { ...A0, values: Float64Array.from(A0.values) };
+    for (let j = 0; j < A.n; j++) A.values[A.colPtr[j]!]! -= 1.3; // 4 − 1.3 on the diagonal
+    const sym = analyzeSparseLdlt(A);
+    const mf = factorizeSparseLdlt(A, { symbolic: sym, kernel: 'multifrontal' });
+    const up = factorizeSparseLdlt(A, { symbolic: sym, kernel: 'up-looking' });
+    expect(mf.negativePivots).toBe(up.negativePivots);
+    expect(mf.negativePivots).toBeGreaterThan(0);
+    const r = rng(5);
+    const b = Float64Array.from({ length: A.n }, () => r() - 0.5);
+    expect(relDiff(mf.solve(b), up.solve(b))).toBeLessThan(1e-10);
+  });
+
+  it('counts the eigenvalues of the two-storey shear frame below shifts between and beyond them', () => {
+    // REFERENCES.md item 3 (Chopra, two-storey example, from memory): masses 2m and m, storey
+    // stiffnesses 2k and k; ω₁² = k/(2m), ω₂² = 2k/m. Sylvester's law: negative pivots of K − σM
+    // = eigenvalues below σ.
+    const m = 1.5e5; // kg
+    const k = 6e7; // N/m
+    const K = fromDense(2, Float64Array.from([3 * k, -k, -k, k]));
+    const M = fromDense(2, Float64Array.from([2 * m, 0, 0, m]));
+    const l1 = k / (2 * m);
+    const l2 = (2 * k) / m;
+    const pencil = createShiftedPencil(K, M);
+    expect(pencil.factorize(0.5 * l1).negativePivots).toBe(0);
+    expect(pencil.factorize(l1 * (1 + 1e-9)).negativePivots).toBe(1);
+    expect(pencil.factorize(l1 * (1 - 1e-9)).negativePivots).toBe(0);
+    expect(pencil.factorize(0.5 * (l1 + l2)).negativePivots).toBe(1);
+    expect(pencil.factorize(l2 * (1 + 1e-9)).negativePivots).toBe(2);
+    expect(pencil.factorize(10 * l2).negativePivots).toBe(2);
+    // A result truncated to one mode is caught: the count just above λ₂ says two.
+    const found = [l1];
+    expect(pencil.factorize(l2 * (1 + 1e-6)).negativePivots - found.length).toBe(1);
+  });
+
   it('reports a zero pivot with the 1-based DOF in the original numbering', () => {
     // Free–free chain (N − 1 springs): K is singular (rigid-body mode); natural order puts the
     // vanishing pivot on the last DOF.
