@@ -14,7 +14,7 @@ import {
   pencilWithSpectrum,
   randomPencil,
   toDenseMatrix,
-} from './pencils';
+} from './reference-pencils';
 
 const base = { tolerance: 1e-10, maxIterations: 5000, shift: 0, seed: 7 };
 
