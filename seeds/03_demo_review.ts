@@ -1,0 +1,158 @@
+import type { Knex } from 'knex';
+import type { Logger } from '../api/http/logger';
+import { createMailer } from '../api/mail/mailer';
+import { remarksService } from '../api/modules/remarks/remarks.service';
+import { evaluatorFrom, inProcessResults } from '../api/modules/revisions/evaluator';
+import type { ReviewDeps } from '../api/modules/revisions/review-deps';
+import { revisionsService } from '../api/modules/revisions/revisions.service';
+import { sealsService } from '../api/modules/seals/seals.service';
+import { findSheetById, type SheetBlock } from '../api/modules/sheets/sheets.repository';
+import { sheetsService } from '../api/modules/sheets/sheets.service';
+import { usersRepository, type User } from '../api/modules/users/users.repository';
+import { DEMO_PASSWORD } from './01_demo_scenario';
+
+// The review stages of DESIGN §11, produced through the review services so that canonical texts,
+// digests, remark carry-over and the seal's signature are all real:
+//   DYN-01 footbridge       Rev 1 returned with a remark, Rev 2 signed off and sealed by Priya
+//   DYN-02 four-storey frame Rev 1 in check with an open remark
+//   DYN-03 pump foundation  still a draft
+// Safe to re-run: a sheet that already has a revision is left as it is. Mail goes wherever the
+// app's mail goes (the outbox table when MW_SMTP_URL is unset), like any other transition.
+
+const quietLog: Logger = {
+  info() {},
+  error(message, error) {
+    process.stderr.write(`seed 03: ${message} ${error instanceof Error ? error.message : ''}\n`);
+  },
+};
+
+async function person(knex: Knex, email: string): Promise<User> {
+  const user = await usersRepository.findByEmail(knex, email);
+  if (!user) throw new Error(`seeds/03_demo_review needs ${email} from seeds/01.`);
+  return user;
+}
+
+function lineStarting(blocks: SheetBlock[], blockId: string, prefix: string): number {
+  const block = blocks.find((b) => b.id === blockId);
+  const i = block ? block.source.split('\n').findIndex((l) => l.startsWith(prefix)) : -1;
+  if (i < 0) throw new Error(`seed 03: block ${blockId} has no line starting "${prefix}"`);
+  return i + 1;
+}
+
+async function sheetByNumber(knex: Knex, projectId: number, number: string) {
+  const row = (await knex('sheets').where({ project_id: projectId, number }).first('id')) as
+    { id: number } | undefined;
+  if (!row) throw new Error(`seed 03: sheet ${number} is missing; run seeds/02 first.`);
+  const sheet = await findSheetById(knex, row.id);
+  if (!sheet) throw new Error(`seed 03: sheet ${number} is missing.`);
+  const revisions = (await knex('revisions')
+    .where({ sheet_id: row.id })
+    .count({ n: '*' })
+    .first()) as { n: number | string } | undefined;
+  return { sheet, issued: Number(revisions?.n ?? 0) > 0 };
+}
+
+export async function seed(knex: Knex): Promise<void> {
+  const project = (await knex('projects').where({ job_number: 'BW-2611' }).first('id')) as
+    { id: number } | undefined;
+  if (!project) throw new Error('seeds/03_demo_review needs project BW-2611 from seeds/01.');
+  const [ines, tomasz, priya] = await Promise.all([
+    person(knex, 'ines.marlow@brackwater.example'),
+    person(knex, 'tomasz.reyes@brackwater.example'),
+    person(knex, 'priya.anand@brackwater.example'),
+  ]);
+  const mailer = createMailer({ db: knex });
+  const deps: ReviewDeps = {
+    db: knex,
+    mailer,
+    evaluate: evaluatorFrom(inProcessResults),
+    log: quietLog,
+  };
+  try {
+    await footbridge(knex, deps, project.id, { ines, tomasz, priya });
+    await frame(knex, deps, project.id, { ines, tomasz });
+  } finally {
+    mailer.close();
+  }
+}
+
+async function footbridge(
+  knex: Knex,
+  deps: ReviewDeps,
+  projectId: number,
+  p: { ines: User; tomasz: User; priya: User },
+): Promise<void> {
+  const { sheet, issued } = await sheetByNumber(knex, projectId, 'DYN-01');
+  if (issued) return;
+  const rev1 = await revisionsService.issue(deps, p.ines, sheet.id, 'For check');
+  const massLine = lineStarting(sheet.draft.blocks, 'deck-data', 'm = ');
+  const remark = await remarksService.create(deps, p.tomasz, rev1.id, {
+    blockId: 'deck-data',
+    line: massLine,
+    type: 'query',
+    text:
+      'The 0.15 t/m for parapets and services looks light: the lighting conduits and the ' +
+      'handrail heating cable are on drawing KQ-E-402. Please confirm the allowance.',
+  });
+  await revisionsService.returnRevision(deps, p.tomasz, rev1.id);
+  await remarksService.reply(
+    deps,
+    p.ines,
+    remark.id,
+    'Agreed: services are 0.20 t/m with the conduits and heating cable. Mass revised and the ' +
+      'source of each part noted above the line.',
+  );
+
+  // Rev 2: the mass revised and a note added below it, so the remark carries over to the edited
+  // line and is flagged "line changed" for Tomasz to look at.
+  const current = await findSheetById(knex, sheet.id);
+  if (!current) throw new Error('seed 03: DYN-01 vanished');
+  const blocks = current.draft.blocks.map((b) => {
+    if (b.id !== 'deck-data') return b;
+    const lines = b.source.split('\n');
+    const i = lines.findIndex((l) => l.startsWith('m = '));
+    lines.splice(
+      i,
+      1,
+      'm = 2.90 t/m  # steel 1.35, slab 1.10, surfacing 0.25, parapets and services 0.20',
+      '# services 0.20 t/m incl. lighting conduits and handrail heating (KQ-E-402)',
+    );
+    return { ...b, source: lines.join('\n') };
+  });
+  await sheetsService.saveDraft(knex, p.ines, sheet.id, current.draftVersion, {
+    blocks,
+    settings: current.draft.settings,
+  });
+  const rev2 = await revisionsService.issue(
+    deps,
+    p.ines,
+    sheet.id,
+    'For construction — services mass revised after check',
+  );
+  const carried = await remarksService.list(deps, p.tomasz, rev2.id);
+  for (const r of carried) {
+    await remarksService.reply(deps, p.tomasz, r.id, 'Checked against KQ-E-402: agreed.');
+    await remarksService.setState(deps, p.tomasz, r.id, 'closed');
+  }
+  await revisionsService.signOff(deps, p.tomasz, rev2.id);
+  await sealsService.seal(deps, p.priya, rev2.id, DEMO_PASSWORD);
+}
+
+async function frame(
+  knex: Knex,
+  deps: ReviewDeps,
+  projectId: number,
+  p: { ines: User; tomasz: User },
+): Promise<void> {
+  const { sheet, issued } = await sheetByNumber(knex, projectId, 'DYN-02');
+  if (issued) return;
+  const rev1 = await revisionsService.issue(deps, p.ines, sheet.id, 'For check');
+  await remarksService.create(deps, p.tomasz, rev1.id, {
+    blockId: 'storeys',
+    line: lineStarting(sheet.draft.blocks, 'storeys', 'k_4 = '),
+    type: 'error',
+    text:
+      'The roof storey stiffness drops 22 % from storey 3, but the bracing does not change on ' +
+      'the elevations. Please take k_4 from the frame model, not the hand estimate.',
+  });
+}
