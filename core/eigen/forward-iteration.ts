@@ -58,6 +58,8 @@ export function forwardIteration(input: MethodInput): RawEigenResult {
   };
   const want = Math.min(count, n);
   const sqrtTol = Math.sqrt(tolerance);
+  // vector residual wanted: tol^¾ (backward error well below tol), or √tol once it stagnates
+  const vecTol = tolerance ** 0.75;
   const xb = new Float64Array(n);
   const yb = new Float64Array(n);
   const mxb = new Float64Array(n);
@@ -75,6 +77,7 @@ export function forwardIteration(input: MethodInput): RawEigenResult {
     const y = symmetricMultiply(K, x);
     const history: number[] = [];
     let prevRho = NaN;
+    let prevResid = Infinity;
     let prevDelta = NaN;
     let converged = false;
     let it = 0;
@@ -111,13 +114,15 @@ export function forwardIteration(input: MethodInput): RawEigenResult {
       if (Number.isFinite(delta)) {
         const q = delta / prevDelta;
         const estimate = Number.isFinite(q) && q < 1 ? (delta * q) / (1 - q) : delta;
-        if (resid <= sqrtTol && (estimate <= tolerance || delta <= 16 * EPS)) {
+        const vectorOk = resid <= vecTol || (resid <= sqrtTol && resid >= 0.95 * prevResid);
+        if (vectorOk && (estimate <= tolerance || delta <= 16 * EPS)) {
           converged = true;
           break;
         }
       }
       prevDelta = delta;
       prevRho = rho;
+      prevResid = resid;
       onProgress?.({
         stage: 'forward iteration',
         iteration: it,

@@ -8,7 +8,7 @@
  * With σ = 0 it converges to the lowest modes one after another; with σ = μ (`shifted`) to the
  * modes nearest μ. Convergence: the estimated error of λ from the last two changes of ρ,
  * δ_k q/(1 − q) with q = δ_k/δ_{k−1}, at or below the tolerance, and the vector residual
- * ‖ρx̄ − x‖_M at or below √tolerance.
+ * ‖ρx̄ − x‖_M at or below tolerance^¾ (or at or below √tolerance once it stops decreasing).
  */
 import { EngineError, NoConvergenceError } from '../errors';
 import { combine, factorizeSymmetric } from '../linalg/factorize';
@@ -47,6 +47,8 @@ export function inverseIteration(input: MethodInput, label = 'inverse iteration'
   const xb = new Float64Array(n);
   const yb = new Float64Array(n);
   const sqrtTol = Math.sqrt(tolerance);
+  // vector residual wanted: tol^¾ (backward error well below tol), or √tol once it stagnates
+  const vecTol = tolerance ** 0.75;
   for (let mode = 0; mode < want; mode++) {
     // start vector, M-orthogonal to the converged ones and with xᵀMx > 0
     let x = startVector(n, rand);
@@ -75,6 +77,7 @@ export function inverseIteration(input: MethodInput, label = 'inverse iteration'
     }
     const history: number[] = [];
     let prevRho = NaN;
+    let prevResid = Infinity;
     let prevDelta = NaN;
     let converged = false;
     let it = 0;
@@ -119,13 +122,15 @@ export function inverseIteration(input: MethodInput, label = 'inverse iteration'
         const q = delta / prevDelta;
         const estimate = Number.isFinite(q) && q < 1 ? (delta * q) / (1 - q) : delta;
         const atRoundoff = delta <= 16 * EPS;
-        if (resid <= sqrtTol && (estimate <= tolerance || atRoundoff)) {
+        const vectorOk = resid <= vecTol || (resid <= sqrtTol && resid >= 0.95 * prevResid);
+        if (vectorOk && (estimate <= tolerance || atRoundoff)) {
           converged = true;
           break;
         }
       }
       prevDelta = delta;
       prevRho = rho;
+      prevResid = resid;
       onProgress?.({ stage: label, iteration: it, modesConverged: mode, modesWanted: want });
     }
     if (!converged) {
