@@ -2,7 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { AppError } from '../../api/http/errors';
 import { describeMatrixFile, detectFormat } from '../../api/modules/uploads/uploads.parse';
 
-// The upload reader's description of a file (shape, nonzeros, symmetry) and its refusals. File
+// The upload's description of a file (shape, nonzeros, symmetry) on the engine's readers, and
+// the refusals as the API gives them (422 MATRIX_FILE_INVALID with the line). File
 // layouts follow the Matrix Market exchange format as published by NIST (header line, comment
 // lines with %, size line, entries; symmetric files store the lower triangle; array files list
 // values column by column), from memory.
@@ -91,7 +92,9 @@ describe('describeMatrixFile (Matrix Market)', () => {
       ),
     );
     expect(inf.details?.line).toBe(5);
-    expect(inf.message).toContain('not a finite number');
+    expect(inf.message).toContain("'Inf'; every entry must be a finite number");
+    expect(inf.code).toBe('MATRIX_FILE_INVALID');
+    expect(inf.details?.reason).toBe('MATRIX_NOT_FINITE');
     const bare = refusal(() => describeMatrixFile('1 1 1\n', 'matrix-market', 'b.mtx'));
     expect(bare.details?.line).toBe(1);
   });
@@ -104,7 +107,7 @@ describe('describeMatrixFile (Matrix Market)', () => {
         'short.mtx',
       ),
     );
-    expect(e.message).toContain('row 2, column 2');
+    expect(e.message).toContain('needs 3 values but the file has 2');
   });
 });
 
@@ -112,7 +115,7 @@ describe('describeMatrixFile (CSV)', () => {
   it('refuses a ragged row, naming its line', () => {
     const e = refusal(() => describeMatrixFile('1,2\n3,4,5\n', 'csv', 'ragged.csv'));
     expect(e.details?.line).toBe(2);
-    expect(e.message).toContain('3 values; the first row has 2');
+    expect(e.message).toContain('row 2 has 3 entries but row 1 has 2');
   });
 
   it('skips blank lines and # comments, counting lines as in the file', () => {

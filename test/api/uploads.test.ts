@@ -138,7 +138,7 @@ describe('POST /api/sheets/:sheetId/uploads', () => {
     expect(res.body.error.code).toBe('MATRIX_FILE_INVALID');
     expect(res.body.error.details.line).toBe(6);
     expect(res.body.error.message).toContain('line 6');
-    expect(res.body.error.message).toContain('"twelve" is not a number');
+    expect(res.body.error.message).toContain("'twelve' is not a number");
     expect(await t.db('uploads').where({ sheet_id: sheetId, name: 'bad-entry.mtx' }).first()).toBe(
       undefined,
     );
@@ -149,14 +149,14 @@ describe('POST /api/sheets/:sheetId/uploads', () => {
     expect(res.status).toBe(422);
     expect(res.body.error.code).toBe('MATRIX_FILE_INVALID');
     expect(res.body.error.details.line).toBe(1);
-    expect(res.body.error.message).toContain('"part" is not a number');
+    expect(res.body.error.message).toContain("'part' is not a number");
   });
 
   it('refuses a coordinate file whose size line promises more entries than it holds', async () => {
     const text = '%%MatrixMarket matrix coordinate real general\n2 2 3\n1 1 1\n2 2 1\n';
     const res = await upload(author, `short-${unique()}.mtx`, Buffer.from(text));
     expect(res.status).toBe(422);
-    expect(res.body.error.message).toContain('promises 3 entries but the file holds 2');
+    expect(res.body.error.message).toContain('announces 3 but the file has 2');
   });
 
   it('refuses an entry outside the declared size, naming its line', async () => {
@@ -164,7 +164,7 @@ describe('POST /api/sheets/:sheetId/uploads', () => {
     const res = await upload(author, `outside-${unique()}.mtx`, Buffer.from(text));
     expect(res.status).toBe(422);
     expect(res.body.error.details.line).toBe(4);
-    expect(res.body.error.message).toContain('row index 3 is outside 1…2');
+    expect(res.body.error.message).toContain('row index 3 is out of range 1…2');
   });
 
   it('refuses a file that is neither .mtx nor .csv with 422 on the file field', async () => {

@@ -1,3 +1,9 @@
+import {
+  isEngineError,
+  parseCsvMatrix,
+  parseMatrixMarket,
+  type ParsedMatrix,
+} from '../../../core/index';
 import { AppError, ValidationError } from '../../http/errors';
 import type { UploadAsymmetry, UploadFormat } from './uploads.repository';
 
@@ -46,28 +52,6 @@ function invalid(name: string, line: number, reason: string): AppError {
     line > 0 ? `${name}, line ${line}: ${reason}` : `${name}: ${reason}`,
     { field: 'file', details: { line, file: name } },
   );
-}
-
-const WHITESPACE = /\s+/;
-
-/** A finite number, or the reason it is not one (Fortran's 1.5D+03 exponents accepted). */
-function number(token: string): number | string {
-  const c = token.charCodeAt(0);
-  // Fast path: a plain decimal (Number() alone would also take "0x1f", "Infinity" and "").
-  const plausible = (c >= 48 && c <= 57) || c === 45 || c === 43 || c === 46;
-  if (plausible && token.charCodeAt(1) !== 120 && token.charCodeAt(1) !== 88) {
-    const v = Number(token);
-    if (Number.isFinite(v)) return v;
-  }
-  if (/^[+-]?(\d+\.?\d*|\.\d+)[dD][+-]?\d+$/.test(token)) {
-    const v = Number(token.replace(/[dD]/, 'e'));
-    if (Number.isFinite(v)) return v;
-  }
-  if (/^[+-]?(nan|inf|infinity)$/i.test(token)) return `"${token}" is not a finite number`;
-  if (/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(token)) {
-    return `"${token}" is too large to be a number`;
-  }
-  return `"${token}" is not a number`;
 }
 
 /**
@@ -202,231 +186,44 @@ function checkSize(name: string, line: number, rows: number, cols: number): void
   }
 }
 
-function readMatrixMarket(text: string, name: string): MatrixFileShape {
-  const lines = text.split(/\r?\n/);
-  const header = (lines[0] ?? '').trim().split(/\s+/);
-  if (header[0]?.toLowerCase() !== '%%matrixmarket') {
-    throw invalid(name, 1, 'a Matrix Market file starts with "%%MatrixMarket matrix …"');
-  }
-  const [object, layout, field, symmetry] = header.slice(1).map((h) => h.toLowerCase());
-  if (object !== 'matrix') throw invalid(name, 1, `the object must be "matrix", not "${object}"`);
-  if (layout !== 'coordinate' && layout !== 'array') {
-    throw invalid(name, 1, `the format must be "coordinate" or "array", not "${layout ?? ''}"`);
-  }
-  if (field !== 'real' && field !== 'integer' && field !== 'pattern') {
-    throw invalid(
-      name,
-      1,
-      `the field must be real, integer or pattern; "${field ?? ''}" entries cannot form a stiffness or mass matrix`,
-    );
-  }
-  if (layout === 'array' && field === 'pattern') {
-    throw invalid(name, 1, 'an array file cannot have the pattern field');
-  }
-  if (symmetry !== 'general' && symmetry !== 'symmetric' && symmetry !== 'skew-symmetric') {
-    throw invalid(
-      name,
-      1,
-      `the symmetry must be general, symmetric or skew-symmetric, not "${symmetry ?? ''}"`,
-    );
-  }
-  const mirrored = symmetry !== 'general';
-  const sign = symmetry === 'skew-symmetric' ? -1 : 1;
-
-  let n = 1;
-  const nextDataLine = (): { tokens: string[]; line: number } | undefined => {
-    while (n < lines.length) {
-      const raw = (lines[n] ?? '').trim();
-      n += 1;
-      if (raw === '' || raw.charCodeAt(0) === 37) continue; // '%' starts a comment line
-      return { tokens: raw.split(WHITESPACE), line: n };
-    }
-    return undefined;
-  };
-
-  const sizeLine = nextDataLine();
-  if (!sizeLine) throw invalid(name, lines.length, 'the size line is missing');
-  const wantSize = layout === 'coordinate' ? 3 : 2;
-  const sizes = sizeLine.tokens.map(Number);
-  if (
-    sizeLine.tokens.length !== wantSize ||
-    sizes.some((s) => !Number.isInteger(s) || s < 0) ||
-    (sizes[0] ?? 0) < 1 ||
-    (sizes[1] ?? 0) < 1
-  ) {
-    throw invalid(
-      name,
-      sizeLine.line,
-      layout === 'coordinate'
-        ? 'the size line must hold three whole numbers: rows, columns, stored entries'
-        : 'the size line must hold two whole numbers: rows, columns',
-    );
-  }
-  const rows = sizes[0] ?? 0;
-  const cols = sizes[1] ?? 0;
-  if (mirrored && rows !== cols) {
-    throw invalid(
-      name,
-      sizeLine.line,
-      `a ${symmetry} matrix must be square, not ${rows} × ${cols}`,
-    );
-  }
-  // Coordinate files are sparse: their size is bounded by the upload limit, not by rows × cols.
-  if (layout === 'array') checkSize(name, sizeLine.line, rows, cols);
-  const entries = new Entries(rows, cols);
-
-  if (layout === 'coordinate') {
-    const stored = sizes[2] ?? 0;
-    const perLine = field === 'pattern' ? 2 : 3;
-    for (let k = 0; k < stored; k++) {
-      const entry = nextDataLine();
-      if (!entry) {
-        throw invalid(
-          name,
-          lines.length,
-          `the size line promises ${stored} entries but the file holds ${k}`,
-        );
-      }
-      if (entry.tokens.length !== perLine) {
-        throw invalid(
-          name,
-          entry.line,
-          field === 'pattern'
-            ? 'an entry must hold a row and a column'
-            : 'an entry must hold a row, a column and a value',
-        );
-      }
-      const [ti, tj, tv] = entry.tokens as [string, string, string | undefined];
-      const i = Number(ti);
-      const j = Number(tj);
-      if (!Number.isInteger(i) || i < 1 || i > rows) {
-        throw invalid(name, entry.line, `row index ${ti} is outside 1…${rows}`);
-      }
-      if (!Number.isInteger(j) || j < 1 || j > cols) {
-        throw invalid(name, entry.line, `column index ${tj} is outside 1…${cols}`);
-      }
-      let v = 1;
-      if (tv !== undefined) {
-        const parsed = number(tv);
-        if (typeof parsed === 'string') throw invalid(name, entry.line, parsed);
-        v = parsed;
-      }
-      if (mirrored && j > i) {
-        throw invalid(
-          name,
-          entry.line,
-          `entry (${i}, ${j}) is above the diagonal; a ${symmetry} file stores the lower triangle only`,
-        );
-      }
-      entries.add(i - 1, j - 1, v);
-      if (mirrored && i !== j) entries.add(j - 1, i - 1, sign * v);
-    }
-    const extra = nextDataLine();
-    if (extra) {
-      throw invalid(
-        name,
-        extra.line,
-        `the size line promises ${stored} entries but there are more`,
-      );
-    }
-  } else {
-    // Array: column by column; symmetric files hold the lower triangle of each column.
-    for (let j = 0; j < cols; j++) {
-      for (let i = mirrored ? j + (sign < 0 ? 1 : 0) : 0; i < rows; i++) {
-        const entry = nextDataLine();
-        if (!entry) {
-          throw invalid(name, lines.length, `the entries stop at row ${i + 1}, column ${j + 1}`);
-        }
-        if (entry.tokens.length !== 1) {
-          throw invalid(name, entry.line, 'an array file holds one value per line');
-        }
-        const parsed = number(entry.tokens[0] ?? '');
-        if (typeof parsed === 'string') throw invalid(name, entry.line, parsed);
-        if (parsed !== 0) {
-          entries.add(i, j, parsed);
-          if (mirrored && i !== j) entries.add(j, i, sign * parsed);
-        }
-      }
-    }
-    const extra = nextDataLine();
-    if (extra) throw invalid(name, extra.line, `there are more values than ${rows} × ${cols}`);
-  }
-  return shapeOf(entries);
-}
-
-const TRIPLET_HEADER = /^\s*(i|row)\s*,\s*(j|col|column)\s*,\s*(value|v)\s*$/i;
-
 /**
- * CSV: rows of numbers separated by commas, or triplets `i,j,value` (1-based) when the first line
- * is the header `i,j,value` (also `row,col,value`). Blank lines and lines starting with # are
- * skipped.
- */
-function readCsv(text: string, name: string): MatrixFileShape {
-  const lines = text.split(/\r?\n/);
-  const data: { cells: string[]; line: number }[] = [];
-  let triplets = false;
-  lines.forEach((raw, index) => {
-    const t = raw.trim();
-    if (t === '' || t.startsWith('#')) return;
-    if (data.length === 0 && !triplets && TRIPLET_HEADER.test(t)) {
-      triplets = true;
-      return;
-    }
-    data.push({ cells: t.split(',').map((c) => c.trim()), line: index + 1 });
-  });
-  if (data.length === 0) throw invalid(name, 0, 'the file holds no numbers');
-
-  if (triplets) {
-    const parsed = data.map(({ cells, line }) => {
-      if (cells.length !== 3) throw invalid(name, line, 'a triplet line holds i, j and a value');
-      const [ti, tj, tv] = cells as [string, string, string];
-      const i = Number(ti);
-      const j = Number(tj);
-      if (!Number.isInteger(i) || i < 1)
-        throw invalid(name, line, `row index "${ti}" is not a whole number from 1`);
-      if (!Number.isInteger(j) || j < 1)
-        throw invalid(name, line, `column index "${tj}" is not a whole number from 1`);
-      const v = number(tv);
-      if (typeof v === 'string') throw invalid(name, line, v);
-      return { i, j, v };
-    });
-    let rows = 0;
-    let cols = 0;
-    for (const p of parsed) {
-      rows = Math.max(rows, p.i);
-      cols = Math.max(cols, p.j);
-    }
-    const entries = new Entries(rows, cols);
-    for (const p of parsed) entries.add(p.i - 1, p.j - 1, p.v);
-    return shapeOf(entries);
-  }
-
-  const cols = data[0]?.cells.length ?? 0;
-  const rows = data.length;
-  checkSize(name, 0, rows, cols);
-  const entries = new Entries(rows, cols);
-  data.forEach(({ cells, line }, i) => {
-    if (cells.length !== cols) {
-      throw invalid(name, line, `this row has ${cells.length} values; the first row has ${cols}`);
-    }
-    cells.forEach((cell, j) => {
-      if (cell === '') throw invalid(name, line, `value ${j + 1} is empty`);
-      const v = number(cell);
-      if (typeof v === 'string') throw invalid(name, line, v);
-      if (v !== 0) entries.add(i, j, v);
-    });
-  });
-  return shapeOf(entries);
-}
-
-/**
- * Reads an uploaded matrix file far enough to describe it, refusing anything that is not a matrix
- * with 422 MATRIX_FILE_INVALID naming the line (`details.line`, 1-based; 0 for the whole file).
+ * Reads an uploaded matrix file with the engine's readers (the same ones a matrix block's
+ * `from:` uses) far enough to describe it, refusing anything that is not a matrix with 422
+ * MATRIX_FILE_INVALID naming the line (`details.line`, 1-based).
  */
 export function describeMatrixFile(
   text: string,
   format: UploadFormat,
   name: string,
 ): MatrixFileShape {
-  return format === 'matrix-market' ? readMatrixMarket(text, name) : readCsv(text, name);
+  let parsed: ParsedMatrix;
+  try {
+    parsed =
+      format === 'matrix-market' ? parseMatrixMarket(text, name) : parseCsvMatrix(text, name);
+  } catch (e) {
+    if (isEngineError(e)) {
+      const line = typeof e.details?.line === 'number' ? e.details.line : 0;
+      throw new AppError(422, 'MATRIX_FILE_INVALID', e.message, {
+        field: 'file',
+        details: { ...e.details, line, file: name, reason: e.code },
+      });
+    }
+    throw e;
+  }
+  // Dense layouts hold every entry: keep them within what one sheet value may hold. Sparse
+  // coordinate files and triplets are bounded by the upload size only.
+  if (parsed.format === 'array' || parsed.format === 'csv-dense') {
+    checkSize(name, 0, parsed.rows, parsed.cols);
+  }
+  const entries = new Entries(parsed.rows, parsed.cols);
+  const { rowIdx, colIdx, values } = parsed;
+  for (let k = 0; k < values.length; k++) {
+    const i = rowIdx[k]!;
+    const j = colIdx[k]!;
+    const v = values[k]!;
+    if (v === 0) continue;
+    entries.add(i, j, v);
+    if (parsed.symmetricStorage && i !== j) entries.add(j, i, v);
+  }
+  return shapeOf(entries);
 }
