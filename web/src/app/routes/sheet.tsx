@@ -1,7 +1,13 @@
+import { lazy, Suspense } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { Alert } from '../../components/ui/alert';
+import { Spinner } from '../../components/ui/spinner';
 import { paths } from '../../config/paths';
-import { SheetEditor } from '../../features/editor/components/sheet-editor';
+
+// The editor brings CodeMirror, KaTeX, the charts and Markdown: loaded only when a sheet opens.
+const SheetEditor = lazy(() =>
+  import('../../features/editor/components/sheet-editor').then((m) => ({ default: m.SheetEditor })),
+);
 
 export const sheetPath = '/projects/:projectId/sheets/:sheetId';
 export const sheetHref = (projectId: number | string, sheetId: number | string) =>
@@ -18,5 +24,9 @@ export function SheetRoute() {
       </Alert>
     );
   }
-  return <SheetEditor sheetId={sheetId} projectHref={(id) => paths.project.href(id)} />;
+  return (
+    <Suspense fallback={<Spinner label="Opening the editor…" />}>
+      <SheetEditor sheetId={sheetId} projectHref={(id) => paths.project.href(id)} />
+    </Suspense>
+  );
 }

@@ -53,6 +53,18 @@ function Results({ result, digits }: { result: BlockResult; digits: number }) {
   }
 }
 
+// Markdown's own elements, styled here (the base styles reset them).
+const MARKDOWN_CLASSES = [
+  'markdown px-1 text-sm leading-relaxed text-ink',
+  '[&_h1]:mt-1 [&_h1]:text-lg [&_h1]:font-semibold',
+  '[&_h2]:mt-1 [&_h2]:text-base [&_h2]:font-semibold',
+  '[&_h3]:mt-1 [&_h3]:text-sm [&_h3]:font-semibold',
+  '[&_p]:my-1.5 [&_ul]:my-1.5 [&_ul]:list-disc [&_ul]:pl-5 [&_ol]:my-1.5 [&_ol]:list-decimal [&_ol]:pl-5',
+  '[&_a]:text-accent-strong [&_a]:underline [&_code]:text-[12px] [&_code]:bg-paper-deep [&_code]:px-1',
+  '[&_table]:my-2 [&_td]:border [&_td]:border-rule [&_td]:px-2 [&_th]:border [&_th]:border-rule [&_th]:px-2',
+  '[&_blockquote]:border-l-4 [&_blockquote]:border-rule-strong [&_blockquote]:pl-3 [&_blockquote]:text-ink-soft',
+].join(' ');
+
 const iconButton =
   'rounded-sm px-1.5 py-0.5 text-xs text-ink-soft hover:bg-paper-deep hover:text-ink disabled:opacity-40 disabled:hover:bg-transparent';
 
@@ -174,10 +186,7 @@ export function BlockCard(props: BlockCardProps) {
           </ul>
         ) : null}
         {block.kind === 'text' ? (
-          <div
-            className="markdown px-1 text-sm leading-relaxed text-ink"
-            dangerouslySetInnerHTML={{ __html: markdown }}
-          />
+          <div className={MARKDOWN_CLASSES} dangerouslySetInnerHTML={{ __html: markdown }} />
         ) : result ? (
           <div
             className={`px-1 transition-opacity ${stale ? 'opacity-60' : ''}`}

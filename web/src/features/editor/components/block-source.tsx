@@ -1,4 +1,4 @@
-import { setDiagnostics, type Diagnostic } from '@codemirror/lint';
+import { lintGutter, setDiagnostics, type Diagnostic } from '@codemirror/lint';
 import { Prec } from '@codemirror/state';
 import { EditorView, keymap } from '@codemirror/view';
 import CodeMirror from '@uiw/react-codemirror';
@@ -13,7 +13,12 @@ import { sheetLanguage } from '../lib/sheet-language';
 // paper background, a thin gutter, the product's accent for the cursor and the selection.
 const theme = EditorView.theme({
   '&': { fontSize: '13px', backgroundColor: '#fbf9f3', color: '#1d2126' },
-  '.cm-scroller': { fontFamily: '"JetBrains Mono", ui-monospace, monospace', lineHeight: '1.55' },
+  // Ligatures off: the author sees `>=` as typed, not as one glyph.
+  '.cm-scroller': {
+    fontFamily: '"JetBrains Mono", ui-monospace, monospace',
+    lineHeight: '1.55',
+    fontVariantLigatures: 'none',
+  },
   '.cm-content': { caretColor: '#154d42', padding: '4px 0' },
   '.cm-gutters': {
     backgroundColor: '#f4f0e6',
@@ -39,6 +44,25 @@ const theme = EditorView.theme({
     textUnderlineOffset: '3px',
   },
 });
+
+// Stable objects: a new one on every render would make the wrapper reconfigure the editor.
+const EDITING_SETUP = {
+  lineNumbers: true,
+  foldGutter: false,
+  highlightActiveLine: true,
+  highlightActiveLineGutter: true,
+  autocompletion: false,
+  searchKeymap: false,
+  syntaxHighlighting: false,
+  bracketMatching: true,
+  closeBrackets: true,
+  lintKeymap: true,
+};
+const READ_ONLY_SETUP = {
+  ...EDITING_SETUP,
+  highlightActiveLine: false,
+  highlightActiveLineGutter: false,
+};
 
 export type BlockSourceProps = {
   blockId: string;
@@ -81,6 +105,8 @@ export function BlockSource({
         () => live.current.uploads(),
       ),
       theme,
+      // Part of the configuration from the start, so the diagnostics survive a reconfigure.
+      lintGutter(),
       EditorView.lineWrapping,
       EditorView.contentAttributes.of({ 'aria-label': label }),
       Prec.highest(
@@ -123,18 +149,7 @@ export function BlockSource({
       editable={!readOnly}
       readOnly={readOnly}
       theme="none"
-      basicSetup={{
-        lineNumbers: true,
-        foldGutter: false,
-        highlightActiveLine: !readOnly,
-        highlightActiveLineGutter: !readOnly,
-        autocompletion: false,
-        searchKeymap: false,
-        syntaxHighlighting: false,
-        bracketMatching: true,
-        closeBrackets: true,
-        lintKeymap: true,
-      }}
+      basicSetup={readOnly ? READ_ONLY_SETUP : EDITING_SETUP}
       onCreateEditor={(created) => {
         view.current = created;
       }}

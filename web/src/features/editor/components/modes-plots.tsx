@@ -20,15 +20,22 @@ const MAX_SHAPES = 6;
  */
 export function ModeShapePlot({ shapes, count }: { shapes: number[][]; count: number }) {
   const modes = Math.min(count, MAX_SHAPES, shapes[0]?.length ?? 0);
+  // Each shape scaled to a largest component of 1 for the drawing (the table keeps the
+  // normalization asked for).
+  const scale = Array.from({ length: modes }, (_, j) => {
+    const max = Math.max(...shapes.map((row) => Math.abs(row[j] ?? 0)));
+    return max > 0 ? 1 / max : 1;
+  });
   const data = shapes.map((row, i) => {
     const point: Record<string, number> = { dof: i + 1 };
-    for (let j = 0; j < modes; j++) point[`m${j + 1}`] = row[j] ?? 0;
+    for (let j = 0; j < modes; j++) point[`m${j + 1}`] = (row[j] ?? 0) * (scale[j] ?? 1);
     return point;
   });
   return (
     <figure className="min-w-0 flex-1" aria-label="Mode shapes">
       <figcaption className="mb-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">
-        Mode shapes
+        Mode shapes{' '}
+        <span className="font-normal normal-case">(each scaled to a largest value of 1)</span>
       </figcaption>
       <div style={{ height: 240 }}>
         <ResponsiveContainer width="100%" height="100%">
@@ -38,12 +45,19 @@ export function ModeShapePlot({ shapes, count }: { shapes: number[][]; count: nu
             margin={{ top: 4, right: 12, bottom: 4, left: 0 }}
           >
             <CartesianGrid stroke="#d6cfbf" strokeDasharray="2 3" />
-            <XAxis type="number" tick={{ fontSize: 11 }} tickFormatter={(v: number) => sig(v, 2)} />
+            <XAxis
+              type="number"
+              domain={[-1, 1]}
+              ticks={[-1, -0.5, 0, 0.5, 1]}
+              tick={{ fontSize: 11 }}
+              tickFormatter={(v: number) => sig(v, 2)}
+            />
             <YAxis
               type="number"
               dataKey="dof"
               domain={[1, Math.max(1, data.length)]}
               allowDecimals={false}
+              reversed
               tick={{ fontSize: 11 }}
               width={32}
               label={{ value: 'DOF', angle: -90, position: 'insideLeft', fontSize: 11 }}
@@ -79,7 +93,9 @@ export function ConvergencePlot({ histories }: { histories: number[][] }) {
   return (
     <figure className="min-w-0 flex-1" aria-label="Convergence">
       <figcaption className="mb-1 flex items-center justify-between gap-2 text-xs font-semibold tracking-wide text-ink-soft uppercase">
-        <span>Convergence of ρ</span>
+        <span>
+          Convergence of <span className="normal-case">ρ</span>
+        </span>
         {histories.length > 1 ? (
           <label className="flex items-center gap-1 font-normal normal-case">
             Mode

@@ -23,6 +23,8 @@ import { UploadZone } from './upload-zone';
 
 type Undo = { label: string; blocks: Block[] };
 
+const NO_ISSUES: SheetIssue[] = [];
+
 /** The sheet editor on the draft: loads the sheet, then hands it to the editing surface. */
 export function SheetEditor({
   sheetId,
@@ -107,9 +109,13 @@ function EditorSurface({ sheet, projectHref }: { sheet: SheetDetail; projectHref
     });
   }, []);
 
-  const add = (kind: BlockKind, source = BLOCK_STARTERS[kind], at = blocks.length) => {
+  // Appends unless told where: several uploads in a row land in the order they finished.
+  const add = (kind: BlockKind, source = BLOCK_STARTERS[kind], at?: number) => {
     const block: Block = { id: newBlockId(), kind, source };
-    setBlocks((current) => [...current.slice(0, at), block, ...current.slice(at)]);
+    setBlocks((current) => {
+      const i = at ?? current.length;
+      return [...current.slice(0, i), block, ...current.slice(i)];
+    });
   };
 
   const remove = (index: number) => {
@@ -193,7 +199,7 @@ function EditorSurface({ sheet, projectHref }: { sheet: SheetDetail; projectHref
                 count={blocks.length}
                 readOnly={!canEdit}
                 result={results?.blocks.find((r) => r.blockId === block.id)}
-                issues={issuesByBlock.get(block.id) ?? []}
+                issues={issuesByBlock.get(block.id) ?? NO_ISSUES}
                 stale={evaluation.stale}
                 digits={settings.significantFigures}
                 names={(line) => namesInScope(blocks, index, line, results?.blocks)}
