@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { solveModes } from '../../../core/eigen/solve-modes';
 import type { RawEigenResult } from '../../../core/eigen/types';
 import { EngineError, NoConvergenceError } from '../../../core/errors';
+import { toSparse } from '../../../core/linalg/factorize';
 import { denseFromRows, sparseSymmetricFromTriplets } from '../../../core/linalg/sparse';
 import { storeyChain } from '../../../core/models/storey-chain';
 
@@ -263,7 +264,7 @@ describe('solveModes results', () => {
     const x = new Float64Array(20).map((_, i) => Math.sin(i * 1.7) + 0.3);
     let kx = 0;
     let mx = 0;
-    const Kd = K;
+    const Kd = toSparse(K);
     for (let j = 0; j < 20; j++)
       for (let p = Kd.colPtr[j] as number; p < (Kd.colPtr[j + 1] as number); p++) {
         const i = Kd.rowIdx[p] as number;
