@@ -69,14 +69,27 @@ const sheet = {
 };
 // f₁ = √(k/2m)/(2π) with k = 50e6 N/m, m = 100e3 kg.
 const f1 = Math.sqrt(50e6 / (2 * 100e3)) / (2 * Math.PI);
-// Slow enough to meet the time limit on any machine: three products of 1500×1500 matrices.
+// Slow enough to meet the time limit on any machine (seven products of 800×800 matrices, about
+// 3.6e9 floating-point operations) while staying small in memory (a few MB per matrix).
 const heavy = {
-  blocks: [{ id: 'big', kind: 'calc', source: 'A = ones(1500, 1500)\nB = A * A * A * A' }],
+  blocks: [
+    { id: 'big', kind: 'calc', source: 'A = ones(800, 800)\nB = A * A * A * A * A * A * A * A' },
+  ],
+};
+// Fast to allocate and far above 64 MB: five 2000×2000 matrices (4e6 doubles, 32 MB each).
+const hungry = {
+  blocks: [
+    {
+      id: 'mem',
+      kind: 'calc',
+      source: 'A = ones(2000, 2000)\nB = A + 1\nC = A + 2\nD = A + 3\nE = A + 4',
+    },
+  ],
 };
 
 beforeAll(async () => {
   t = await createTestApp();
-  pool = createEvaluationPool({ threads: 1, timeLimitMs: 3000, memoryLimitMb: 256, maxQueue: 1 });
+  pool = createEvaluationPool({ threads: 1, timeLimitMs: 5000, memoryLimitMb: 64, maxQueue: 1 });
   mountEvaluate(t.app, t.db, pool);
   client = await signedIn(t.app, await createUser(t.db));
 });
@@ -134,9 +147,19 @@ describe('POST /api/evaluate', () => {
     const res = await huge;
     expect(res.status).toBe(422);
     expect(res.body.error.code).toBe('SHEET_LIMIT');
-    expect(res.body.error.message).toMatch(/longer than the 3 s limit/);
+    expect(res.body.error.message).toMatch(/longer than the 5 s limit/);
     // The terminated worker is replaced; the queued sheet gives byte-identical digests.
     const again = await queued;
+    expect(again.status).toBe(200);
+    expect(again.body.digests).toEqual(first.digests);
+  });
+
+  it('stops an evaluation at the memory limit, replaces the worker and keeps serving', async () => {
+    const res = await client.post('/api/evaluate', hungry);
+    expect(res.status).toBe(422);
+    expect(res.body.error.code).toBe('SHEET_LIMIT');
+    expect(res.body.error.message).toMatch(/more than the 64 MB memory limit/);
+    const again = await client.post('/api/evaluate', sheet);
     expect(again.status).toBe(200);
     expect(again.body.digests).toEqual(first.digests);
   });
@@ -173,6 +196,7 @@ describe('POST /api/evaluate/stream', () => {
         const [ev, data] = e.split('\n');
         return { event: ev!.replace('event: ', ''), data: JSON.parse(data!.replace('data: ', '')) };
       });
+    expect(events.map((e) => e.event).join(' '), String(res.body)).toMatch(/result$/);
     expect(events.filter((e) => e.event === 'progress').map((e) => e.data.blockId)).toEqual(
       sheet.blocks.map((b) => b.id),
     );
