@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { isEngineError } from '../../core/index';
 import { duplicateKeyIndex, isDuplicateKeyError } from '../db/index';
 import {
   AppError,
@@ -27,15 +28,17 @@ interface EngineErrorLike {
   name: string;
   code: string;
   message: string;
-  details?: Record<string, unknown>;
+  details?: Record<string, unknown> | undefined;
 }
 
-// core/errors.ts is not yet exported through core/index.ts; recognise its errors by shape.
-function isEngineError(e: unknown): e is EngineErrorLike {
+// core's typed errors; an error rebuilt after crossing a worker thread has lost its class, so one
+// with the engine's name and a code counts too.
+function isEngineFailure(e: unknown): e is EngineErrorLike {
   return (
-    e instanceof Error &&
-    (e.name === 'EngineError' || e.name === 'NoConvergenceError') &&
-    typeof (e as { code?: unknown }).code === 'string'
+    isEngineError(e) ||
+    (e instanceof Error &&
+      (e.name === 'EngineError' || e.name === 'NoConvergenceError') &&
+      typeof (e as { code?: unknown }).code === 'string')
   );
 }
 
@@ -43,7 +46,7 @@ function isEngineError(e: unknown): e is EngineErrorLike {
 export function normaliseError(err: unknown, log: Logger, where: string): AppError {
   if (err instanceof AppError) return err;
   if (isZodError(err)) return validationErrorFrom(err);
-  if (isEngineError(err)) {
+  if (isEngineFailure(err)) {
     return new AppError(422, err.code, err.message, err.details ? { details: err.details } : {});
   }
   const bodyError = err as { type?: unknown; status?: unknown };

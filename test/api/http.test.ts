@@ -5,7 +5,7 @@ import express from 'express';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { ZodError, z } from 'zod';
-import { EngineError } from '../../core/errors';
+import { EngineError } from '../../core/index';
 import { ConflictError } from '../../api/http/errors';
 import { errorMiddleware } from '../../api/http/error-middleware';
 import type { Logger } from '../../api/http/logger';
@@ -147,6 +147,20 @@ describe('errorMiddleware', () => {
         message: 'K is not symmetric: K[3,7] = 12 but K[7,3] = 11.',
         details: { row: 3, col: 7 },
       },
+    });
+  });
+
+  it('maps an engine error that lost its class crossing a worker thread by its name and code', async () => {
+    const rebuilt = Object.assign(new Error('Mass matrix is singular at DOF 4.'), {
+      name: 'EngineError',
+      code: 'MASS_SINGULAR',
+    });
+    const { app } = appThrowing(rebuilt);
+    const res = await request(app).get('/boom');
+    expect(res.status).toBe(422);
+    expect(res.body.error).toEqual({
+      code: 'MASS_SINGULAR',
+      message: 'Mass matrix is singular at DOF 4.',
     });
   });
 
