@@ -68,7 +68,8 @@ export async function launchBrowser(): Promise<BrowserSession> {
     viewport: { width: 1280, height: 860 },
     baseURL: baseUrl(),
   });
-  context.setDefaultTimeout(15_000);
+  // Generous: two shared cores and argon2 sign-ins make single steps take seconds at busy times.
+  context.setDefaultTimeout(30_000);
   const page = context.pages()[0] ?? (await context.newPage());
   return {
     context,
@@ -101,10 +102,21 @@ export async function fillSignIn(page: Page, email: string, password: string): P
   await page.getByRole('button', { name: 'Sign in' }).click();
 }
 
-/** Saves a full-page screenshot to test-results/screenshots/<name>.png. */
+/**
+ * Saves a screenshot to test-results/screenshots/<name>.png: the whole page, unless it has grown
+ * very tall (a test database full of rows), when the top 2400 px tell the story.
+ */
 export async function saveScreenshot(page: Page, name: string): Promise<string> {
   await mkdir(SCREENSHOT_DIR, { recursive: true });
   const file = path.join(SCREENSHOT_DIR, `${name}.png`);
-  await page.screenshot({ path: file, fullPage: true });
+  const height = await page.evaluate(() => document.documentElement.scrollHeight);
+  const width = page.viewportSize()?.width ?? 1280;
+  await page.screenshot({
+    path: file,
+    timeout: 45_000,
+    ...(height <= 2400
+      ? { fullPage: true }
+      : { fullPage: true, clip: { x: 0, y: 0, width, height: 2400 } }),
+  });
   return file;
 }

@@ -3,10 +3,13 @@ import { Spinner } from '../../../components/ui/spinner';
 import { QueryError } from '../../../components/ui/alert';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { Badge } from '../../../components/ui/badge';
+import { useId, useState } from 'react';
 import { useUsers } from '../api/get-users';
 
 export function UsersTable() {
   const users = useUsers();
+  const [filter, setFilter] = useState('');
+  const filterId = useId();
 
   if (users.isPending) return <Spinner label="Loading people…" />;
   if (users.isError) {
@@ -14,34 +17,67 @@ export function UsersTable() {
   }
   if (users.data.length === 0) return <EmptyState title="No people yet" />;
 
+  const needle = filter.trim().toLowerCase();
+  const shown = needle
+    ? users.data.filter(
+        (u) => u.name.toLowerCase().includes(needle) || u.email.toLowerCase().includes(needle),
+      )
+    : users.data;
+
   return (
-    <Table caption="People">
-      <thead>
-        <tr>
-          <Th>Name</Th>
-          <Th>E-mail</Th>
-          <Th>Admin</Th>
-          <Th>Licence no.</Th>
-          <Th>Jurisdiction</Th>
-        </tr>
-      </thead>
-      <tbody>
-        {users.data.map((user) => (
-          <tr key={user.id}>
-            <Td className="font-medium">{user.name}</Td>
-            <Td className="font-mono text-xs leading-5">{user.email}</Td>
-            <Td>
-              {user.isAdmin ? (
-                <Badge tone="accent">Admin</Badge>
-              ) : (
-                <span className="text-ink-faint">no</span>
-              )}
-            </Td>
-            <Td className="font-mono text-xs leading-5">{user.licenceNumber ?? '—'}</Td>
-            <Td>{user.jurisdiction ?? '—'}</Td>
-          </tr>
-        ))}
-      </tbody>
-    </Table>
+    <>
+      <div className="mb-3 flex flex-wrap items-end gap-3">
+        <div className="flex flex-col gap-1">
+          <label htmlFor={filterId} className="text-sm font-medium">
+            Filter people
+          </label>
+          <input
+            id={filterId}
+            type="search"
+            value={filter}
+            onChange={(e) => setFilter(e.target.value)}
+            placeholder="Name or e-mail"
+            className="w-72 rounded-sm border border-rule-strong bg-paper-sheet px-2.5 py-1.5"
+          />
+        </div>
+        <p className="pb-2 text-sm text-ink-soft" role="status">
+          {shown.length === users.data.length
+            ? `${users.data.length} people`
+            : `${shown.length} of ${users.data.length} people`}
+        </p>
+      </div>
+      {shown.length === 0 ? (
+        <EmptyState title="No one matches the filter" />
+      ) : (
+        <Table caption="People">
+          <thead>
+            <tr>
+              <Th>Name</Th>
+              <Th>E-mail</Th>
+              <Th>Admin</Th>
+              <Th>Licence no.</Th>
+              <Th>Jurisdiction</Th>
+            </tr>
+          </thead>
+          <tbody>
+            {shown.map((user) => (
+              <tr key={user.id}>
+                <Td className="font-medium">{user.name}</Td>
+                <Td className="font-mono text-xs leading-5">{user.email}</Td>
+                <Td>
+                  {user.isAdmin ? (
+                    <Badge tone="accent">Admin</Badge>
+                  ) : (
+                    <span className="text-ink-faint">no</span>
+                  )}
+                </Td>
+                <Td className="font-mono text-xs leading-5">{user.licenceNumber ?? '—'}</Td>
+                <Td>{user.jurisdiction ?? '—'}</Td>
+              </tr>
+            ))}
+          </tbody>
+        </Table>
+      )}
+    </>
   );
 }
