@@ -188,6 +188,14 @@ describe('POST /api/sheets/:sheetId/uploads', () => {
     ]);
   });
 
+  it('refuses a name that differs from a stored one only in capitals with 409', async () => {
+    const name = `Case-${unique()}.csv`;
+    expect((await upload(author, name, Buffer.from('1,0\n0,1\n'))).status).toBe(201);
+    const lower = await upload(author, name.toLowerCase(), Buffer.from('1,0\n0,1\n'));
+    expect(lower.status).toBe(409);
+    expect(lower.body.error.message).toContain(name);
+  });
+
   it('refuses a file over the upload limit with 413 PAYLOAD_TOO_LARGE', async () => {
     // One byte over the default limit (20 MB): a CSV row of zeros.
     const bytes = Buffer.alloc(DEFAULT_UPLOAD_LIMIT_BYTES + 1, '0');

@@ -81,7 +81,7 @@ export const uploadsService = {
     const sha256 = createHash('sha256').update(file.buffer).digest('hex');
 
     const existing = await findUploadByName(db, sheetId, name);
-    if (existing) return sameOrConflict(existing, sha256);
+    if (existing) return sameOrConflict(existing, sha256, name);
 
     const shape = describeMatrixFile(text, format, name);
     let id: number;
@@ -118,7 +118,7 @@ export const uploadsService = {
     } catch (e) {
       if (isDuplicateKeyError(e)) {
         const raced = await findUploadByName(db, sheetId, name);
-        if (raced) return sameOrConflict(raced, sha256);
+        if (raced) return sameOrConflict(raced, sha256, name);
       }
       throw e;
     }
@@ -138,7 +138,22 @@ export const uploadsService = {
   },
 };
 
-function sameOrConflict(existing: Upload, sha256: string): UploadResult {
+/**
+ * An upload already under this name: the same file answers with it. Names are compared as the
+ * database's unique index does (case-insensitively), so `k.mtx` after `K.mtx` is refused too: a
+ * matrix block's `from:` must name exactly one file.
+ */
+function sameOrConflict(existing: Upload, sha256: string, name: string): UploadResult {
+  if (existing.name !== name) {
+    throw new ConflictError(
+      `This sheet already has a file named ${existing.name}; names that differ only in capitals would be confused. Upload under another name.`,
+      {
+        code: 'CONFLICT',
+        field: 'file',
+        details: { existing: { id: existing.id, name: existing.name } },
+      },
+    );
+  }
   if (existing.sha256 === sha256) return { upload: existing, created: false };
   throw new ConflictError(
     `This sheet already has a file named ${existing.name} (uploaded by ${existing.createdBy.name}). Uploads are kept unchanged so that issued revisions can be re-run; upload the new file under another name and change the matrix block's "from:" line.`,
