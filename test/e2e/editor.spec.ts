@@ -269,7 +269,11 @@ describe('sheet editor (browser)', () => {
     // The worst asymmetry is A[1,2] = 1 against A[2,1] = 2; the engine points at the row of the
     // lower entry, line 4 of the block.
     await errors.getByText(/Line 4:.*not symmetric/).waitFor();
-    await block(page, at, 'matrix').locator('.cm-lintRange-error').first().waitFor();
+    const underline = block(page, at, 'matrix').locator('.cm-lintRange-error').first();
+    await underline.waitFor();
+    // The message shows on hover over the underlined line.
+    await underline.hover();
+    await page.locator('.cm-tooltip-lint').getByText(/not symmetric/).waitFor();
     await block(page, at, 'matrix').screenshot({ path: await shotPath('editor-matrix-error') });
     await waitSaved(page);
   });

@@ -1,8 +1,8 @@
-import { lintGutter, setDiagnostics, type Diagnostic } from '@codemirror/lint';
+import { linter, lintGutter, setDiagnostics, type Diagnostic } from '@codemirror/lint';
 import { Prec } from '@codemirror/state';
 import { EditorView, keymap } from '@codemirror/view';
 import CodeMirror from '@uiw/react-codemirror';
-import { useEffect, useMemo, useRef } from 'react';
+import { useCallback, useEffect, useMemo, useRef } from 'react';
 import type { SheetIssue } from '../api/results';
 import type { BlockKind } from '../api/types';
 import { sheetCompletion } from '../lib/completion';
@@ -91,10 +91,12 @@ export function BlockSource({
 }: BlockSourceProps) {
   const view = useRef<EditorView | null>(null);
   // Completion and the move keys read the latest callbacks without reconfiguring the editor.
-  const live = useRef({ names, uploads, onMove });
+  const live = useRef({ names, uploads, onMove, onChange });
   useEffect(() => {
-    live.current = { names, uploads, onMove };
+    live.current = { names, uploads, onMove, onChange };
   });
+  // A stable handler: a new one on every render would make the wrapper reconfigure the editor.
+  const handleChange = useCallback((next: string) => live.current.onChange(next), []);
 
   const extensions = useMemo(
     () => [
@@ -105,7 +107,9 @@ export function BlockSource({
         () => live.current.uploads(),
       ),
       theme,
-      // Part of the configuration from the start, so the diagnostics survive a reconfigure.
+      // The lint state is part of the configuration from the start (no lint source of its own:
+      // the diagnostics come from the server's evaluation), so they survive a reconfigure.
+      linter(null),
       lintGutter(),
       EditorView.lineWrapping,
       EditorView.contentAttributes.of({ 'aria-label': label }),
@@ -144,7 +148,7 @@ export function BlockSource({
   return (
     <CodeMirror
       value={value}
-      onChange={onChange}
+      onChange={handleChange}
       extensions={extensions}
       editable={!readOnly}
       readOnly={readOnly}
