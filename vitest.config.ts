@@ -1,7 +1,8 @@
 import { defineConfig } from 'vitest/config';
 
-// Three projects: pure engine tests run in parallel; API and browser tests share one MariaDB
-// database and one server, so their files run one after another.
+// Three projects, run one after another (groupOrder): pure engine tests in parallel files; API and
+// browser tests share one MariaDB test database, so their files run one at a time and the browser
+// tests (which change demo people's roles) never overlap the API tests.
 export default defineConfig({
   test: {
     reporters: ['default'],
@@ -9,6 +10,7 @@ export default defineConfig({
       {
         test: {
           name: 'core',
+          sequence: { groupOrder: 0 },
           include: ['test/core/**/*.test.ts', 'test/scripts/**/*.test.ts'],
           environment: 'node',
           testTimeout: 120_000,
@@ -17,6 +19,7 @@ export default defineConfig({
       {
         test: {
           name: 'api',
+          sequence: { groupOrder: 1 },
           include: ['test/api/**/*.test.ts'],
           environment: 'node',
           globalSetup: ['test/support/db-global-setup.ts'],
@@ -28,6 +31,7 @@ export default defineConfig({
       {
         test: {
           name: 'e2e',
+          sequence: { groupOrder: 2 },
           include: ['test/e2e/**/*.spec.ts'],
           environment: 'node',
           globalSetup: ['test/support/db-global-setup.ts', 'test/support/e2e-global-setup.ts'],

@@ -8,6 +8,5 @@ cd "$ROOT"
 ensure_npm_packages
 ensure_debian_packages
 bash scripts/db.sh start
-npx tsx node_modules/knex/bin/cli.js --knexfile knexfile.ts migrate:latest >/dev/null
-npx tsx scripts/seed-if-empty.ts
+npx tsx api/db/prepare.ts
 MW_DEV=1 exec npx tsx watch --clear-screen=false --ignore 'web/**' api/server.ts
