@@ -1,4 +1,7 @@
+import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { SMTPServer, type SMTPServerDataStream, type SMTPServerSession } from 'smtp-server';
+import { createMailer } from '../../api/mail/mailer';
 import {
   anonymous,
   createTestApp,
@@ -128,5 +131,50 @@ describe('GET /api/outbox', () => {
     const res = await admin.get('/api/outbox?sheetId=abc');
     expect(res.status).toBe(422);
     expect(res.body.error.field).toBe('sheetId');
+  });
+});
+
+describe('createMailer with MW_SMTP_URL', () => {
+  it('delivers over SMTP instead of the outbox when a server is configured', async () => {
+    const received: { from: string; to: string[]; data: string }[] = [];
+    const server = new SMTPServer({
+      authOptional: true,
+      disabledCommands: ['STARTTLS'],
+      onData(stream: SMTPServerDataStream, session: SMTPServerSession, callback: () => void) {
+        let data = '';
+        stream.on('data', (c: Buffer) => (data += c.toString('utf8')));
+        stream.on('end', () => {
+          received.push({
+            from: session.envelope.mailFrom ? session.envelope.mailFrom.address : '',
+            to: session.envelope.rcptTo.map((r) => r.address),
+            data,
+          });
+          callback();
+        });
+      },
+    });
+    await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+    const port = (server.server.address() as AddressInfo).port;
+    const before = Number((await t.db('outbox').count({ n: '*' }).first())?.n);
+    const mailer = createMailer({ db: t.db, smtpUrl: `smtp://127.0.0.1:${port}` });
+    try {
+      expect(mailer.mode).toBe('smtp');
+      await mailer.send({
+        to: ['checker@smtp.example'],
+        subject: 'Rev 3 issued for check',
+        text: 'Please check it.',
+        kind: 'revision.issued',
+        relatedSheetId: null,
+      });
+    } finally {
+      mailer.close();
+      await new Promise<void>((resolve) => server.close(resolve));
+    }
+    expect(received).toHaveLength(1);
+    expect(received[0]!.to).toEqual(['checker@smtp.example']);
+    expect(received[0]!.data).toContain('Subject: Rev 3 issued for check');
+    expect(received[0]!.data).toContain('X-Modewright-Kind: revision.issued');
+    const after = Number((await t.db('outbox').count({ n: '*' }).first())?.n);
+    expect(after).toBe(before);
   });
 });
