@@ -273,7 +273,10 @@ describe('sheet editor (browser)', () => {
     await underline.waitFor();
     // The message shows on hover over the underlined line.
     await underline.hover();
-    await page.locator('.cm-tooltip-lint').getByText(/not symmetric/).waitFor();
+    await page
+      .locator('.cm-tooltip-lint')
+      .getByText(/not symmetric/)
+      .waitFor();
     await block(page, at, 'matrix').screenshot({ path: await shotPath('editor-matrix-error') });
     await waitSaved(page);
   });
@@ -312,6 +315,85 @@ describe('sheet editor (browser)', () => {
       );
     } finally {
       await other.close();
+    }
+  });
+
+  it('duplicates, moves by keyboard and by drag, and deletes with undo', async () => {
+    const { page } = ines;
+    await newSheet(page, `E2E-B${RUN}`, 'Block order');
+    const first = await addBlock(page, 'calc', 'a_1 = 1 m  # first');
+    await addBlock(page, 'calc', 'b_1 = 2 m  # second');
+    const sources = async () =>
+      page.getByRole('list', { name: 'Blocks' }).locator('.cm-content').allInnerTexts();
+
+    await page.getByRole('button', { name: `Duplicate block ${first}, calculation` }).click();
+    expect((await sources()).slice(first - 1)).toEqual([
+      'a_1 = 1 m  # first',
+      'a_1 = 1 m  # first',
+      'b_1 = 2 m  # second',
+    ]);
+
+    // Keyboard: focus the last block's handle and press ↑ twice.
+    const last = first + 2;
+    await page
+      .getByRole('button', { name: `Move block ${last}, calculation (drag, or arrow keys)` })
+      .focus();
+    await page.keyboard.press('ArrowUp');
+    await page.keyboard.press('ArrowUp');
+    expect((await sources()).slice(first - 1)).toEqual([
+      'b_1 = 2 m  # second',
+      'a_1 = 1 m  # first',
+      'a_1 = 1 m  # first',
+    ]);
+
+    // Drag: the first of them (b_1) onto the last place.
+    await page
+      .getByRole('button', { name: `Move block ${first}, calculation (drag, or arrow keys)` })
+      .dragTo(block(page, last, 'calc'));
+    expect((await sources()).slice(first - 1)).toEqual([
+      'a_1 = 1 m  # first',
+      'a_1 = 1 m  # first',
+      'b_1 = 2 m  # second',
+    ]);
+
+    await page.getByRole('button', { name: `Delete block ${last}, calculation` }).click();
+    expect((await sources()).slice(first - 1)).toEqual([
+      'a_1 = 1 m  # first',
+      'a_1 = 1 m  # first',
+    ]);
+    await page.getByRole('button', { name: 'Undo' }).click();
+    expect((await sources()).slice(first - 1)).toEqual([
+      'a_1 = 1 m  # first',
+      'a_1 = 1 m  # first',
+      'b_1 = 2 m  # second',
+    ]);
+    await waitSaved(page);
+  });
+
+  it('shows a viewer the results of a sheet but nothing to edit', async () => {
+    const { page } = ines;
+    // The demo footbridge sheet (seeds) as the author sees it, then as Lena, the viewer.
+    await page.goto(await projectHref(page));
+    const href = await page
+      .getByRole('table', { name: 'Sheets of the project' })
+      .getByRole('link', { name: 'DYN-01' })
+      .getAttribute('href');
+    expect(href).toBeTruthy();
+    const lena = await launchBrowser();
+    try {
+      await signInAs(lena.page, demoPeople.lena);
+      await lena.page.goto(href!);
+      await lena.page.getByText('Read only').waitFor();
+      await waitForResults(lena.page);
+      await lena.page.getByRole('list', { name: 'Criteria' }).first().waitFor();
+      expect(await lena.page.getByRole('button', { name: /^Delete block/ }).count()).toBe(0);
+      expect(await lena.page.getByRole('group', { name: 'Add a block' }).count()).toBe(0);
+      const editable = await lena.page.locator('.cm-content[contenteditable="true"]').count();
+      expect(editable).toBe(0);
+      await lena.page.getByTestId('sheet-caution').waitFor();
+      await saveScreenshot(lena.page, 'editor-viewer');
+    } finally {
+      await lena.close();
     }
   });
 
