@@ -1,7 +1,8 @@
-import { Router } from 'express';
+import { Router, type Response } from 'express';
 import { currentUser, requireSignedIn } from '../../http/auth';
 import type { AppContext } from '../../http/context';
 import { normaliseError } from '../../http/error-middleware';
+import { AppError } from '../../http/errors';
 import { parse } from '../../http/validate';
 import { checkSheetAccess } from './sheets.access';
 import { evaluateSheetDraft, type SheetRunner } from './sheets.evaluate';
@@ -14,6 +15,23 @@ import {
   updateSheetBody,
 } from './sheets.schemas';
 import { missingIfMatch, sheetsService } from './sheets.service';
+
+/** A full evaluation queue (429) says when to try again. */
+function setRetryAfter(res: Response, err: unknown): void {
+  if (err instanceof AppError && err.status === 429) {
+    const seconds = err.details?.retryAfterSeconds;
+    if (typeof seconds === 'number') res.set('Retry-After', String(seconds));
+  }
+}
+
+/** Fires when the client goes away before the answer is complete. */
+function disconnectSignal(res: Response): AbortSignal {
+  const controller = new AbortController();
+  res.on('close', () => {
+    if (!res.writableFinished) controller.abort();
+  });
+  return controller.signal;
+}
 
 export interface SheetsRouterOptions {
   /** How evaluations run (default: the sheet engine in this thread; pass the worker pool's). */
@@ -76,43 +94,44 @@ export function createSheetsRouter(ctx: AppContext, options: SheetsRouterOptions
   router.post('/sheets/:sheetId/evaluate', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const input = parse(draftBody, req.body);
-    const controller = new AbortController();
-    res.on('close', () => {
-      if (!res.writableEnded) controller.abort();
-    });
-    const out = await evaluateSheetDraft(db, currentUser(req), sheetId, input, {
-      signal: controller.signal,
-      ...(runner ? { runner } : {}),
-    });
-    res.json(out);
+    try {
+      const out = await evaluateSheetDraft(db, currentUser(req), sheetId, input, {
+        signal: disconnectSignal(res),
+        ...(runner ? { runner } : {}),
+      });
+      res.json(out);
+    } catch (err) {
+      setRetryAfter(res, err);
+      throw err;
+    }
   });
 
-  // Server-sent events: `progress` (one per block), then `result` or `error`. A client that
-  // disconnects cancels the evaluation. Refusals found before the stream opens (sign-in, role,
-  // input) answer as ordinary JSON errors.
+  // Server-sent events: `progress` (one per block, with `fraction` done), then `result` or
+  // `error`. A client that disconnects cancels the evaluation. Refusals before the first event
+  // (sign-in, role, input, a full queue) answer as ordinary JSON errors with their status.
   router.post('/sheets/:sheetId/evaluate/stream', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const input = parse(draftBody, req.body);
     const user = currentUser(req);
     await checkSheetAccess(db, user, sheetId);
 
-    const controller = new AbortController();
-    res.on('close', () => {
-      if (!res.writableEnded) controller.abort();
-    });
-    res.status(200).set({
-      'Content-Type': 'text/event-stream; charset=utf-8',
-      'Cache-Control': 'no-cache, no-transform',
-      'X-Accel-Buffering': 'no',
-    });
-    res.flushHeaders();
+    const signal = disconnectSignal(res);
+    let started = false;
     const send = (event: string, data: unknown) => {
+      if (!started) {
+        started = true;
+        res.status(200).set({
+          'Content-Type': 'text/event-stream; charset=utf-8',
+          'Cache-Control': 'no-cache, no-transform',
+          'X-Accel-Buffering': 'no',
+        });
+        res.flushHeaders();
+      }
       if (!res.writableEnded) res.write(`event: ${event}\ndata: ${JSON.stringify(data)}\n\n`);
     };
     try {
       const out = await evaluateSheetDraft(db, user, sheetId, input, {
-        signal: controller.signal,
-        // `fraction`: the share of blocks already done, for a progress bar.
+        signal,
         onProgress: (p) =>
           send('progress', {
             ...p,
@@ -122,17 +141,23 @@ export function createSheetsRouter(ctx: AppContext, options: SheetsRouterOptions
       });
       send('result', out);
     } catch (e) {
-      if (!controller.signal.aborted) {
-        const err = normaliseError(e, log, `POST ${req.originalUrl}`);
-        send('error', {
-          error: {
-            code: err.code,
-            message: err.message,
-            ...(err.field ? { field: err.field } : {}),
-            ...(err.details ? { details: err.details } : {}),
-          },
-        });
+      if (signal.aborted) {
+        res.end();
+        return;
       }
+      if (!started) {
+        setRetryAfter(res, e);
+        throw e;
+      }
+      const err = normaliseError(e, log, `POST ${req.originalUrl}`);
+      send('error', {
+        error: {
+          code: err.code,
+          message: err.message,
+          ...(err.field ? { field: err.field } : {}),
+          ...(err.details ? { details: err.details } : {}),
+        },
+      });
     }
     res.end();
   });
