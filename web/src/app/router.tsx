@@ -8,16 +8,22 @@ import { ProjectRoute } from './routes/project';
 import { AdminRoute } from './routes/admin';
 import { SheetRoute, sheetPath } from './routes/sheet';
 import { NotFoundRoute } from './routes/not-found';
+import { RevisionRoute, revisionPath } from './routes/revision';
+import { VerifyRoute, verifyCodePath, verifyPath } from './routes/verify';
 
 function createAppRouter() {
   return createBrowserRouter([
     { path: paths.signIn.path, element: <SignInRoute /> },
+    // Public: a seal is checked without signing in.
+    { path: verifyPath, element: <VerifyRoute /> },
+    { path: verifyCodePath, element: <VerifyRoute /> },
     {
       element: <ProtectedLayout />,
       children: [
         { index: true, element: <ProjectsRoute /> },
         { path: paths.project.path, element: <ProjectRoute /> },
         { path: sheetPath, element: <SheetRoute /> },
+        { path: revisionPath, element: <RevisionRoute /> },
         { path: paths.admin.path, element: <AdminRoute /> },
         { path: '*', element: <NotFoundRoute /> },
       ],

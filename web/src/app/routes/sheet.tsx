@@ -2,7 +2,13 @@ import { lazy, Suspense } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { Alert } from '../../components/ui/alert';
 import { Spinner } from '../../components/ui/spinner';
+import { Section } from '../../components/ui/section';
 import { paths } from '../../config/paths';
+import {
+  IssueForCheck,
+  RevisionList,
+  SheetHistory,
+} from '../../features/review/components/sheet-review-panel';
 
 // The editor brings CodeMirror, KaTeX, the charts and Markdown: loaded only when a sheet opens.
 const SheetEditor = lazy(() =>
@@ -25,8 +31,17 @@ export function SheetRoute() {
     );
   }
   return (
-    <Suspense fallback={<Spinner label="Opening the editor…" />}>
-      <SheetEditor sheetId={sheetId} projectHref={(id) => paths.project.href(id)} />
-    </Suspense>
+    <div className="flex flex-col gap-4">
+      <IssueForCheck sheetId={sheetId} revisionHref={(id) => `/revisions/${id}`} />
+      <Suspense fallback={<Spinner label="Opening the editor…" />}>
+        <SheetEditor sheetId={sheetId} projectHref={(id) => paths.project.href(id)} />
+      </Suspense>
+      <Section title="Revisions">
+        <RevisionList sheetId={sheetId} revisionHref={(id) => `/revisions/${id}`} />
+      </Section>
+      <Section title="History">
+        <SheetHistory sheetId={sheetId} />
+      </Section>
+    </div>
   );
 }

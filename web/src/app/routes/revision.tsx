@@ -1,0 +1,42 @@
+import { Link, useParams } from 'react-router-dom';
+import { Alert } from '../../components/ui/alert';
+import { paths } from '../../config/paths';
+import { RevisionView } from '../../features/review/components/revision-view';
+import { SealDialog } from '../../features/seal/components/seal-dialog';
+import { sheetHref } from './sheet';
+import { useSignedInUser } from './use-user';
+
+export const revisionPath = '/revisions/:revisionId';
+export const revisionHref = (revisionId: number | string) => `/revisions/${revisionId}`;
+export const printHref = (revisionId: number | string) => `/revisions/${revisionId}/print`;
+export const compareHref = (sheetId: number | string, from: number | string, to: number | string) =>
+  `/sheets/${sheetId}/compare?from=${from}&to=${to}`;
+
+/** A revision, read-only, with its remarks; the checker's and principal's actions (issue 7). */
+export function RevisionRoute() {
+  const user = useSignedInUser();
+  const { revisionId: raw } = useParams();
+  const revisionId = Number(raw);
+  if (!Number.isInteger(revisionId) || revisionId <= 0) {
+    return (
+      <Alert title="No such revision.">
+        “{raw}” is not a revision number. <Link to={paths.projects.href()}>Back to projects</Link>
+      </Alert>
+    );
+  }
+  return (
+    <RevisionView
+      revisionId={revisionId}
+      user={user}
+      links={{ sheet: sheetHref, print: printHref, compare: compareHref }}
+      sealAction={(rev) => (
+        <SealDialog
+          key={rev.id}
+          revisionId={rev.id}
+          revisionNumber={rev.number}
+          canSeal={rev.myRoles.includes('principal')}
+        />
+      )}
+    />
+  );
+}

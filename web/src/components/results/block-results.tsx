@@ -1,0 +1,149 @@
+// Read-only renderings of one block's frozen results (a revision, a comparison, a print). The
+// editor has its own live renderers inside its feature; these stay small and print-friendly.
+import type {
+  BlockResult,
+  CalcBlockResult,
+  CriteriaBlockResult,
+  MatrixBlockResult,
+  ModesBlockResult,
+} from '../../../../core/index';
+import { Tex } from './tex';
+
+export type { BlockResult, SheetResults } from '../../../../core/index';
+
+const squash = (tex: string) => tex.replace(/\\[,;:!]|\s|[{}]/g, '');
+
+/** formula = substitution = result, leaving out a step that only repeats the one before. */
+function handParts(latex: CalcBlockResult['lines'][number]['latex']): string[] {
+  const parts = [latex.formula];
+  let last = latex.formula.includes('=')
+    ? latex.formula.slice(latex.formula.lastIndexOf('=') + 1)
+    : latex.formula;
+  if (latex.substituted && squash(latex.substituted) !== squash(last)) {
+    parts.push(latex.substituted);
+    last = latex.substituted;
+  }
+  if (squash(latex.result) !== squash(last)) parts.push(latex.result);
+  return parts;
+}
+
+function CalcLines({ result }: { result: CalcBlockResult }) {
+  if (result.lines.length === 0) return null;
+  return (
+    <ol className="divide-y divide-rule/60" aria-label="Calculation results">
+      {result.lines.map((line) => (
+        <li key={line.line} className="flex items-baseline justify-between gap-4 py-1">
+          <span className="min-w-0 overflow-x-auto">
+            <span className="mr-2 font-mono text-xs text-ink-faint">{line.line}</span>
+            <Tex tex={handParts(line.latex).join(' = ')} />
+            <span className="sr-only"> result {line.display}</span>
+          </span>
+          {line.comment ? (
+            <span className="shrink-0 text-xs text-ink-faint">{line.comment}</span>
+          ) : null}
+        </li>
+      ))}
+    </ol>
+  );
+}
+
+function Criteria({ result }: { result: CriteriaBlockResult }) {
+  return (
+    <ul className="flex flex-col gap-1" aria-label="Criteria">
+      {result.criteria.map((c) => (
+        <li key={c.line} className="flex items-baseline gap-3 text-sm">
+          <span
+            className={`inline-block w-14 shrink-0 rounded-sm border px-1 text-center text-xs font-semibold ${
+              c.pass ? 'border-pass bg-pass-soft text-pass' : 'border-fail bg-fail-soft text-fail'
+            }`}
+          >
+            {c.pass ? 'Passes' : 'Fails'}
+          </span>
+          <span>{c.label}</span>
+          {c.lhs !== null && c.rhs !== null ? (
+            <span className="font-mono text-xs text-ink-soft">
+              {c.lhs} vs {c.rhs}
+            </span>
+          ) : null}
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+function Matrix({ result }: { result: MatrixBlockResult }) {
+  return (
+    <p className="text-sm text-ink-soft">
+      {result.name ?? 'Matrix'}: {result.rows} × {result.cols}
+      {result.unit ? ` in ${result.unit}` : ''},{' '}
+      {result.origin === 'upload' ? 'from a file' : 'typed'},{' '}
+      {result.symmetric ? 'symmetric' : 'not symmetric'}
+      {result.asymmetry
+        ? ` (worst at row ${result.asymmetry.row}, column ${result.asymmetry.col}, relative ${result.asymmetry.relative.toExponential(2)})`
+        : ''}
+    </p>
+  );
+}
+
+const fmt = (x: number | null, digits = 4) =>
+  x === null || !Number.isFinite(x) ? '—' : Number(x.toPrecision(digits)).toString();
+
+function Modes({ result }: { result: ModesBlockResult }) {
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full border-collapse text-sm" aria-label={`Modes ${result.name ?? ''}`}>
+        <thead>
+          <tr className="border-b border-rule text-left text-xs text-ink-soft">
+            <th className="py-1 pr-3">Mode</th>
+            <th className="py-1 pr-3">f (Hz)</th>
+            <th className="py-1 pr-3">T (s)</th>
+            <th className="py-1 pr-3">Mass ratio</th>
+            <th className="py-1 pr-3">Cumulative</th>
+          </tr>
+        </thead>
+        <tbody>
+          {result.modes.map((m) => (
+            <tr key={m.mode} className="border-b border-rule/60 font-mono text-xs">
+              <td className="py-1 pr-3">{m.mode}</td>
+              <td className="py-1 pr-3">{fmt(m.frequency)}</td>
+              <td className="py-1 pr-3">{fmt(m.period)}</td>
+              <td className="py-1 pr-3">{fmt(m.ratio, 3)}</td>
+              <td className="py-1 pr-3">{fmt(m.cumulative, 3)}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      {result.methodUsed ? (
+        <p className="mt-1 text-xs text-ink-faint">
+          Method: {result.methodUsed}
+          {result.size !== null ? `, ${result.size} degrees of freedom` : ''}
+          {result.sturm
+            ? `; Sturm count ${result.sturm.count} below the shift, ${result.sturm.found} found${result.sturm.missed ? ' — modes missed' : ''}`
+            : ''}
+        </p>
+      ) : null}
+      {result.warnings.map((w) => (
+        <p key={w} className="text-xs text-fail">
+          {w}
+        </p>
+      ))}
+    </div>
+  );
+}
+
+/** The frozen results of one block; nothing for a text block. */
+export function BlockResultView({ result }: { result: BlockResult | undefined }) {
+  if (!result) return null;
+  switch (result.kind) {
+    case 'calc':
+      return <CalcLines result={result} />;
+    case 'criteria':
+      return <Criteria result={result} />;
+    case 'matrix':
+      return <Matrix result={result} />;
+    case 'modes':
+      return <Modes result={result} />;
+    default:
+      return null;
+  }
+}

@@ -1,0 +1,51 @@
+// Issue for check (author), return and sign off (checker). Each changes the revision, the sheet's
+// revision list, the sheet's status and its history.
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client';
+import type { RevisionSummary } from './types';
+
+export async function issueRevision(sheetId: number, purpose: string): Promise<RevisionSummary> {
+  return (
+    await api.post<{ revision: RevisionSummary }>(`/api/sheets/${sheetId}/revisions`, { purpose })
+  ).revision;
+}
+
+export async function returnRevision(revisionId: number): Promise<RevisionSummary> {
+  return (await api.post<{ revision: RevisionSummary }>(`/api/revisions/${revisionId}/return`, {}))
+    .revision;
+}
+
+export async function signOffRevision(revisionId: number): Promise<RevisionSummary> {
+  return (
+    await api.post<{ revision: RevisionSummary }>(`/api/revisions/${revisionId}/sign-off`, {})
+  ).revision;
+}
+
+function useRefresh() {
+  const queryClient = useQueryClient();
+  return (revision: RevisionSummary) =>
+    Promise.all([
+      queryClient.invalidateQueries({ queryKey: ['revisions'] }),
+      queryClient.invalidateQueries({ queryKey: ['sheets', 'list'] }),
+      queryClient.invalidateQueries({ queryKey: ['sheets', 'review', revision.sheetId] }),
+      queryClient.invalidateQueries({ queryKey: ['sheets', 'activity', revision.sheetId] }),
+    ]);
+}
+
+export function useIssueRevision(sheetId: number) {
+  const refresh = useRefresh();
+  return useMutation({
+    mutationFn: (purpose: string) => issueRevision(sheetId, purpose),
+    onSuccess: refresh,
+  });
+}
+
+export function useReturnRevision(revisionId: number) {
+  const refresh = useRefresh();
+  return useMutation({ mutationFn: () => returnRevision(revisionId), onSuccess: refresh });
+}
+
+export function useSignOffRevision(revisionId: number) {
+  const refresh = useRefresh();
+  return useMutation({ mutationFn: () => signOffRevision(revisionId), onSuccess: refresh });
+}

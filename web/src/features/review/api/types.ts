@@ -1,0 +1,90 @@
+// The shapes the review routes send (api/modules/revisions, remarks, seals).
+import type { SheetResults } from '../../../components/results';
+
+export type PersonRef = { id: number; name: string };
+export type RevisionStatus = 'in_check' | 'returned' | 'checked' | 'sealed' | 'superseded';
+
+export type RevisionSummary = {
+  id: number;
+  sheetId: number;
+  number: number;
+  status: RevisionStatus;
+  purpose: string;
+  issuedBy: PersonRef;
+  issuedAt: string;
+  returnedBy: PersonRef | null;
+  returnedAt: string | null;
+  checkedBy: PersonRef | null;
+  checkedAt: string | null;
+  sealedBy: PersonRef | null;
+  sealedAt: string | null;
+  supersededAt: string | null;
+  sealCode: string | null;
+};
+
+export type SealView = {
+  code: string;
+  digest: string;
+  signature: string;
+  publicKey: string;
+  principal: { id: number; name: string; licenceNumber: string; jurisdiction: string };
+  sealedAt: string;
+  engineVersion: string;
+};
+
+export type RevisionBlock = {
+  id: string;
+  kind: 'text' | 'calc' | 'matrix' | 'modes' | 'criteria';
+  source: string;
+};
+
+export type RevisionDetail = RevisionSummary & {
+  blocks: RevisionBlock[];
+  canonicalText: string;
+  results: SheetResults;
+  digests: { canonicalText: string; results: string };
+  engineVersion: string;
+  seal: SealView | null;
+  sheet: { id: number; number: string; title: string; projectId: number };
+  myRoles: string[];
+};
+
+export type RemarkType = 'error' | 'query' | 'editorial';
+export type RemarkState = 'open' | 'answered' | 'closed';
+
+export type Remark = {
+  id: number;
+  revisionId: number;
+  blockId: string;
+  line: number;
+  type: RemarkType;
+  text: string;
+  state: RemarkState;
+  carriedFrom: { remarkId: number; revisionNumber: number; line: number } | null;
+  lineChanged: boolean;
+  author: PersonRef;
+  createdAt: string;
+  closedBy: PersonRef | null;
+  closedAt: string | null;
+  replies: { id: number; text: string; author: PersonRef; createdAt: string }[];
+};
+
+export const REVISION_STATUS_LABELS: Record<RevisionStatus, string> = {
+  in_check: 'In check',
+  returned: 'Returned',
+  checked: 'Checked',
+  sealed: 'Sealed',
+  superseded: 'Superseded',
+};
+
+export const REMARK_TYPE_LABELS: Record<RemarkType, string> = {
+  error: 'Error',
+  query: 'Query',
+  editorial: 'Editorial',
+};
+
+export const REMARK_STATE_LABELS: Record<RemarkState, string> = {
+  open: 'Open',
+  answered: 'Answered',
+  closed: 'Closed',
+};

@@ -1,0 +1,130 @@
+import { useId, useState, type FormEvent } from 'react';
+import { Button } from '../../../components/ui/button';
+import { Alert } from '../../../components/ui/alert';
+import { formatUtc } from '../../../lib/format';
+import { useReplyToRemark, useSetRemarkState } from '../api/remark-mutations';
+import { REMARK_STATE_LABELS, REMARK_TYPE_LABELS, type Remark } from '../api/types';
+
+const stateTone: Record<Remark['state'], string> = {
+  open: 'border-fail text-fail',
+  answered: 'border-accent text-accent-strong',
+  closed: 'border-pass text-pass',
+};
+
+/** One remark with its thread; the author answers, the checker closes or reopens. */
+export function RemarkCard({
+  remark,
+  where,
+  canReply,
+  canClose,
+  onShow,
+}: {
+  remark: Remark;
+  where: string;
+  canReply: boolean;
+  canClose: boolean;
+  onShow?: () => void;
+}) {
+  const id = useId();
+  const [reply, setReply] = useState('');
+  const replyMutation = useReplyToRemark(remark.revisionId);
+  const stateMutation = useSetRemarkState(remark.revisionId);
+
+  function submit(event: FormEvent) {
+    event.preventDefault();
+    replyMutation.mutate({ remarkId: remark.id, text: reply }, { onSuccess: () => setReply('') });
+  }
+
+  return (
+    <article
+      aria-label={`Remark: ${remark.text.slice(0, 60)}`}
+      className="flex flex-col gap-2 rounded-sm border border-rule bg-paper-sheet p-3 text-sm"
+      data-remark-id={remark.id}
+    >
+      <header className="flex flex-wrap items-center gap-2">
+        <span className="rounded-sm border border-rule-strong px-1.5 text-xs font-medium">
+          {REMARK_TYPE_LABELS[remark.type]}
+        </span>
+        <span
+          className={`rounded-sm border px-1.5 text-xs font-semibold ${stateTone[remark.state]}`}
+        >
+          {REMARK_STATE_LABELS[remark.state]}
+        </span>
+        {onShow ? (
+          <button
+            type="button"
+            onClick={onShow}
+            className="text-xs text-accent-strong underline underline-offset-2"
+          >
+            {where}
+          </button>
+        ) : (
+          <span className="text-xs text-ink-soft">{where}</span>
+        )}
+      </header>
+      {remark.carriedFrom ? (
+        <p className="text-xs text-ink-soft">
+          Carried from Rev {remark.carriedFrom.revisionNumber}, line {remark.carriedFrom.line}
+        </p>
+      ) : null}
+      {remark.lineChanged ? (
+        <p className="rounded-sm bg-fail-soft px-1.5 py-0.5 text-xs font-semibold text-fail">
+          Line changed — the line this remark was on was edited; look again.
+        </p>
+      ) : null}
+      <p className="whitespace-pre-wrap text-ink">{remark.text}</p>
+      <p className="text-xs text-ink-faint">
+        {remark.author.name}, {formatUtc(remark.createdAt)}
+      </p>
+      {remark.replies.length > 0 ? (
+        <ol aria-label="Replies" className="flex flex-col gap-1 border-l-2 border-rule pl-3">
+          {remark.replies.map((r) => (
+            <li key={r.id}>
+              <p className="whitespace-pre-wrap">{r.text}</p>
+              <p className="text-xs text-ink-faint">
+                {r.author.name}, {formatUtc(r.createdAt)}
+              </p>
+            </li>
+          ))}
+        </ol>
+      ) : null}
+      {canReply && remark.state !== 'closed' ? (
+        <form onSubmit={submit} className="flex flex-col gap-1">
+          <label htmlFor={`${id}-reply`} className="text-xs font-medium text-ink">
+            Reply
+          </label>
+          <textarea
+            id={`${id}-reply`}
+            value={reply}
+            onChange={(e) => setReply(e.target.value)}
+            rows={2}
+            className="rounded-sm border border-rule-strong bg-paper-sheet px-2 py-1 text-sm"
+          />
+          <div>
+            <Button type="submit" variant="secondary" busy={replyMutation.isPending}>
+              Send reply
+            </Button>
+          </div>
+          {replyMutation.error ? <Alert>{replyMutation.error.message}</Alert> : null}
+        </form>
+      ) : null}
+      {canClose ? (
+        <div>
+          <Button
+            variant={remark.state === 'closed' ? 'secondary' : 'primary'}
+            busy={stateMutation.isPending}
+            onClick={() =>
+              stateMutation.mutate({
+                remarkId: remark.id,
+                state: remark.state === 'closed' ? 'open' : 'closed',
+              })
+            }
+          >
+            {remark.state === 'closed' ? 'Reopen remark' : 'Close remark'}
+          </Button>
+          {stateMutation.error ? <Alert>{stateMutation.error.message}</Alert> : null}
+        </div>
+      ) : null}
+    </article>
+  );
+}

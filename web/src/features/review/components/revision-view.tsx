@@ -1,0 +1,456 @@
+import { useId, useMemo, useState, type ReactNode } from 'react';
+import { Link } from 'react-router-dom';
+import { BlockResultView } from '../../../components/results';
+import { Alert, QueryError } from '../../../components/ui/alert';
+import { Button } from '../../../components/ui/button';
+import { EmptyState } from '../../../components/ui/empty-state';
+import { Spinner } from '../../../components/ui/spinner';
+import { formatUtc } from '../../../lib/format';
+import type { User } from '../../../types/api';
+import { useRemarks } from '../api/get-remarks';
+import { useRevision } from '../api/get-revision';
+import { useRevisions } from '../api/get-revisions';
+import { useReturnRevision, useSignOffRevision } from '../api/revision-mutations';
+import {
+  REMARK_STATE_LABELS,
+  REMARK_TYPE_LABELS,
+  REVISION_STATUS_LABELS,
+  type Remark,
+  type RemarkState,
+  type RemarkType,
+  type RevisionDetail,
+} from '../api/types';
+import { RemarkCard } from './remark-card';
+import { RemarkForm } from './remark-form';
+
+export type RevisionLinks = {
+  sheet: (projectId: number, sheetId: number) => string;
+  print: (revisionId: number) => string;
+  compare: (sheetId: number, from: number, to: number | 'draft') => string;
+};
+
+const blockLabel = (index: number, kind: string) => `Block ${index + 1} (${kind})`;
+
+/**
+ * A revision, read-only: its blocks with line numbers and frozen results, remarks in the gutter
+ * and in a side list. A checker clicks a line number to remark on it; the author answers; the
+ * checker closes, returns or signs off. `sealAction` is the principal's seal control (its own
+ * feature), composed by the route.
+ */
+export function RevisionView({
+  revisionId,
+  user,
+  links,
+  sealAction,
+}: {
+  revisionId: number;
+  user: User;
+  links: RevisionLinks;
+  sealAction?: (revision: RevisionDetail) => ReactNode;
+}) {
+  const revision = useRevision(revisionId);
+  const remarks = useRemarks(revisionId);
+
+  if (revision.isPending) return <Spinner label="Loading the revision…" />;
+  if (revision.isError) {
+    return (
+      <QueryError what="the revision" error={revision.error} onRetry={() => revision.refetch()} />
+    );
+  }
+  const rev = revision.data;
+  const roles = rev.myRoles;
+  const isChecker = roles.includes('checker') && rev.issuedBy.id !== user.id;
+  const inCheck = rev.status === 'in_check';
+
+  return (
+    <div className="flex flex-col gap-4">
+      <nav aria-label="Breadcrumb" className="flex gap-4 text-sm">
+        <Link
+          to={links.sheet(rev.sheet.projectId, rev.sheet.id)}
+          className="text-accent-strong hover:underline"
+        >
+          ← Sheet {rev.sheet.number}
+        </Link>
+        <Link to={links.print(rev.id)} className="text-accent-strong hover:underline">
+          Print
+        </Link>
+        {rev.number > 1 ? (
+          <CompareLink rev={rev} links={links} />
+        ) : (
+          <Link
+            to={links.compare(rev.sheetId, rev.id, 'draft')}
+            className="text-accent-strong hover:underline"
+          >
+            Compare with the draft
+          </Link>
+        )}
+      </nav>
+      <RevisionHeader rev={rev} />
+      <ReviewActions
+        rev={rev}
+        isChecker={isChecker}
+        remarks={remarks.data ?? []}
+        sealAction={sealAction}
+      />
+      {remarks.isError ? (
+        <QueryError what="the remarks" error={remarks.error} onRetry={() => remarks.refetch()} />
+      ) : null}
+      <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_22rem]">
+        <Blocks rev={rev} remarks={remarks.data ?? []} canRemark={isChecker && inCheck} />
+        <RemarkList
+          rev={rev}
+          remarks={remarks.data ?? []}
+          loading={remarks.isPending}
+          canReply={inCheck && (roles.includes('author') || roles.includes('checker'))}
+          canClose={isChecker && inCheck}
+        />
+      </div>
+    </div>
+  );
+}
+
+function CompareLink({ rev, links }: { rev: RevisionDetail; links: RevisionLinks }) {
+  const revisions = useRevisions(rev.sheetId);
+  const previous = revisions.data?.find((r) => r.number === rev.number - 1);
+  if (!previous) return null;
+  return (
+    <Link
+      to={links.compare(rev.sheetId, previous.id, rev.id)}
+      className="text-accent-strong hover:underline"
+    >
+      Compare with Rev {previous.number}
+    </Link>
+  );
+}
+
+function RevisionHeader({ rev }: { rev: RevisionDetail }) {
+  return (
+    <header className="rounded-sm border border-rule bg-paper-sheet px-5 py-4 shadow-sheet">
+      <p className="text-xs tracking-wide text-ink-soft uppercase">
+        Sheet {rev.sheet.number} — revision, read-only
+      </p>
+      <h1 className="text-xl font-semibold text-ink">
+        {rev.sheet.title}: Rev {rev.number}
+      </h1>
+      <dl className="mt-2 grid gap-x-6 gap-y-1 text-sm sm:grid-cols-2">
+        <div className="flex gap-2">
+          <dt className="text-ink-soft">Status</dt>
+          <dd className="font-medium" data-testid="revision-status">
+            {REVISION_STATUS_LABELS[rev.status]}
+          </dd>
+        </div>
+        <div className="flex gap-2">
+          <dt className="text-ink-soft">Purpose</dt>
+          <dd>{rev.purpose}</dd>
+        </div>
+        <div className="flex gap-2">
+          <dt className="text-ink-soft">Prepared</dt>
+          <dd>
+            {rev.issuedBy.name}, {formatUtc(rev.issuedAt)}
+          </dd>
+        </div>
+        {rev.returnedBy && rev.returnedAt ? (
+          <div className="flex gap-2">
+            <dt className="text-ink-soft">Returned</dt>
+            <dd>
+              {rev.returnedBy.name}, {formatUtc(rev.returnedAt)}
+            </dd>
+          </div>
+        ) : null}
+        {rev.checkedBy && rev.checkedAt ? (
+          <div className="flex gap-2">
+            <dt className="text-ink-soft">Checked</dt>
+            <dd>
+              {rev.checkedBy.name}, {formatUtc(rev.checkedAt)}
+            </dd>
+          </div>
+        ) : null}
+        {rev.seal ? (
+          <div className="flex gap-2">
+            <dt className="text-ink-soft">Sealed</dt>
+            <dd>
+              {rev.seal.principal.name} ({rev.seal.principal.licenceNumber}),{' '}
+              {formatUtc(rev.seal.sealedAt)}, code{' '}
+              <span className="font-mono">{rev.seal.code}</span>
+            </dd>
+          </div>
+        ) : null}
+        <div className="flex gap-2 sm:col-span-2">
+          <dt className="text-ink-soft">Digest</dt>
+          <dd className="truncate font-mono text-xs leading-5">{rev.digests.canonicalText}</dd>
+        </div>
+      </dl>
+    </header>
+  );
+}
+
+function ReviewActions({
+  rev,
+  isChecker,
+  remarks,
+  sealAction,
+}: {
+  rev: RevisionDetail;
+  isChecker: boolean;
+  remarks: Remark[];
+  sealAction: ((revision: RevisionDetail) => ReactNode) | undefined;
+}) {
+  const returnMutation = useReturnRevision(rev.id);
+  const signOff = useSignOffRevision(rev.id);
+  const unclosed = remarks.filter((r) => r.state !== 'closed').length;
+  const error = returnMutation.error ?? signOff.error;
+  const seal = sealAction && rev.status === 'checked' ? sealAction(rev) : null;
+  if (!(isChecker && rev.status === 'in_check') && !seal) return null;
+
+  return (
+    <section
+      aria-label="Review actions"
+      className="flex flex-col gap-2 rounded-sm border border-rule bg-paper-sheet px-5 py-3"
+    >
+      {isChecker && rev.status === 'in_check' ? (
+        <>
+          <p className="text-sm text-ink-soft">
+            {unclosed === 0
+              ? 'Every remark is closed: the revision can be signed off.'
+              : `${unclosed} remark(s) not closed: sign off needs every remark closed; return the revision for the author to act on them.`}
+          </p>
+          <div className="flex gap-2">
+            <Button
+              variant="secondary"
+              busy={returnMutation.isPending}
+              onClick={() => {
+                signOff.reset();
+                returnMutation.mutate();
+              }}
+            >
+              Return to author
+            </Button>
+            <Button
+              busy={signOff.isPending}
+              onClick={() => {
+                returnMutation.reset();
+                signOff.mutate();
+              }}
+            >
+              Sign off
+            </Button>
+          </div>
+        </>
+      ) : null}
+      {error ? <Alert title="Refused.">{error.message}</Alert> : null}
+      {seal}
+    </section>
+  );
+}
+
+function Blocks({
+  rev,
+  remarks,
+  canRemark,
+}: {
+  rev: RevisionDetail;
+  remarks: Remark[];
+  canRemark: boolean;
+}) {
+  const [open, setOpen] = useState<{ blockId: string; line: number } | null>(null);
+  const byLine = useMemo(() => {
+    const m = new Map<string, Remark[]>();
+    for (const r of remarks) {
+      const key = `${r.blockId}:${r.line}`;
+      m.set(key, [...(m.get(key) ?? []), r]);
+    }
+    return m;
+  }, [remarks]);
+
+  if (rev.blocks.length === 0) return <EmptyState title="This revision has no blocks" />;
+  return (
+    <div className="flex flex-col gap-3" aria-label="Blocks of the revision">
+      {canRemark ? (
+        <p className="text-sm text-ink-soft">Click a line number to add a remark on that line.</p>
+      ) : null}
+      {rev.blocks.map((block, index) => {
+        const label = blockLabel(index, block.kind);
+        const lines = block.source.split('\n');
+        const result = rev.results.blocks.find((b) => b.blockId === block.id);
+        const whole = byLine.get(`${block.id}:0`) ?? [];
+        return (
+          <section
+            key={block.id}
+            id={`block-${block.id}`}
+            aria-label={label}
+            className="rounded-sm border border-rule bg-paper-sheet shadow-sheet"
+          >
+            <header className="flex items-center justify-between border-b border-rule px-3 py-1.5 text-xs text-ink-soft">
+              <span>{label}</span>
+              {canRemark ? (
+                <button
+                  type="button"
+                  className="text-accent-strong underline underline-offset-2"
+                  onClick={() => setOpen({ blockId: block.id, line: 0 })}
+                >
+                  Remark on the block
+                </button>
+              ) : null}
+              {whole.length > 0 ? <span>{whole.length} remark(s) on the block</span> : null}
+            </header>
+            {open && open.blockId === block.id && open.line === 0 ? (
+              <div className="px-3">
+                <RemarkForm
+                  revisionId={rev.id}
+                  blockId={block.id}
+                  blockLabel={label}
+                  line={0}
+                  onDone={() => setOpen(null)}
+                />
+              </div>
+            ) : null}
+            <ol className="font-mono text-sm" aria-label={`Source of ${label}`}>
+              {lines.map((text, i) => {
+                const line = i + 1;
+                const here = byLine.get(`${block.id}:${line}`) ?? [];
+                const unclosed = here.filter((r) => r.state !== 'closed').length;
+                return (
+                  <li key={line} id={`line-${block.id}-${line}`} data-line={line}>
+                    <div
+                      className={`flex ${here.length > 0 ? (unclosed > 0 ? 'bg-fail-soft/50' : 'bg-pass-soft/40') : ''}`}
+                    >
+                      <span className="flex w-16 shrink-0 items-start justify-end gap-1 border-r border-rule pr-2 text-xs leading-6 text-ink-faint select-none">
+                        {here.length > 0 ? (
+                          <span
+                            title={`${here.length} remark(s), ${unclosed} not closed`}
+                            aria-label={`${here.length} remark(s) on line ${line}`}
+                            className={`inline-block rounded-full px-1 text-[10px] font-bold text-paper-sheet ${unclosed > 0 ? 'bg-fail' : 'bg-pass'}`}
+                          >
+                            {here.length}
+                          </span>
+                        ) : null}
+                        {canRemark ? (
+                          <button
+                            type="button"
+                            aria-label={`Remark on line ${line} of ${label}`}
+                            className="hover:text-accent-strong hover:underline"
+                            onClick={() => setOpen({ blockId: block.id, line })}
+                          >
+                            {line}
+                          </button>
+                        ) : (
+                          <span>{line}</span>
+                        )}
+                      </span>
+                      <span className="min-w-0 flex-1 px-3 leading-6 break-all whitespace-pre-wrap">
+                        {text || ' '}
+                      </span>
+                    </div>
+                    {open && open.blockId === block.id && open.line === line ? (
+                      <div className="px-3">
+                        <RemarkForm
+                          revisionId={rev.id}
+                          blockId={block.id}
+                          blockLabel={label}
+                          line={line}
+                          onDone={() => setOpen(null)}
+                        />
+                      </div>
+                    ) : null}
+                  </li>
+                );
+              })}
+            </ol>
+            {result && result.kind !== 'text' ? (
+              <div className="border-t border-rule px-3 py-2">
+                <BlockResultView result={result} />
+              </div>
+            ) : null}
+          </section>
+        );
+      })}
+    </div>
+  );
+}
+
+function RemarkList({
+  rev,
+  remarks,
+  loading,
+  canReply,
+  canClose,
+}: {
+  rev: RevisionDetail;
+  remarks: Remark[];
+  loading: boolean;
+  canReply: boolean;
+  canClose: boolean;
+}) {
+  const id = useId();
+  const [state, setState] = useState<RemarkState | ''>('');
+  const [type, setType] = useState<RemarkType | ''>('');
+  const shown = remarks.filter((r) => (!state || r.state === state) && (!type || r.type === type));
+  const indexOf = (blockId: string) => rev.blocks.findIndex((b) => b.id === blockId);
+
+  return (
+    <aside aria-label="Remarks" className="flex flex-col gap-3">
+      <h2 className="text-base font-semibold text-ink">Remarks ({remarks.length})</h2>
+      <div className="flex gap-3">
+        <div className="flex flex-col gap-1">
+          <label htmlFor={`${id}-state`} className="text-xs font-medium">
+            State
+          </label>
+          <select
+            id={`${id}-state`}
+            value={state}
+            onChange={(e) => setState(e.target.value as RemarkState | '')}
+            className="rounded-sm border border-rule-strong bg-paper-sheet px-2 py-1 text-sm"
+          >
+            <option value="">Any</option>
+            {(Object.keys(REMARK_STATE_LABELS) as RemarkState[]).map((s) => (
+              <option key={s} value={s}>
+                {REMARK_STATE_LABELS[s]}
+              </option>
+            ))}
+          </select>
+        </div>
+        <div className="flex flex-col gap-1">
+          <label htmlFor={`${id}-type`} className="text-xs font-medium">
+            Type
+          </label>
+          <select
+            id={`${id}-type`}
+            value={type}
+            onChange={(e) => setType(e.target.value as RemarkType | '')}
+            className="rounded-sm border border-rule-strong bg-paper-sheet px-2 py-1 text-sm"
+          >
+            <option value="">Any</option>
+            {(Object.keys(REMARK_TYPE_LABELS) as RemarkType[]).map((t) => (
+              <option key={t} value={t}>
+                {REMARK_TYPE_LABELS[t]}
+              </option>
+            ))}
+          </select>
+        </div>
+      </div>
+      {loading ? <Spinner label="Loading remarks…" /> : null}
+      {!loading && shown.length === 0 ? (
+        <EmptyState title={remarks.length === 0 ? 'No remarks on this revision' : 'None match'} />
+      ) : null}
+      {shown.map((r) => {
+        const index = indexOf(r.blockId);
+        const label = index >= 0 ? blockLabel(index, rev.blocks[index]?.kind ?? '') : r.blockId;
+        const where = r.line === 0 ? `${label}, whole block` : `${label}, line ${r.line}`;
+        return (
+          <RemarkCard
+            key={r.id}
+            remark={r}
+            where={where}
+            canReply={canReply}
+            canClose={canClose}
+            onShow={() =>
+              document
+                .getElementById(r.line === 0 ? `block-${r.blockId}` : `line-${r.blockId}-${r.line}`)
+                ?.scrollIntoView({ block: 'center' })
+            }
+          />
+        );
+      })}
+    </aside>
+  );
+}
