@@ -15,6 +15,11 @@ import { EngineError } from '../errors';
 import { toDense } from '../linalg/factorize';
 import type { SymmetricMatrix } from '../linalg/types';
 import { eulerBernoulliBeam, type BeamEnd } from '../models/euler-bernoulli-beam';
+import {
+  buildPlaneFrame,
+  type PlaneFrameMember,
+  type PlaneFrameSupport,
+} from '../models/plane-frame';
 import { storeyChain } from '../models/storey-chain';
 import type { ModelMatrices } from '../models/types';
 import { getMatrixEntryLimit, registerSheetFunctions, sheetMath } from './math';
@@ -147,4 +152,171 @@ export function sheetBeam(props: unknown): Record<string, unknown> {
   return modelObject(model);
 }
 
-registerSheetFunctions({ storey_chain: sheetStoreyChain, beam: sheetBeam });
+const FRAME_KEYS = [
+  'nodes',
+  'members',
+  'E',
+  'A',
+  'I',
+  'mass',
+  'fixed',
+  'pinned',
+  'masses',
+  'mass_nodes',
+];
+
+function rowsOf(v: unknown, what: string, fn: string): unknown[][] {
+  const { math } = sheetMath();
+  const a = math.isMatrix(v) ? ((v as Matrix).toArray() as unknown[]) : Array.isArray(v) ? v : null;
+  if (!a || !a.every((r) => Array.isArray(r))) {
+    throw new EngineError(
+      'SHEET_EVAL',
+      `${fn}: ${what} must be a matrix with one row per item, such as [1, 2; 2, 3].`,
+    );
+  }
+  return a as unknown[][];
+}
+
+function nodeNumbers(v: unknown, what: string, count: number, fn: string): number[] {
+  if (v === undefined) return [];
+  return asList(v, what, fn).map((x, i) => {
+    if (typeof x !== 'number' || !Number.isInteger(x) || x < 1 || x > count) {
+      throw new EngineError(
+        'SHEET_EVAL',
+        `${fn}: ${what} entry ${i + 1} must be a node number from 1 to ${count}.`,
+      );
+    }
+    return x - 1;
+  });
+}
+
+/** A property given once for every member, or once per member. */
+function perMember(
+  v: unknown,
+  count: number,
+  unit: string,
+  kind: string,
+  key: string,
+  fn: string,
+): number[] {
+  const { math } = sheetMath();
+  if (math.isMatrix(v) || Array.isArray(v)) {
+    const list = asList(v, key, fn);
+    if (list.length !== count) {
+      throw new EngineError(
+        'SHEET_EVAL',
+        `${fn}: ${key} has ${list.length} entries but there are ${count} members.`,
+      );
+    }
+    return list.map((x, i) => quantityIn(x, unit, kind, `${key} of member ${i + 1}`, fn));
+  }
+  const one = quantityIn(v, unit, kind, key, fn);
+  return new Array<number>(count).fill(one);
+}
+
+/**
+ * `plane_frame({nodes: [x, y; …], members: [i, j; …], E, A, I, mass, fixed: [..], pinned: [..],
+ * masses: [..], mass_nodes: [..]})`: node numbers are 1-based; E, A, I and mass are one value for
+ * all members or a list with one per member; `fixed` nodes lose ux, uy, rz, `pinned` nodes ux, uy.
+ */
+export function sheetPlaneFrame(props: unknown): Record<string, unknown> {
+  const fn = 'plane_frame';
+  if (
+    props === null ||
+    typeof props !== 'object' ||
+    Object.getPrototypeOf(props) !== Object.prototype
+  ) {
+    throw new EngineError(
+      'SHEET_EVAL',
+      'plane_frame: give the frame as an object: plane_frame({nodes: [0 m, 0 m; 0 m, 3.5 m], members: [1, 2], E: 210 GPa, A: 5.4e-3 m^2, I: 8.4e-5 m^4, mass: 42 kg/m, fixed: [1]}).',
+    );
+  }
+  const p = props as Record<string, unknown>;
+  for (const key of Object.keys(p)) {
+    if (!FRAME_KEYS.includes(key)) {
+      throw new EngineError(
+        'SHEET_EVAL',
+        `plane_frame: unknown property "${key}"; the properties are ${FRAME_KEYS.join(', ')}.`,
+      );
+    }
+  }
+  for (const key of ['nodes', 'members', 'E', 'A', 'I', 'mass']) {
+    if (!(key in p))
+      throw new EngineError('SHEET_EVAL', `plane_frame: the property "${key}" is missing.`);
+  }
+  const nodes = rowsOf(p.nodes, 'nodes', fn).map((r, i) => {
+    if (r.length !== 2)
+      throw new EngineError('SHEET_EVAL', `plane_frame: node ${i + 1} needs x and y.`);
+    return {
+      x: quantityIn(r[0], 'm', 'a length', `x of node ${i + 1}`, fn),
+      y: quantityIn(r[1], 'm', 'a length', `y of node ${i + 1}`, fn),
+    };
+  });
+  const pairs = rowsOf(math2d(p.members), 'members', fn);
+  const count = pairs.length;
+  const E = perMember(p.E, count, 'Pa', 'a modulus', 'E', fn);
+  const A = perMember(p.A, count, 'm^2', 'an area', 'A', fn);
+  const I = perMember(p.I, count, 'm^4', 'a second moment of area', 'I', fn);
+  const mu = perMember(p.mass, count, 'kg/m', 'a mass per length', 'mass', fn);
+  const members: PlaneFrameMember[] = pairs.map((r, i) => {
+    const [a, b] = nodeNumbers(r, `member ${i + 1}`, nodes.length, fn);
+    if (r.length !== 2 || a === undefined || b === undefined) {
+      throw new EngineError('SHEET_EVAL', `plane_frame: member ${i + 1} needs two node numbers.`);
+    }
+    return { from: a, to: b, E: E[i]!, A: A[i]!, I: I[i]!, massPerLength: mu[i]! };
+  });
+  const supports: PlaneFrameSupport[] = [
+    ...nodeNumbers(p.fixed, 'fixed', nodes.length, fn).map((node) => ({
+      node,
+      ux: true,
+      uy: true,
+      rz: true,
+    })),
+    ...nodeNumbers(p.pinned, 'pinned', nodes.length, fn).map((node) => ({
+      node,
+      ux: true,
+      uy: true,
+    })),
+  ];
+  const massNodes = nodeNumbers(p.mass_nodes, 'mass_nodes', nodes.length, fn);
+  const masses =
+    p.masses === undefined
+      ? []
+      : asList(p.masses, 'masses', fn).map((x, i) =>
+          quantityIn(x, 'kg', 'a mass', `masses entry ${i + 1}`, fn),
+        );
+  if (masses.length !== massNodes.length) {
+    throw new EngineError(
+      'SHEET_EVAL',
+      `plane_frame: ${masses.length} masses but ${massNodes.length} mass_nodes; give one node per mass.`,
+    );
+  }
+  const model = buildPlaneFrame({
+    nodes,
+    members,
+    supports,
+    lumpedMasses: masses.map((mass, i) => ({ node: massNodes[i]!, mass })),
+  });
+  return modelObject({
+    K: model.K,
+    M: model.M,
+    dofs: [...model.dofLabels],
+    influence: [
+      { name: 'ux', vector: model.influence.ux },
+      { name: 'uy', vector: model.influence.uy },
+    ],
+  });
+}
+
+/** A single member `[1, 2]` is a vector: make it one row. */
+function math2d(v: unknown): unknown {
+  const { math } = sheetMath();
+  if (math.isMatrix(v) && (v as Matrix).size().length === 1) return [(v as Matrix).toArray()];
+  return v;
+}
+
+registerSheetFunctions({
+  storey_chain: sheetStoreyChain,
+  beam: sheetBeam,
+  plane_frame: sheetPlaneFrame,
+});
