@@ -83,7 +83,7 @@ describe('GET /api/sheets/:sheetId/compare', () => {
       expect.objectContaining({ blockId: 'crit', was: true, now: false }),
     ]);
     const f = res.body.results.find(
-      (r: { blockId: string; key: string }) =>
+      (r: { blockId: string; key: string; relativeChange: number | null }) =>
         r.blockId === 'calc' &&
         /f/.test(r.key) &&
         r.relativeChange !== null &&
