@@ -32,6 +32,8 @@ export interface EvaluationPoolOptions {
   maxQueue?: number;
   /** Largest matrix value a sheet may hold (entries); default the engine's 4 000 000. */
   maxMatrixEntries?: number;
+  /** Start one worker at once (default true); false starts workers on the first evaluation. */
+  warm?: boolean;
 }
 
 export interface RunOptions {
@@ -47,7 +49,7 @@ export interface EvaluationPool {
     queued: number;
     running: number;
     completed: number;
-    limits: Required<Omit<EvaluationPoolOptions, 'maxMatrixEntries'>>;
+    limits: { threads: number; timeLimitMs: number; memoryLimitMb: number; maxQueue: number };
   };
   close(): Promise<void>;
 }
@@ -59,7 +61,10 @@ function envNumber(name: string): number | undefined {
   return Number.isFinite(n) && n > 0 ? n : undefined;
 }
 
-/** Options from the environment: MW_EVAL_THREADS, MW_EVAL_TIME_LIMIT_MS, MW_EVAL_MEMORY_MB, MW_EVAL_MAX_QUEUE. */
+/**
+ * Options from the environment: MW_EVAL_THREADS, MW_EVAL_TIME_LIMIT_MS, MW_EVAL_MEMORY_MB,
+ * MW_EVAL_MAX_QUEUE, MW_EVAL_WARM (0 = start workers on first use).
+ */
 export function poolOptionsFromEnv(): EvaluationPoolOptions {
   const o: EvaluationPoolOptions = {};
   const threads = envNumber('MW_EVAL_THREADS');
@@ -70,6 +75,7 @@ export function poolOptionsFromEnv(): EvaluationPoolOptions {
   if (time) o.timeLimitMs = time;
   if (mem) o.memoryLimitMb = mem;
   if (queue) o.maxQueue = Math.floor(queue);
+  if (process.env.MW_EVAL_WARM === '0') o.warm = false;
   return o;
 }
 
@@ -83,7 +89,7 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
   const maxQueue = options.maxQueue ?? 16;
   const piscina = new Piscina({
     filename: WORKER_FILE,
-    minThreads: 1,
+    minThreads: options.warm === false ? 0 : 1,
     maxThreads: threads,
     maxQueue,
     // Keep idle workers: mathjs costs ~1.5 s to load in each new thread.
