@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { requireAdmin } from '../../http/auth';
 import type { AppContext } from '../../http/context';
 import { parse } from '../../http/validate';
-import { outboxRepository } from './outbox.repository';
+import { outboxService } from './outbox.service';
 
 const outboxQuery = z.object({
   sheetId: z.coerce.number().int().positive({ error: 'sheetId must be a sheet id.' }).optional(),
@@ -20,11 +20,7 @@ export function createOutboxRouter({ db }: AppContext): Router {
   const router = Router();
   router.get('/', requireAdmin, async (req, res) => {
     const q = parse(outboxQuery, req.query, 'query');
-    const messages = await outboxRepository.list(db, {
-      limit: q.limit ?? 200,
-      ...(q.sheetId === undefined ? {} : { relatedSheetId: q.sheetId }),
-    });
-    res.json({ messages });
+    res.json({ messages: await outboxService.list(db, q) });
   });
   return router;
 }
