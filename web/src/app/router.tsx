@@ -9,6 +9,9 @@ import { AdminRoute } from './routes/admin';
 import { SheetRoute, sheetPath } from './routes/sheet';
 import { NotFoundRoute } from './routes/not-found';
 import { RevisionRoute, revisionPath } from './routes/revision';
+import { PrintRoute, printPath } from './routes/print';
+import { CompareRoute, comparePath } from './routes/compare';
+import { OutboxRoute, outboxPath } from './routes/outbox';
 import { VerifyRoute, verifyCodePath, verifyPath } from './routes/verify';
 
 function createAppRouter() {
@@ -17,6 +20,8 @@ function createAppRouter() {
     // Public: a seal is checked without signing in.
     { path: verifyPath, element: <VerifyRoute /> },
     { path: verifyCodePath, element: <VerifyRoute /> },
+    // Printed as paper: no app header; signs strangers in like every member-only page.
+    { path: printPath, element: <PrintRoute /> },
     {
       element: <ProtectedLayout />,
       children: [
@@ -24,6 +29,8 @@ function createAppRouter() {
         { path: paths.project.path, element: <ProjectRoute /> },
         { path: sheetPath, element: <SheetRoute /> },
         { path: revisionPath, element: <RevisionRoute /> },
+        { path: comparePath, element: <CompareRoute /> },
+        { path: outboxPath, element: <OutboxRoute /> },
         { path: paths.admin.path, element: <AdminRoute /> },
         { path: '*', element: <NotFoundRoute /> },
       ],

@@ -40,6 +40,11 @@ export function AppShell({ user, children }: { user: User; children: ReactNode }
                   Admin
                 </NavLink>
               ) : null}
+              {user.isAdmin ? (
+                <NavLink to="/outbox" className={navClass}>
+                  Outbox
+                </NavLink>
+              ) : null}
             </nav>
           </div>
           <div className="flex items-center gap-3">

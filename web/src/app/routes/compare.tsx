@@ -1,0 +1,41 @@
+import { Link, useParams, useSearchParams } from 'react-router-dom';
+import { Alert } from '../../components/ui/alert';
+import { paths } from '../../config/paths';
+import { CompareView } from '../../features/compare/components/compare-view';
+import { revisionHref } from './revision';
+
+export const comparePath = '/sheets/:sheetId/compare';
+
+const positive = (raw: string | null) => {
+  const n = Number(raw);
+  return Number.isInteger(n) && n > 0 ? n : null;
+};
+
+/** Compare two revisions, or a revision and the draft (issue 7, item 4). */
+export function CompareRoute() {
+  const { sheetId: raw } = useParams();
+  const [search, setSearch] = useSearchParams();
+  const sheetId = Number(raw);
+  if (!Number.isInteger(sheetId) || sheetId <= 0) {
+    return (
+      <Alert title="No such sheet.">
+        “{raw}” is not a sheet number. <Link to={paths.projects.href()}>Back to projects</Link>
+      </Alert>
+    );
+  }
+  const from = positive(search.get('from'));
+  const toRaw = search.get('to');
+  const to = toRaw === 'draft' ? 'draft' : positive(toRaw);
+  return (
+    <div className="flex flex-col gap-4">
+      <h1 className="text-xl font-semibold text-ink">Compare</h1>
+      <CompareView
+        sheetId={sheetId}
+        from={from}
+        to={to}
+        onChange={(f, t) => setSearch({ from: String(f), to: String(t) })}
+        revisionHref={revisionHref}
+      />
+    </div>
+  );
+}

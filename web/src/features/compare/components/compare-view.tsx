@@ -1,0 +1,278 @@
+import { useId } from 'react';
+import { Link } from 'react-router-dom';
+import { QueryError } from '../../../components/ui/alert';
+import { EmptyState } from '../../../components/ui/empty-state';
+import { Spinner } from '../../../components/ui/spinner';
+import {
+  useComparison,
+  useRevisionChoices,
+  type BlockChange,
+  type CompareSide,
+  type Comparison,
+  type RevisionChoice,
+} from '../api/get-compare';
+
+const sideLabel = (side: CompareSide) =>
+  side.kind === 'draft' ? `the draft (version ${side.draftVersion})` : `Rev ${side.number}`;
+
+const STATUS_WORDS: Record<BlockChange['status'], string> = {
+  added: 'added',
+  removed: 'removed',
+  changed: 'changed',
+  moved: 'moved',
+  unchanged: 'unchanged',
+};
+
+/**
+ * Two revisions, or a revision and the draft, side by side: source changes per block as line
+ * hunks, the results that changed, the criteria that flipped, and the remarks where their lines
+ * are now. `from`/`to` are null until chosen; the defaults are the last two revisions.
+ */
+export function CompareView({
+  sheetId,
+  from,
+  to,
+  onChange,
+  revisionHref,
+}: {
+  sheetId: number;
+  from: number | null;
+  to: number | 'draft' | null;
+  onChange: (from: number, to: number | 'draft') => void;
+  revisionHref: (revisionId: number) => string;
+}) {
+  const choices = useRevisionChoices(sheetId);
+  const list = choices.data ?? [];
+  const last = list.at(-1);
+  const fromId = from ?? (list.length >= 2 ? (list.at(-2)?.id ?? null) : (last?.id ?? null));
+  const toId = to ?? (list.length >= 2 ? (last?.id ?? null) : 'draft');
+  const comparison = useComparison(sheetId, fromId, fromId === null ? null : toId);
+
+  if (choices.isPending) return <Spinner label="Loading the revisions…" />;
+  if (choices.isError) {
+    return (
+      <QueryError what="the revisions" error={choices.error} onRetry={() => choices.refetch()} />
+    );
+  }
+  if (list.length === 0) {
+    return <EmptyState title="Nothing to compare">The sheet has not been issued yet.</EmptyState>;
+  }
+
+  return (
+    <div className="flex flex-col gap-4">
+      <Pickers list={list} from={fromId} to={toId} onChange={onChange} />
+      {comparison.isPending ? <Spinner label="Comparing…" /> : null}
+      {comparison.isError ? (
+        <QueryError
+          what="the comparison"
+          error={comparison.error}
+          onRetry={() => comparison.refetch()}
+        />
+      ) : null}
+      {comparison.data ? <Result comparison={comparison.data} revisionHref={revisionHref} /> : null}
+    </div>
+  );
+}
+
+function Pickers({
+  list,
+  from,
+  to,
+  onChange,
+}: {
+  list: RevisionChoice[];
+  from: number | null;
+  to: number | 'draft' | null;
+  onChange: (from: number, to: number | 'draft') => void;
+}) {
+  const id = useId();
+  const select = 'rounded-sm border border-rule-strong bg-paper-sheet px-2 py-1.5 text-sm';
+  return (
+    <div className="flex flex-wrap items-end gap-4">
+      <div className="flex flex-col gap-1">
+        <label htmlFor={`${id}-from`} className="text-sm font-medium">
+          From
+        </label>
+        <select
+          id={`${id}-from`}
+          className={select}
+          value={from ?? ''}
+          onChange={(e) => onChange(Number(e.target.value), to ?? 'draft')}
+        >
+          {list.map((r) => (
+            <option key={r.id} value={r.id}>
+              Rev {r.number}
+            </option>
+          ))}
+        </select>
+      </div>
+      <div className="flex flex-col gap-1">
+        <label htmlFor={`${id}-to`} className="text-sm font-medium">
+          To
+        </label>
+        <select
+          id={`${id}-to`}
+          className={select}
+          value={to ?? 'draft'}
+          onChange={(e) =>
+            onChange(
+              from ?? list[0]?.id ?? 0,
+              e.target.value === 'draft' ? 'draft' : Number(e.target.value),
+            )
+          }
+        >
+          {list.map((r) => (
+            <option key={r.id} value={r.id}>
+              Rev {r.number}
+            </option>
+          ))}
+          <option value="draft">The draft</option>
+        </select>
+      </div>
+    </div>
+  );
+}
+
+function Result({
+  comparison,
+  revisionHref,
+}: {
+  comparison: Comparison;
+  revisionHref: (revisionId: number) => string;
+}) {
+  const { from, to, summary } = comparison;
+  const changedBlocks = comparison.blocks.filter((b) => b.status !== 'unchanged');
+  return (
+    <>
+      <p className="text-sm" role="status">
+        From {sideLabel(from)} to {sideLabel(to)}: {summary.changed} block(s) changed,{' '}
+        {summary.added} added, {summary.removed} removed, {summary.moved} moved;{' '}
+        {summary.resultsChanged} result(s) changed; {summary.flipped} criterion/criteria flipped.
+      </p>
+      {comparison.flipped.length > 0 ? (
+        <section aria-label="Criteria that flipped" className="flex flex-col gap-1">
+          <h2 className="text-base font-semibold">Criteria that flipped</h2>
+          <ul className="text-sm">
+            {comparison.flipped.map((f) => (
+              <li key={`${f.blockId}-${f.line}`} className={f.now ? 'text-pass' : 'text-fail'}>
+                {f.label} (line {f.line}): {f.was ? 'passed' : 'failed'} →{' '}
+                {f.now ? 'passes' : 'fails'}
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
+      <section aria-label="Result changes" className="flex flex-col gap-1">
+        <h2 className="text-base font-semibold">Results that changed</h2>
+        {comparison.results.length === 0 ? (
+          <p className="text-sm text-ink-soft">No result changed.</p>
+        ) : (
+          <table className="w-full border-collapse text-sm">
+            <thead>
+              <tr className="border-b border-rule text-left text-xs text-ink-soft">
+                <th className="py-1 pr-3">Block</th>
+                <th className="py-1 pr-3">Result</th>
+                <th className="py-1 pr-3">Was</th>
+                <th className="py-1 pr-3">Now</th>
+                <th className="py-1 pr-3">Change</th>
+              </tr>
+            </thead>
+            <tbody>
+              {comparison.results.map((r) => (
+                <tr key={`${r.blockId}-${r.key}`} className="border-b border-rule/60">
+                  <td className="py-1 pr-3 font-mono text-xs">{r.blockId}</td>
+                  <td className="py-1 pr-3">{r.key}</td>
+                  <td className="py-1 pr-3 font-mono text-xs">{r.old ?? '—'}</td>
+                  <td className="py-1 pr-3 font-mono text-xs">{r.new ?? '—'}</td>
+                  <td className="py-1 pr-3 font-mono text-xs">
+                    {r.relativeChange === null
+                      ? '—'
+                      : `${r.relativeChange >= 0 ? '+' : ''}${(r.relativeChange * 100).toPrecision(3)} %`}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </section>
+      <section aria-label="Source changes" className="flex flex-col gap-2">
+        <h2 className="text-base font-semibold">Source changes</h2>
+        {changedBlocks.length === 0 ? (
+          <p className="text-sm text-ink-soft">No block changed.</p>
+        ) : null}
+        {changedBlocks.map((b) => (
+          <BlockDiff key={b.blockId} change={b} comparison={comparison} />
+        ))}
+      </section>
+      <section aria-label="Remarks in context" className="flex flex-col gap-1">
+        <h2 className="text-base font-semibold">Remarks</h2>
+        {comparison.remarks.length === 0 ? (
+          <p className="text-sm text-ink-soft">No remarks on either side.</p>
+        ) : (
+          <ul className="flex flex-col gap-1 text-sm">
+            {comparison.remarks.map((r) => (
+              <li key={r.id} className="border-b border-rule/60 py-1">
+                <Link
+                  to={revisionHref(r.revisionId)}
+                  className="text-accent-strong hover:underline"
+                >
+                  Rev {r.revisionNumber}
+                </Link>
+                , block {r.blockId} line {r.line} ({r.type}, {r.state}): {r.text}
+                <span className="ml-2 text-xs text-ink-soft">
+                  {r.mapped.status === 'gone'
+                    ? '— that line is gone on the other side'
+                    : r.mapped.status === 'changed'
+                      ? `— now line ${r.mapped.line}, which changed`
+                      : r.mapped.line !== r.line
+                        ? `— now line ${r.mapped.line}`
+                        : ''}
+                </span>
+              </li>
+            ))}
+          </ul>
+        )}
+      </section>
+    </>
+  );
+}
+
+function BlockDiff({ change, comparison }: { change: BlockChange; comparison: Comparison }) {
+  const remarksHere = comparison.remarks.filter((r) => r.blockId === change.blockId);
+  return (
+    <article
+      aria-label={`Block ${change.blockId}`}
+      className="rounded-sm border border-rule bg-paper-sheet"
+    >
+      <header className="border-b border-rule px-3 py-1 text-xs text-ink-soft">
+        Block {change.blockId} ({change.kind}) — {STATUS_WORDS[change.status]}
+        {change.moved && change.status !== 'moved' ? ', moved' : ''}
+        {change.oldIndex !== null && change.newIndex !== null && change.oldIndex !== change.newIndex
+          ? ` (position ${change.oldIndex + 1} → ${change.newIndex + 1})`
+          : ''}
+      </header>
+      {change.hunks.map((h) => (
+        <div key={`${h.oldStart}-${h.newStart}`} className="font-mono text-xs">
+          <p className="bg-paper-deep px-3 py-0.5 text-ink-faint">
+            @ line {h.oldStart} (−{h.oldCount}) → line {h.newStart} (+{h.newCount})
+          </p>
+          {h.removed.map((l, i) => (
+            <p key={`r${i}`} className="bg-fail-soft px-3 whitespace-pre-wrap text-fail">
+              − {l}
+            </p>
+          ))}
+          {h.added.map((l, i) => (
+            <p key={`a${i}`} className="bg-pass-soft px-3 whitespace-pre-wrap text-pass">
+              + {l}
+            </p>
+          ))}
+        </div>
+      ))}
+      {remarksHere.length > 0 ? (
+        <p className="px-3 py-1 text-xs text-ink-soft">
+          {remarksHere.length} remark(s) on this block (listed below).
+        </p>
+      ) : null}
+    </article>
+  );
+}
