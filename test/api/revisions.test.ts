@@ -232,6 +232,12 @@ describe('POST /api/revisions/:revisionId/return', () => {
     expect(res.body.error.code).toBe('REVISION_NOT_IN_CHECK');
   });
 
+  it('answers 422 naming the address for an id that is not a number', async () => {
+    const res = await checker.get('/api/revisions/rev-one');
+    expect(res.status).toBe(422);
+    expect(res.body.error.field).toBe('revisionId');
+  });
+
   it('answers 404 for a revision that does not exist', async () => {
     const res = await checker.post('/api/revisions/999999999/return');
     expect(res.status).toBe(404);
