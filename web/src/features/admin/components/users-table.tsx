@@ -42,8 +42,8 @@ export function UsersTable() {
         </div>
         <p className="pb-2 text-sm text-ink-soft" role="status">
           {shown.length === users.data.length
-            ? `${users.data.length} people`
-            : `${shown.length} of ${users.data.length} people`}
+            ? plural(users.data.length)
+            : `${shown.length} of ${plural(users.data.length)}`}
         </p>
       </div>
       {shown.length === 0 ? (
@@ -81,3 +81,5 @@ export function UsersTable() {
     </>
   );
 }
+
+const plural = (n: number) => `${n} ${n === 1 ? 'person' : 'people'}`;

@@ -6,10 +6,13 @@ import { EmptyState } from '../../../components/ui/empty-state';
 import { Badge } from '../../../components/ui/badge';
 import { paths } from '../../../config/paths';
 import { roleLabel } from '../../../config/words';
+import { useId, useState } from 'react';
 import { useProjects } from '../api/get-projects';
 
 export function ProjectsTable({ isAdmin }: { isAdmin: boolean }) {
   const projects = useProjects();
+  const [filter, setFilter] = useState('');
+  const filterId = useId();
 
   if (projects.isPending) return <Spinner label="Loading projects…" />;
   if (projects.isError) {
@@ -27,45 +30,82 @@ export function ProjectsTable({ isAdmin }: { isAdmin: boolean }) {
     );
   }
 
+  const needle = filter.trim().toLowerCase();
+  const shown = needle
+    ? projects.data.filter((p) =>
+        [p.jobNumber, p.name, p.client, p.site].some((v) => v.toLowerCase().includes(needle)),
+      )
+    : projects.data;
+
   return (
-    <Table caption="Projects">
-      <thead>
-        <tr>
-          <Th>Job no.</Th>
-          <Th>Name</Th>
-          <Th>Client</Th>
-          <Th>Site</Th>
-          <Th>My roles</Th>
-        </tr>
-      </thead>
-      <tbody>
-        {projects.data.map((project) => (
-          <tr key={project.id} className="hover:bg-paper-deep/50">
-            <Td className="font-mono whitespace-nowrap">{project.jobNumber}</Td>
-            <Td>
-              <Link
-                to={paths.project.href(project.id)}
-                className="font-medium text-accent-strong underline-offset-2 hover:underline"
-              >
-                {project.name}
-              </Link>
-            </Td>
-            <Td>{project.client}</Td>
-            <Td>{project.site}</Td>
-            <Td>
-              {project.myRoles.length > 0 ? (
-                <span className="flex flex-wrap gap-1">
-                  {project.myRoles.map((role) => (
-                    <Badge key={role}>{roleLabel(role)}</Badge>
-                  ))}
-                </span>
-              ) : (
-                <span className="text-ink-faint">{isAdmin ? 'none (admin access)' : 'none'}</span>
-              )}
-            </Td>
-          </tr>
-        ))}
-      </tbody>
-    </Table>
+    <>
+      <div className="mb-3 flex flex-wrap items-end gap-3">
+        <div className="flex flex-col gap-1">
+          <label htmlFor={filterId} className="text-sm font-medium">
+            Filter projects
+          </label>
+          <input
+            id={filterId}
+            type="search"
+            value={filter}
+            onChange={(e) => setFilter(e.target.value)}
+            placeholder="Job no., name, client or site"
+            className="w-80 rounded-sm border border-rule-strong bg-paper-sheet px-2.5 py-1.5"
+          />
+        </div>
+        <p className="pb-2 text-sm text-ink-soft" role="status">
+          {shown.length === projects.data.length
+            ? plural(projects.data.length)
+            : `${shown.length} of ${plural(projects.data.length)}`}
+        </p>
+      </div>
+      {shown.length === 0 ? (
+        <EmptyState title="No project matches the filter" />
+      ) : (
+        <Table caption="Projects">
+          <thead>
+            <tr>
+              <Th>Job no.</Th>
+              <Th>Name</Th>
+              <Th>Client</Th>
+              <Th>Site</Th>
+              <Th>My roles</Th>
+            </tr>
+          </thead>
+          <tbody>
+            {shown.map((project) => (
+              <tr key={project.id} className="hover:bg-paper-deep/50">
+                <Td className="font-mono whitespace-nowrap">{project.jobNumber}</Td>
+                <Td>
+                  <Link
+                    to={paths.project.href(project.id)}
+                    className="font-medium text-accent-strong underline-offset-2 hover:underline"
+                  >
+                    {project.name}
+                  </Link>
+                </Td>
+                <Td>{project.client}</Td>
+                <Td>{project.site}</Td>
+                <Td>
+                  {project.myRoles.length > 0 ? (
+                    <span className="flex flex-wrap gap-1">
+                      {project.myRoles.map((role) => (
+                        <Badge key={role}>{roleLabel(role)}</Badge>
+                      ))}
+                    </span>
+                  ) : (
+                    <span className="text-ink-faint">
+                      {isAdmin ? 'none (admin access)' : 'none'}
+                    </span>
+                  )}
+                </Td>
+              </tr>
+            ))}
+          </tbody>
+        </Table>
+      )}
+    </>
   );
 }
+
+const plural = (n: number) => `${n} project${n === 1 ? '' : 's'}`;
