@@ -70,8 +70,8 @@ export function ConflictDialog({
           This draft was changed elsewhere
         </h2>
         <p className="text-sm text-ink-soft">
-          {message} Choose which text to keep. Keeping both puts their blocks after yours, so you
-          can merge them by hand.
+          {message} Keeping both puts their blocks after yours, so you can merge them by hand;
+          keeping theirs can be undone.
         </p>
         <div className="flex flex-col gap-3 md:flex-row">
           <Version
