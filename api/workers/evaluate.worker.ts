@@ -59,6 +59,8 @@ export default function evaluateTask(task: EvaluateTask): EvaluateReply {
     }
     throw err;
   } finally {
+    // Messages on one port keep their order: 'done' tells the pool every progress event is in.
+    port?.postMessage({ type: 'done' });
     port?.close();
   }
 }

@@ -129,9 +129,13 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
     if (runOptions.signal?.aborted) onCancel();
     runOptions.signal?.addEventListener('abort', onCancel, { once: true });
     const { port1, port2 } = new MessageChannel();
+    // Progress travels on its own port and may arrive after the result: wait for 'done'.
+    let markDone: () => void = () => {};
+    const done = new Promise<void>((resolve) => (markDone = resolve));
     port1.on('message', (msg: { type: string; progress: SheetProgress }) => {
       if (msg.type === 'start') startClock();
       else if (msg.type === 'progress') runOptions.onProgress?.(msg.progress);
+      else if (msg.type === 'done') markDone();
     });
     const task: EvaluateTask = { sheet, uploads, port: port2 };
     if (options.maxMatrixEntries) task.maxMatrixEntries = options.maxMatrixEntries;
@@ -142,6 +146,9 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
         signal: controller.signal,
         transferList: [port2],
       })) as EvaluateReply;
+      let grace: NodeJS.Timeout | undefined;
+      await Promise.race([done, new Promise((r) => (grace = setTimeout(r, 2000)))]);
+      clearTimeout(grace);
     } catch (err) {
       throw translate(err, reason, timeLimitMs, memoryLimitMb);
     } finally {
