@@ -89,7 +89,12 @@ function parseIndex(
     throw fileError(name, line, `the ${what} index '${tok ?? ''}' is not a whole number ≥ 1.`);
   }
   const v = Number(tok);
-  if (v < 1 || v > max) {
+  if (v < 1) {
+    throw fileError(name, line, `${what} index ${v} is out of range: indices start at 1.`, {
+      index: v,
+    });
+  }
+  if (v > max) {
     throw fileError(
       name,
       line,
