@@ -21,6 +21,8 @@ import { createReviewRouter } from './modules/revisions/review.routes';
 import { createSheetsRouter } from './modules/sheets/sheets.routes';
 import { createUploadsRouter } from './modules/uploads/uploads.routes';
 import { createUsersRouter } from './modules/users/users.routes';
+import { createEvaluateRouter } from './modules/evaluate/evaluate.routes';
+import { createEvaluationPool, poolOptionsFromEnv } from './workers/evaluation-pool';
 
 export interface AppOptions extends Partial<AppConfig> {
   /** How often expired sessions are swept, in ms (0 turns the sweep off; tests do). */
@@ -76,6 +78,11 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     closers.push(() => sessions.close());
 
     const ctx: AppContext = { db, config, log };
+    // Every evaluation (editor, issue for check, seal) runs in the worker pool, never on the
+    // event loop.
+    const pool = createEvaluationPool(poolOptionsFromEnv());
+    closers.push(() => pool.close());
+    const runner = pool.run.bind(pool);
     const app = express();
     app.disable('x-powered-by');
     // The sign-in limit is keyed on the client address: behind a proxy, say how many hops to trust.
@@ -119,10 +126,11 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     api.use('/projects/:projectId/members', createMembersRouter(ctx));
     api.use('/projects/:projectId/activity', createActivityRouter(ctx));
     api.use('/projects', createProjectsRouter(ctx));
-    api.use(createSheetsRouter(ctx));
+    api.use(createEvaluateRouter(ctx, { run: runner }));
+    api.use(createSheetsRouter(ctx, { runner }));
     api.use(createUploadsRouter(ctx));
     api.use('/outbox', createOutboxRouter(ctx));
-    api.use(createReviewRouter(ctx));
+    api.use(createReviewRouter(ctx, { runner }));
     api.use(apiNotFound);
     app.use('/api', api);
 
