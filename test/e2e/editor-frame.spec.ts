@@ -14,6 +14,7 @@ import {
   uniformChain,
   waitForResults,
   waitSaved,
+  source,
   useAuthorBrowser,
 } from './editor-helpers';
 
@@ -101,5 +102,24 @@ describe('sheet editor: three-storey frame (browser)', () => {
     await block(page, calcIndex, 'calc').locator('.katex').first().waitFor();
     await block(page, calcIndex, 'calc').screenshot({ path: await shotPath('editor-calc') });
     await block(page, textIndex, 'text').screenshot({ path: await shotPath('editor-text') });
+  });
+
+  it('completes names in scope and the keys of a modes block', async () => {
+    const { page } = session();
+    const calc = await addBlock(page, 'calc', 'T_check = ');
+    await source(page, calc, 'calc').click();
+    await page.keyboard.press('End');
+    await page.keyboard.type('sway.cu');
+    const list = page.locator('.cm-tooltip-autocomplete');
+    await list.getByText('sway.cumulative', { exact: true }).waitFor();
+    await page.keyboard.press('Escape');
+    const modes = await addBlock(page, 'modes', 'name: check\n');
+    await source(page, modes, 'modes').click();
+    await page.keyboard.press('ControlOrMeta+End');
+    await page.keyboard.press('Control+Space');
+    await list.getByText('max iterations', { exact: true }).waitFor();
+    await list.getByText('stiffness', { exact: true }).waitFor();
+    await page.keyboard.press('Escape');
+    await waitSaved(page);
   });
 });
