@@ -46,6 +46,7 @@ export function RemarkCard({
           {REMARK_TYPE_LABELS[remark.type]}
         </span>
         <span
+          data-testid="remark-state"
           className={`rounded-sm border px-1.5 text-xs font-semibold ${stateTone[remark.state]}`}
         >
           {REMARK_STATE_LABELS[remark.state]}

@@ -171,7 +171,9 @@ function RevisionHeader({ rev }: { rev: RevisionDetail }) {
             <dd>
               {rev.seal.principal.name} ({rev.seal.principal.licenceNumber}),{' '}
               {formatUtc(rev.seal.sealedAt)}, code{' '}
-              <span className="font-mono">{rev.seal.code}</span>
+              <span className="font-mono" data-testid="seal-code">
+                {rev.seal.code}
+              </span>
             </dd>
           </div>
         ) : null}
