@@ -31,7 +31,7 @@ describe('verify page, signed out (browser)', () => {
     expect(page.url()).toContain('/verify/ZZZZZ-ZZZZZ');
     await page.getByText('No seal has the code ZZZZZ-ZZZZZ.').waitFor();
     // Nothing of a sheet is shown for an unknown code.
-    expect(await page.getByText('Principal').count()).toBe(0);
+    expect(await page.getByText('Principal', { exact: true }).count()).toBe(0);
     await saveScreenshot(page, 'verify-unknown');
   });
 });
