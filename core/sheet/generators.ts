@@ -101,34 +101,55 @@ export function sheetStoreyChain(masses: unknown, stiffnesses: unknown): Record<
   return modelObject(storeyChain({ masses: m, stiffnesses: k }));
 }
 
+/**
+ * The properties object of a generator call: a plain object with only `keys`, every one of
+ * `required` present.
+ * @throws EngineError SHEET_EVAL with `notObject` when it is not an object, or naming the
+ *   unknown or missing property.
+ */
+function propsOf(
+  props: unknown,
+  fn: string,
+  notObject: string,
+  keys: readonly string[],
+  required: readonly string[],
+): Record<string, unknown> {
+  if (
+    props === null ||
+    typeof props !== 'object' ||
+    Object.getPrototypeOf(props) !== Object.prototype
+  ) {
+    throw new EngineError('SHEET_EVAL', notObject);
+  }
+  const p = props as Record<string, unknown>;
+  for (const key of Object.keys(p)) {
+    if (!keys.includes(key)) {
+      throw new EngineError(
+        'SHEET_EVAL',
+        `${fn}: unknown property "${key}"; the properties are ${keys.join(', ')}.`,
+      );
+    }
+  }
+  for (const key of required) {
+    if (!(key in p))
+      throw new EngineError('SHEET_EVAL', `${fn}: the property "${key}" is missing.`);
+  }
+  return p;
+}
+
 const END_NAMES: BeamEnd[] = ['clamped', 'pinned', 'free', 'guided'];
 const BEAM_KEYS = ['E', 'I', 'mass', 'length', 'elements', 'ends', 'lumped'];
 
 /** `beam({E, I, mass, length, elements, ends: "pinned-pinned", lumped?: true})`. */
 export function sheetBeam(props: unknown): Record<string, unknown> {
   const fn = 'beam';
-  if (
-    props === null ||
-    typeof props !== 'object' ||
-    Object.getPrototypeOf(props) !== Object.prototype
-  ) {
-    throw new EngineError(
-      'SHEET_EVAL',
-      'beam: give the properties as an object: beam({E: 210 GPa, I: 0.012 m^4, mass: 1.2 t/m, length: 32 m, elements: 20, ends: "pinned-pinned"}).',
-    );
-  }
-  const p = props as Record<string, unknown>;
-  for (const key of Object.keys(p)) {
-    if (!BEAM_KEYS.includes(key)) {
-      throw new EngineError(
-        'SHEET_EVAL',
-        `beam: unknown property "${key}"; the properties are ${BEAM_KEYS.join(', ')}.`,
-      );
-    }
-  }
-  for (const key of ['E', 'I', 'mass', 'length', 'elements', 'ends']) {
-    if (!(key in p)) throw new EngineError('SHEET_EVAL', `beam: the property "${key}" is missing.`);
-  }
+  const p = propsOf(
+    props,
+    'beam',
+    'beam: give the properties as an object: beam({E: 210 GPa, I: 0.012 m^4, mass: 1.2 t/m, length: 32 m, elements: 20, ends: "pinned-pinned"}).',
+    BEAM_KEYS,
+    ['E', 'I', 'mass', 'length', 'elements', 'ends'],
+  );
   const ends = String(p.ends).split('-');
   if (ends.length !== 2 || !ends.every((e) => END_NAMES.includes(e as BeamEnd))) {
     throw new EngineError(
@@ -221,29 +242,13 @@ function perMember(
  */
 export function sheetPlaneFrame(props: unknown): Record<string, unknown> {
   const fn = 'plane_frame';
-  if (
-    props === null ||
-    typeof props !== 'object' ||
-    Object.getPrototypeOf(props) !== Object.prototype
-  ) {
-    throw new EngineError(
-      'SHEET_EVAL',
-      'plane_frame: give the frame as an object: plane_frame({nodes: [0 m, 0 m; 0 m, 3.5 m], members: [1, 2], E: 210 GPa, A: 5.4e-3 m^2, I: 8.4e-5 m^4, mass: 42 kg/m, fixed: [1]}).',
-    );
-  }
-  const p = props as Record<string, unknown>;
-  for (const key of Object.keys(p)) {
-    if (!FRAME_KEYS.includes(key)) {
-      throw new EngineError(
-        'SHEET_EVAL',
-        `plane_frame: unknown property "${key}"; the properties are ${FRAME_KEYS.join(', ')}.`,
-      );
-    }
-  }
-  for (const key of ['nodes', 'members', 'E', 'A', 'I', 'mass']) {
-    if (!(key in p))
-      throw new EngineError('SHEET_EVAL', `plane_frame: the property "${key}" is missing.`);
-  }
+  const p = propsOf(
+    props,
+    'plane_frame',
+    'plane_frame: give the frame as an object: plane_frame({nodes: [0 m, 0 m; 0 m, 3.5 m], members: [1, 2], E: 210 GPa, A: 5.4e-3 m^2, I: 8.4e-5 m^4, mass: 42 kg/m, fixed: [1]}).',
+    FRAME_KEYS,
+    ['nodes', 'members', 'E', 'A', 'I', 'mass'],
+  );
   const nodes = rowsOf(p.nodes, 'nodes', fn).map((r, i) => {
     if (r.length !== 2)
       throw new EngineError('SHEET_EVAL', `plane_frame: node ${i + 1} needs x and y.`);

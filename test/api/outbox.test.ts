@@ -2,13 +2,7 @@ import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { SMTPServer, type SMTPServerDataStream, type SMTPServerSession } from 'smtp-server';
 import { createMailer } from '../../api/mail/mailer';
-import {
-  anonymous,
-  createTestApp,
-  signedIn,
-  type ApiClient,
-  type TestApp,
-} from '../support/api-app';
+import { anonymous, createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
 // Mail to whoever must act next (issue 7 item 9): with no MW_SMTP_URL every message lands in the
@@ -38,14 +32,11 @@ async function messages(): Promise<Message[]> {
 
 beforeAll(async () => {
   delete process.env.MW_SMTP_URL;
-  t = await createTestApp();
-  team = await createProjectTeam(t.db);
-  [author, checker, principal, admin] = await Promise.all([
-    signedIn(t.app, team.author),
-    signedIn(t.app, team.checker),
-    signedIn(t.app, team.principal),
-    signedIn(t.app, team.admin),
-  ]);
+  ({
+    t,
+    team,
+    clients: { author, checker, principal, admin },
+  } = await createTeamApp(['author', 'checker', 'principal', 'admin']));
   const sheet = await author.post(`/api/projects/${team.project.id}/sheets`, {
     number: `OB-${unique()}`,
     title: 'Mail check',

@@ -1,11 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import {
-  anonymous,
-  createTestApp,
-  signedIn,
-  type ApiClient,
-  type TestApp,
-} from '../support/api-app';
+import { anonymous, createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
 // Remarks (issue 7 item 3, server side): a checker remarks on a line, the author answers by
@@ -46,15 +40,11 @@ const remarkOn = (revId: number, body: Record<string, unknown>) =>
   checker.post(`/api/revisions/${revId}/remarks`, body);
 
 beforeAll(async () => {
-  t = await createTestApp();
-  team = await createProjectTeam(t.db);
-  [author, checker, principal, viewer, outsider] = await Promise.all([
-    signedIn(t.app, team.author),
-    signedIn(t.app, team.checker),
-    signedIn(t.app, team.principal),
-    signedIn(t.app, team.viewer),
-    signedIn(t.app, team.outsider),
-  ]);
+  ({
+    t,
+    team,
+    clients: { author, checker, principal, viewer, outsider },
+  } = await createTeamApp(['author', 'checker', 'principal', 'viewer', 'outsider']));
 });
 
 afterAll(async () => {

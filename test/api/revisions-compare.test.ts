@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTestApp, signedIn, type ApiClient, type TestApp } from '../support/api-app';
+import { createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
 // Compare (issue 7 item 4) and the print payload (item 8), server side.
@@ -37,14 +37,11 @@ let rev1: number;
 let rev2: number;
 
 beforeAll(async () => {
-  t = await createTestApp();
-  team = await createProjectTeam(t.db);
-  [author, checker, principal, outsider] = await Promise.all([
-    signedIn(t.app, team.author),
-    signedIn(t.app, team.checker),
-    signedIn(t.app, team.principal),
-    signedIn(t.app, team.outsider),
-  ]);
+  ({
+    t,
+    team,
+    clients: { author, checker, principal, outsider },
+  } = await createTeamApp(['author', 'checker', 'principal', 'outsider']));
   const sheet = await author.post(`/api/projects/${team.project.id}/sheets`, {
     number: `CP-${unique()}`,
     title: 'Compare',

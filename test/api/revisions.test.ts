@@ -2,7 +2,7 @@ import { createHash } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {
   anonymous,
-  createTestApp,
+  createTeamApp,
   signedIn,
   type ApiClient,
   type TestApp,
@@ -70,15 +70,11 @@ async function issued(client: ApiClient, sheetId: number): Promise<number> {
 }
 
 beforeAll(async () => {
-  t = await createTestApp();
-  team = await createProjectTeam(t.db);
-  [author, checker, principal, viewer, outsider] = await Promise.all([
-    signedIn(t.app, team.author),
-    signedIn(t.app, team.checker),
-    signedIn(t.app, team.principal),
-    signedIn(t.app, team.viewer),
-    signedIn(t.app, team.outsider),
-  ]);
+  ({
+    t,
+    team,
+    clients: { author, checker, principal, viewer, outsider },
+  } = await createTeamApp(['author', 'checker', 'principal', 'viewer', 'outsider']));
   const both = await createUser(t.db);
   await addMember(t.db, team.project.id, both.id, ['author', 'checker']);
   authorChecker = { id: both.id, client: await signedIn(t.app, both) };

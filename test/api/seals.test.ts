@@ -1,6 +1,6 @@
 import { createHash, createPublicKey, verify as verifySignature } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTestApp, signedIn, type ApiClient, type TestApp } from '../support/api-app';
+import { createTeamApp, signedIn, type ApiClient, type TestApp } from '../support/api-app';
 import { addMember, createProjectTeam, createUser, unique } from '../support/factories';
 import {
   up as contentTriggerUp,
@@ -66,13 +66,11 @@ function sortedJson(v: unknown): string {
 const sha = (s: string) => createHash('sha256').update(s, 'utf8').digest('hex');
 
 beforeAll(async () => {
-  t = await createTestApp();
-  team = await createProjectTeam(t.db);
-  [author, checker, principal] = await Promise.all([
-    signedIn(t.app, team.author),
-    signedIn(t.app, team.checker),
-    signedIn(t.app, team.principal),
-  ]);
+  ({
+    t,
+    team,
+    clients: { author, checker, principal },
+  } = await createTeamApp(['author', 'checker', 'principal']));
 });
 
 afterAll(async () => {

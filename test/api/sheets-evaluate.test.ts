@@ -1,13 +1,7 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import {
-  anonymous,
-  createTestApp,
-  signedIn,
-  type ApiClient,
-  type TestApp,
-} from '../support/api-app';
+import { anonymous, createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
 // Evaluating a sheet's draft on the server (issue 6 item 3, server side): the three templates,
@@ -22,13 +16,11 @@ let viewer: ApiClient;
 let outsider: ApiClient;
 
 beforeAll(async () => {
-  t = await createTestApp();
-  team = await createProjectTeam(t.db);
-  [author, viewer, outsider] = await Promise.all([
-    signedIn(t.app, team.author),
-    signedIn(t.app, team.viewer),
-    signedIn(t.app, team.outsider),
-  ]);
+  ({
+    t,
+    team,
+    clients: { author, viewer, outsider },
+  } = await createTeamApp(['author', 'viewer', 'outsider']));
 });
 
 afterAll(async () => {

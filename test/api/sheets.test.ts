@@ -1,11 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import {
-  anonymous,
-  createTestApp,
-  signedIn,
-  type ApiClient,
-  type TestApp,
-} from '../support/api-app';
+import { anonymous, createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
 // The sheets API (issue 6 item 1) against the real MariaDB: create, read, rename, draft saves
@@ -20,15 +14,11 @@ let outsider: ApiClient;
 let admin: ApiClient;
 
 beforeAll(async () => {
-  t = await createTestApp();
-  team = await createProjectTeam(t.db);
-  [author, checker, viewer, outsider, admin] = await Promise.all([
-    signedIn(t.app, team.author),
-    signedIn(t.app, team.checker),
-    signedIn(t.app, team.viewer),
-    signedIn(t.app, team.outsider),
-    signedIn(t.app, team.admin),
-  ]);
+  ({
+    t,
+    team,
+    clients: { author, checker, viewer, outsider, admin },
+  } = await createTeamApp(['author', 'checker', 'viewer', 'outsider', 'admin']));
 });
 
 afterAll(async () => {

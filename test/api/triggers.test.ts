@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTestApp, signedIn, type ApiClient, type TestApp } from '../support/api-app';
+import { createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 import * as contentTrigger from '../../migrations/20261203000700_revisions_content_immutable';
 import * as sealedUpdateTrigger from '../../migrations/20261203000710_sealed_revisions_refuse_update';
@@ -75,13 +75,11 @@ async function refusal(p: PromiseLike<unknown>): Promise<{ errno: number; messag
 }
 
 beforeAll(async () => {
-  t = await createTestApp();
-  team = await createProjectTeam(t.db);
-  [author, checker, principal] = await Promise.all([
-    signedIn(t.app, team.author),
-    signedIn(t.app, team.checker),
-    signedIn(t.app, team.principal),
-  ]);
+  ({
+    t,
+    team,
+    clients: { author, checker, principal },
+  } = await createTeamApp(['author', 'checker', 'principal']));
   ({ revId, code } = await sealedRevision());
 });
 

@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEFAULT_UPLOAD_LIMIT_BYTES } from '../../api/modules/uploads/uploads.routes';
 import {
   anonymous,
-  createTestApp,
+  createTeamApp,
   signedIn,
   type ApiClient,
   type TestApp,
@@ -27,13 +27,11 @@ let checker: ApiClient;
 let sheetId: number;
 
 beforeAll(async () => {
-  t = await createTestApp();
-  team = await createProjectTeam(t.db);
-  [author, viewer, checker] = await Promise.all([
-    signedIn(t.app, team.author),
-    signedIn(t.app, team.viewer),
-    signedIn(t.app, team.checker),
-  ]);
+  ({
+    t,
+    team,
+    clients: { author, viewer, checker },
+  } = await createTeamApp(['author', 'viewer', 'checker']));
   const res = await author.post(`/api/projects/${team.project.id}/sheets`, {
     number: `UPL-${unique()}`,
     title: 'Uploads',

@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {
   anonymous,
+  createTeamApp,
   createTestApp,
-  signedIn,
   type ApiClient,
   type TestApp,
 } from '../support/api-app';
@@ -40,13 +40,11 @@ async function sealNext(source: string): Promise<string> {
 }
 
 beforeAll(async () => {
-  t = await createTestApp();
-  team = await createProjectTeam(t.db);
-  [author, checker, principal] = await Promise.all([
-    signedIn(t.app, team.author),
-    signedIn(t.app, team.checker),
-    signedIn(t.app, team.principal),
-  ]);
+  ({
+    t,
+    team,
+    clients: { author, checker, principal },
+  } = await createTeamApp(['author', 'checker', 'principal']));
   const res = await author.post(`/api/projects/${team.project.id}/sheets`, {
     number: `VF-${unique()}`,
     title: 'Deck frequency',

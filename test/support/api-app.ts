@@ -3,6 +3,7 @@
 import request from 'supertest';
 import type { Knex } from 'knex';
 import { createApp, type AppOptions, type CreatedApp } from '../../api/app';
+import { createProjectTeam } from './factories';
 
 export const TEST_SESSION_SECRET = 'test-session-secret-that-is-long-enough-0123456789';
 
@@ -86,4 +87,29 @@ export function signedIn(
   person: { email: string; password: string },
 ): Promise<ApiClient> {
   return new ApiClient(app).signIn(person.email, person.password);
+}
+
+/** The members of a project team (test/support/factories.ts createProjectTeam) by role. */
+export type TeamMember = 'admin' | 'author' | 'checker' | 'principal' | 'viewer' | 'outsider';
+
+/**
+ * The common preamble of an API test file: the app, a fresh project team, and a signed-in
+ * client for each member named (signed in in parallel).
+ */
+export async function createTeamApp<M extends TeamMember>(
+  members: readonly M[],
+  options: AppOptions = {},
+): Promise<{
+  t: TestApp;
+  team: Awaited<ReturnType<typeof createProjectTeam>>;
+  clients: Record<M, ApiClient>;
+}> {
+  const t = await createTestApp(options);
+  const team = await createProjectTeam(t.db);
+  const signed = await Promise.all(members.map((m) => signedIn(t.app, team[m])));
+  const clients = Object.fromEntries(members.map((m, i) => [m, signed[i]!])) as Record<
+    M,
+    ApiClient
+  >;
+  return { t, team, clients };
 }

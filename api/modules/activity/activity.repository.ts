@@ -29,7 +29,8 @@ export interface ActivityEntry {
   details: Record<string, unknown>;
 }
 
-interface ActivityRow {
+/** An activity row joined with its actor's name (`users as u`), as the lists select it. */
+export interface ActivityRow {
   id: number;
   at: Date;
   actor_id: number | null;
@@ -38,6 +39,31 @@ interface ActivityRow {
   object_type: string;
   object_id: number | null;
   details: unknown;
+}
+
+/** The columns of an activity row (`activity as a`) with its actor's name (`users as u`). */
+export const ACTIVITY_COLUMNS = [
+  'a.id',
+  'a.at',
+  'a.actor_id',
+  'u.name as actor_name',
+  'a.action',
+  'a.object_type',
+  'a.object_id',
+  'a.details',
+] as const;
+
+/** Maps an activity row to the entry the API sends; a removed actor keeps the id. */
+export function activityEntryOf(row: ActivityRow): ActivityEntry {
+  return {
+    id: Number(row.id),
+    at: new Date(row.at).toISOString(),
+    actor: row.actor_id === null ? null : { id: row.actor_id, name: row.actor_name ?? '(removed)' },
+    action: row.action,
+    objectType: row.object_type,
+    objectId: row.object_id === null ? null : Number(row.object_id),
+    details: readJson<Record<string, unknown>>(row.details),
+  };
 }
 
 export const activityRepository = {
@@ -57,29 +83,11 @@ export const activityRepository = {
   async listByProject(db: DbOrTx, projectId: number, limit: number): Promise<ActivityEntry[]> {
     const rows: ActivityRow[] = await db('activity as a')
       .leftJoin('users as u', 'u.id', 'a.actor_id')
-      .select(
-        'a.id',
-        'a.at',
-        'a.actor_id',
-        'u.name as actor_name',
-        'a.action',
-        'a.object_type',
-        'a.object_id',
-        'a.details',
-      )
+      .select(...ACTIVITY_COLUMNS)
       .where('a.project_id', projectId)
       .orderBy('a.at', 'desc')
       .orderBy('a.id', 'desc')
       .limit(limit);
-    return rows.map((row) => ({
-      id: Number(row.id),
-      at: new Date(row.at).toISOString(),
-      actor:
-        row.actor_id === null ? null : { id: row.actor_id, name: row.actor_name ?? '(removed)' },
-      action: row.action,
-      objectType: row.object_type,
-      objectId: row.object_id === null ? null : Number(row.object_id),
-      details: readJson<Record<string, unknown>>(row.details),
-    }));
+    return rows.map(activityEntryOf);
   },
 };

@@ -1,5 +1,11 @@
 import { gunzipSync } from 'node:zlib';
 import { readJson, type DbOrTx } from '../../db/index';
+import {
+  ACTIVITY_COLUMNS,
+  activityEntryOf,
+  type ActivityEntry,
+  type ActivityRow,
+} from '../activity/activity.repository';
 
 /** The sheet a revision belongs to, with what mail, print and verify need about its project. */
 export interface SheetContext {
@@ -23,15 +29,8 @@ export interface Recipient {
   roles: string[];
 }
 
-export interface SheetActivityEntry {
-  id: number;
-  at: string;
-  actor: { id: number; name: string } | null;
-  action: string;
-  objectType: string;
-  objectId: number | null;
-  details: Record<string, unknown>;
-}
+/** An entry of a sheet's history: an activity entry. */
+export type SheetActivityEntry = ActivityEntry;
 
 export const reviewRepository = {
   async sheetContext(db: DbOrTx, sheetId: number): Promise<SheetContext | undefined> {
@@ -163,33 +162,7 @@ export const reviewRepository = {
       .orderBy('a.at', 'desc')
       .orderBy('a.id', 'desc')
       .limit(limit)
-      .select(
-        'a.id',
-        'a.at',
-        'a.actor_id',
-        'u.name as actor_name',
-        'a.action',
-        'a.object_type',
-        'a.object_id',
-        'a.details',
-      )) as {
-      id: number;
-      at: Date;
-      actor_id: number | null;
-      actor_name: string | null;
-      action: string;
-      object_type: string;
-      object_id: number | null;
-      details: unknown;
-    }[];
-    return rows.map((r) => ({
-      id: Number(r.id),
-      at: new Date(r.at).toISOString(),
-      actor: r.actor_id === null ? null : { id: r.actor_id, name: r.actor_name ?? '(removed)' },
-      action: r.action,
-      objectType: r.object_type,
-      objectId: r.object_id === null ? null : Number(r.object_id),
-      details: readJson<Record<string, unknown>>(r.details),
-    }));
+      .select(...ACTIVITY_COLUMNS)) as ActivityRow[];
+    return rows.map(activityEntryOf);
   },
 };

@@ -122,6 +122,60 @@ function checkerIsAuthor(rev: RevisionRecord, doing: string): AppError {
   );
 }
 
+/** The revision and its sheet for a checker's action; 403 when the checker issued it. */
+async function checkerAccess(
+  deps: ReviewDeps,
+  user: User,
+  revisionId: number,
+  doing: string,
+): Promise<{ rev: RevisionRecord; sheet: SheetContext }> {
+  const { rev, sheet } = await revisionAccess(
+    deps,
+    user,
+    revisionId,
+    ['checker'],
+    `${doing} a revision`,
+  );
+  if (rev.issuedBy.id === user.id) throw checkerIsAuthor(rev, doing);
+  return { rev, sheet };
+}
+
+type Trx = Parameters<typeof revisionsRepository.lockStatus>[0];
+
+/** Locks the revision's row and refuses (409 `code`) unless its status is `wanted`. */
+export async function lockStatusIs(
+  trx: Trx,
+  rev: RevisionRecord,
+  wanted: RevisionRecord['status'],
+  needed: string,
+  code: string,
+): Promise<void> {
+  const status = await revisionsRepository.lockStatus(trx, rev.id);
+  if (status !== wanted) {
+    throw wrongState({ number: rev.number, status: status ?? rev.status }, needed, code);
+  }
+}
+
+/** The sheet's new status and the checker's activity entry, inside the action's transaction. */
+async function recordCheck(
+  trx: Trx,
+  user: User,
+  sheet: SheetContext,
+  rev: RevisionRecord,
+  sheetStatus: 'returned' | 'checked',
+  action: 'revision.returned' | 'revision.signed_off',
+): Promise<void> {
+  await reviewRepository.setSheetStatus(trx, sheet.id, sheetStatus);
+  await recordReviewActivity(trx, {
+    actorId: user.id,
+    projectId: sheet.projectId,
+    action,
+    objectType: 'revision',
+    objectId: rev.id,
+    details: { sheetId: sheet.id, revisionNumber: rev.number },
+  });
+}
+
 async function emails(
   deps: ReviewDeps,
   projectId: number,
@@ -270,34 +324,18 @@ export const revisionsService = {
 
   /** Return (checker, not the author): the revision goes back; the author edits the draft. */
   async returnRevision(deps: ReviewDeps, user: User, revisionId: number): Promise<RevisionSummary> {
-    const { rev, sheet } = await revisionAccess(
-      deps,
-      user,
-      revisionId,
-      ['checker'],
-      'return a revision',
-    );
-    if (rev.issuedBy.id === user.id) throw checkerIsAuthor(rev, 'return');
+    const { rev, sheet } = await checkerAccess(deps, user, revisionId, 'return');
     const at = new Date();
     await deps.db.transaction(async (trx) => {
-      const status = await revisionsRepository.lockStatus(trx, rev.id);
-      if (status !== 'in_check') {
-        throw wrongState(
-          { number: rev.number, status: status ?? rev.status },
-          'only a revision in check can be returned',
-          'REVISION_NOT_IN_CHECK',
-        );
-      }
+      await lockStatusIs(
+        trx,
+        rev,
+        'in_check',
+        'only a revision in check can be returned',
+        'REVISION_NOT_IN_CHECK',
+      );
       await revisionsRepository.markReturned(trx, rev.id, user.id, at);
-      await reviewRepository.setSheetStatus(trx, sheet.id, 'returned');
-      await recordReviewActivity(trx, {
-        actorId: user.id,
-        projectId: sheet.projectId,
-        action: 'revision.returned',
-        objectType: 'revision',
-        objectId: rev.id,
-        details: { sheetId: sheet.id, revisionNumber: rev.number },
-      });
+      await recordCheck(trx, user, sheet, rev, 'returned', 'revision.returned');
     });
     const open = await remarksRepository.countNotClosed(deps.db, rev.id);
     await sendAfterCommit(
@@ -313,24 +351,16 @@ export const revisionsService = {
 
   /** Sign off (checker, not the author): every remark of the revision must be closed. */
   async signOff(deps: ReviewDeps, user: User, revisionId: number): Promise<RevisionSummary> {
-    const { rev, sheet } = await revisionAccess(
-      deps,
-      user,
-      revisionId,
-      ['checker'],
-      'sign off a revision',
-    );
-    if (rev.issuedBy.id === user.id) throw checkerIsAuthor(rev, 'sign off');
+    const { rev, sheet } = await checkerAccess(deps, user, revisionId, 'sign off');
     const at = new Date();
     await deps.db.transaction(async (trx) => {
-      const status = await revisionsRepository.lockStatus(trx, rev.id);
-      if (status !== 'in_check') {
-        throw wrongState(
-          { number: rev.number, status: status ?? rev.status },
-          'only a revision in check can be signed off',
-          'REVISION_NOT_IN_CHECK',
-        );
-      }
+      await lockStatusIs(
+        trx,
+        rev,
+        'in_check',
+        'only a revision in check can be signed off',
+        'REVISION_NOT_IN_CHECK',
+      );
       const notClosed = await remarksRepository.countNotClosed(trx, rev.id);
       if (notClosed > 0) {
         throw new AppError(
@@ -341,15 +371,7 @@ export const revisionsService = {
         );
       }
       await revisionsRepository.markChecked(trx, rev.id, user.id, at);
-      await reviewRepository.setSheetStatus(trx, sheet.id, 'checked');
-      await recordReviewActivity(trx, {
-        actorId: user.id,
-        projectId: sheet.projectId,
-        action: 'revision.signed_off',
-        objectType: 'revision',
-        objectId: rev.id,
-        details: { sheetId: sheet.id, revisionNumber: rev.number },
-      });
+      await recordCheck(trx, user, sheet, rev, 'checked', 'revision.signed_off');
     });
     await sendAfterCommit(
       deps,

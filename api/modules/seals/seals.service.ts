@@ -6,6 +6,7 @@ import { sealedMail } from '../revisions/review-mail';
 import { recordReviewActivity, sendAfterCommit, type ReviewDeps } from '../revisions/review-deps';
 import { reviewRepository } from '../revisions/review.repository';
 import {
+  lockStatusIs,
   revisionAccess,
   sealView,
   sheetOf,
@@ -181,14 +182,13 @@ export const sealsService = {
       code = generateSealCode();
       try {
         superseded = await deps.db.transaction(async (trx) => {
-          const status = await revisionsRepository.lockStatus(trx, rev.id);
-          if (status !== 'checked') {
-            throw wrongState(
-              { number: rev.number, status: status ?? rev.status },
-              'only a revision the checker has signed off can be sealed',
-              'NOT_SIGNED_OFF',
-            );
-          }
+          await lockStatusIs(
+            trx,
+            rev,
+            'checked',
+            'only a revision the checker has signed off can be sealed',
+            'NOT_SIGNED_OFF',
+          );
           await reviewRepository.lockSheet(trx, sheet.id);
           const earlier = await revisionsRepository.supersedeEarlier(
             trx,

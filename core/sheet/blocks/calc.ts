@@ -3,20 +3,18 @@
  * the formula as LaTeX, the formula with values substituted, and the result in a display unit.
  */
 import type { MathNode } from 'mathjs';
-import { EngineError } from '../../errors';
 import {
   checkSize,
   evaluateNode,
   formatContext,
   isUnitName,
   parseExpression,
-  report,
   writtenUnits,
   type EvalContext,
 } from '../context';
 import { formatValue } from '../format';
 import { expressionTex, latexName, substitutionTex } from '../latex';
-import { blockLines, splitComment } from '../source';
+import { evaluateStatements } from './statements';
 import type { CalcBlockResult, CalcLineResult, SheetBlock } from '../types';
 
 /** The name an assignment defines (`k = …`, `K[1,1] = …`, `f(x) = …`), or null. */
@@ -101,14 +99,8 @@ export function evaluateCalcBlock(
   blockIndex: number,
 ): CalcBlockResult {
   const lines: CalcLineResult[] = [];
-  let ok = true;
-  blockLines(block.source).forEach((raw, i) => {
-    const line = i + 1;
-    const { code, comment } = splitComment(raw);
-    if (code.trim() === '') return;
-    let node: MathNode | null = null;
-    try {
-      node = parseExpression(ctx, code);
+  const ok = evaluateStatements(ctx, block, blockIndex, {
+    evaluate(node, code, line, comment) {
       const name = assignedName(node);
       try {
         lines.push(evaluateCalcLine(ctx, code, line, comment));
@@ -117,16 +109,12 @@ export function evaluateCalcBlock(
         if (name) ctx.failed.set(name, { blockId: block.id, blockIndex, line });
         throw err;
       }
-    } catch (err) {
-      ok = false;
-      if (err instanceof EngineError && err.code === 'CANCELLED') throw err;
-      if (!node) {
-        // Unparsable: a line that looks like `name = …` still defines (a failed) name.
-        const m = /^\s*([A-Za-z_][A-Za-z0-9_]*)\s*=[^=]/.exec(code);
-        if (m) ctx.failed.set(m[1]!, { blockId: block.id, blockIndex, line });
-      }
-      report(ctx, { blockId: block.id, blockIndex, line }, err, node);
-    }
+    },
+    unparsed(code, line) {
+      // Unparsable: a line that looks like `name = …` still defines (a failed) name.
+      const m = /^\s*([A-Za-z_][A-Za-z0-9_]*)\s*=[^=]/.exec(code);
+      if (m) ctx.failed.set(m[1]!, { blockId: block.id, blockIndex, line });
+    },
   });
   return { kind: 'calc', blockId: block.id, blockIndex, ok, lines };
 }

@@ -9,13 +9,12 @@ import {
   formatContext,
   isUnitName,
   parseExpression,
-  report,
   writtenUnits,
   type EvalContext,
 } from '../context';
 import { formatValue } from '../format';
 import { expressionTex } from '../latex';
-import { blockLines, splitComment } from '../source';
+import { evaluateStatements } from './statements';
 import type { CriteriaBlockResult, CriterionResult, SheetBlock } from '../types';
 
 const COMPARISONS = new Set(['larger', 'smaller', 'largerEq', 'smallerEq', 'equal', 'unequal']);
@@ -87,20 +86,10 @@ export function evaluateCriteriaBlock(
   blockIndex: number,
 ): CriteriaBlockResult {
   const criteria: CriterionResult[] = [];
-  let ok = true;
-  blockLines(block.source).forEach((raw, i) => {
-    const line = i + 1;
-    const { code, comment } = splitComment(raw);
-    if (code.trim() === '') return;
-    let node: MathNode | null = null;
-    try {
-      node = parseExpression(ctx, code);
+  const ok = evaluateStatements(ctx, block, blockIndex, {
+    evaluate(_node, code, line, comment) {
       criteria.push(evaluateCriterion(ctx, code, line, comment));
-    } catch (err) {
-      if (err instanceof EngineError && err.code === 'CANCELLED') throw err;
-      ok = false;
-      report(ctx, { blockId: block.id, blockIndex, line }, err, node);
-    }
+    },
   });
   return { kind: 'criteria', blockId: block.id, blockIndex, ok, criteria };
 }

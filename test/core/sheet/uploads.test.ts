@@ -73,7 +73,9 @@ describe('matrix blocks from uploads', () => {
     );
     expect(r.errors).toHaveLength(1);
     expect(r.errors[0]).toMatchObject({ blockId: 'k', line: 3, code: 'MATRIX_FILE_INVALID' });
-    expect(r.errors[0]!.message).toBe('notes.txt, line 1: "Storey" is not a number.');
+    expect(r.errors[0]!.message).toBe(
+      "notes.txt, line 1: entry (1, 1) 'Storey stiffnesses from the frame model' is not a number.",
+    );
   });
 
   it('refuses a Matrix Market file with an entry outside the matrix', () => {
@@ -83,7 +85,7 @@ describe('matrix blocks from uploads', () => {
       { uploads: [{ name: 'k.mtx', text }] },
     );
     expect(r.errors[0]!.message).toBe(
-      'k.mtx, line 3: the position (3, 1) is outside the 2×2 matrix.',
+      'k.mtx, line 3: row index 3 is out of range 1…2 given by the size line.',
     );
   });
 });
