@@ -2,7 +2,13 @@ import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { SMTPServer, type SMTPServerDataStream, type SMTPServerSession } from 'smtp-server';
 import { createMailer } from '../../api/mail/mailer';
-import { anonymous, createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
+import {
+  createSheetWithDraft,
+  anonymous,
+  createTeamApp,
+  type ApiClient,
+  type TestApp,
+} from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
 // Mail to whoever must act next (issue 7 item 9): with no MW_SMTP_URL every message lands in the
@@ -37,22 +43,14 @@ beforeAll(async () => {
     team,
     clients: { author, checker, principal, admin },
   } = await createTeamApp(['author', 'checker', 'principal', 'admin']));
-  const sheet = await author.post(`/api/projects/${team.project.id}/sheets`, {
-    number: `OB-${unique()}`,
-    title: 'Mail check',
-  });
-  sheetId = sheet.body.sheet.id;
-  const put = await author.agent
-    .put(`/api/sheets/${sheetId}/draft`)
-    .set('X-CSRF-Token', author.csrfToken)
-    .set('If-Match', `"${sheet.body.sheet.draftVersion}"`)
-    .send({
-      blocks: [
-        { id: 'calc', kind: 'calc', source: 'k = 24 kN/mm\nm = 18 t\nf = sqrt(k/m)/(2 pi)' },
-      ],
-      settings: { significantFigures: 4 },
-    });
-  expect(put.status).toBe(200);
+  sheetId = (
+    await createSheetWithDraft(
+      author,
+      team.project.id,
+      { number: `OB-${unique()}`, title: 'Mail check' },
+      [{ id: 'calc', kind: 'calc', source: 'k = 24 kN/mm\nm = 18 t\nf = sqrt(k/m)/(2 pi)' }],
+    )
+  ).id;
 });
 
 afterAll(async () => {

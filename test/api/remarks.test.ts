@@ -1,5 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { anonymous, createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
+import {
+  createSheetWithDraft,
+  anonymous,
+  createTeamApp,
+  type ApiClient,
+  type TestApp,
+} from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
 // Remarks (issue 7 item 3, server side): a checker remarks on a line, the author answers by
@@ -14,22 +20,13 @@ let viewer: ApiClient;
 let outsider: ApiClient;
 
 async function revisionInCheck(): Promise<number> {
-  const sheet = await author.post(`/api/projects/${team.project.id}/sheets`, {
-    number: `RM-${unique()}`,
-    title: 'Remarks',
-  });
-  const put = await author.agent
-    .put(`/api/sheets/${sheet.body.sheet.id}/draft`)
-    .set('X-CSRF-Token', author.csrfToken)
-    .set('If-Match', `"${sheet.body.sheet.draftVersion}"`)
-    .send({
-      blocks: [
-        { id: 'calc', kind: 'calc', source: 'k = 24 kN/mm\nm = 18 t\nf = sqrt(k/m)/(2 pi)' },
-      ],
-      settings: { significantFigures: 4 },
-    });
-  expect(put.status).toBe(200);
-  const rev = await author.post(`/api/sheets/${sheet.body.sheet.id}/revisions`, {
+  const sheet = await createSheetWithDraft(
+    author,
+    team.project.id,
+    { number: `RM-${unique()}`, title: 'Remarks' },
+    [{ id: 'calc', kind: 'calc', source: 'k = 24 kN/mm\nm = 18 t\nf = sqrt(k/m)/(2 pi)' }],
+  );
+  const rev = await author.post(`/api/sheets/${sheet.id}/revisions`, {
     purpose: 'For check',
   });
   expect(rev.status).toBe(201);

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
+import { saveDraft, createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
 // Compare (issue 7 item 4) and the print payload (item 8), server side.
@@ -17,19 +17,10 @@ const crit = 'f >= 5.5 Hz  # walking comfort, vertical (common practice)';
 const calc2 = '# mass with finishes\nk = 24 kN/mm\nm = 24 t\nf = sqrt(k/m)/(2 pi)';
 
 async function putDraft(sheetId: number, calc: string): Promise<void> {
-  const current = await author.get(`/api/sheets/${sheetId}`);
-  const res = await author.agent
-    .put(`/api/sheets/${sheetId}/draft`)
-    .set('X-CSRF-Token', author.csrfToken)
-    .set('If-Match', `"${current.body.sheet.draftVersion}"`)
-    .send({
-      blocks: [
-        { id: 'calc', kind: 'calc', source: calc },
-        { id: 'crit', kind: 'criteria', source: crit },
-      ],
-      settings: { significantFigures: 4 },
-    });
-  expect(res.status, JSON.stringify(res.body)).toBe(200);
+  await saveDraft(author, sheetId, [
+    { id: 'calc', kind: 'calc', source: calc },
+    { id: 'crit', kind: 'criteria', source: crit },
+  ]);
 }
 
 let sheetId: number;

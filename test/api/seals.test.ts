@@ -1,6 +1,13 @@
 import { createHash, createPublicKey, verify as verifySignature } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTeamApp, signedIn, type ApiClient, type TestApp } from '../support/api-app';
+import {
+  createSheetWithDraft,
+  saveDraft,
+  createTeamApp,
+  signedIn,
+  type ApiClient,
+  type TestApp,
+} from '../support/api-app';
 import { addMember, createProjectTeam, createUser, unique } from '../support/factories';
 import {
   up as contentTriggerUp,
@@ -22,24 +29,14 @@ const blocks = [
   { id: 'crit', kind: 'criteria', source: 'f >= 3 Hz  # walking comfort (common practice)' },
 ];
 
-async function putDraft(sheetId: number, source: typeof blocks): Promise<void> {
-  const current = await author.get(`/api/sheets/${sheetId}`);
-  const res = await author.agent
-    .put(`/api/sheets/${sheetId}/draft`)
-    .set('X-CSRF-Token', author.csrfToken)
-    .set('If-Match', `"${current.body.sheet.draftVersion}"`)
-    .send({ blocks: source, settings: { significantFigures: 4 } });
-  expect(res.status, JSON.stringify(res.body)).toBe(200);
-}
-
 async function newSheet(): Promise<number> {
-  const res = await author.post(`/api/projects/${team.project.id}/sheets`, {
-    number: `SL-${unique()}`,
-    title: 'Storey frequency',
-  });
-  expect(res.status).toBe(201);
-  await putDraft(res.body.sheet.id, blocks);
-  return res.body.sheet.id;
+  const sheet = await createSheetWithDraft(
+    author,
+    team.project.id,
+    { number: `SL-${unique()}`, title: 'Storey frequency' },
+    blocks,
+  );
+  return sheet.id;
 }
 
 /** Issues the draft and has the checker sign it off; returns the revision id. */
@@ -224,7 +221,7 @@ describe('POST /api/revisions/:revisionId/seal', () => {
       password: team.principal.password,
     });
     expect(s1.status).toBe(200);
-    await putDraft(sheetId, [
+    await saveDraft(author, sheetId, [
       blocks[0]!,
       { ...blocks[1]!, source: 'f >= 5 Hz  # EN 1990 A2 vertical (from memory)' },
     ]);

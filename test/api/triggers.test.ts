@@ -1,5 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
+import {
+  createSheetWithDraft,
+  createTeamApp,
+  type ApiClient,
+  type TestApp,
+} from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 import * as contentTrigger from '../../migrations/20261203000700_revisions_content_immutable';
 import * as sealedUpdateTrigger from '../../migrations/20261203000710_sealed_revisions_refuse_update';
@@ -28,22 +33,12 @@ const triggers = [
 ];
 
 async function sealedRevision(): Promise<{ sheetId: number; revId: number; code: string }> {
-  const sheet = await author.post(`/api/projects/${team.project.id}/sheets`, {
-    number: `TG-${unique()}`,
-    title: 'Trigger check',
-  });
-  const id = sheet.body.sheet.id as number;
-  const put = await author.agent
-    .put(`/api/sheets/${id}/draft`)
-    .set('X-CSRF-Token', author.csrfToken)
-    .set('If-Match', `"${sheet.body.sheet.draftVersion}"`)
-    .send({
-      blocks: [
-        { id: 'calc', kind: 'calc', source: 'k = 24 kN/mm\nm = 18 t\nf = sqrt(k/m)/(2 pi)' },
-      ],
-      settings: { significantFigures: 4 },
-    });
-  expect(put.status).toBe(200);
+  const { id } = await createSheetWithDraft(
+    author,
+    team.project.id,
+    { number: `TG-${unique()}`, title: 'Trigger check' },
+    [{ id: 'calc', kind: 'calc', source: 'k = 24 kN/mm\nm = 18 t\nf = sqrt(k/m)/(2 pi)' }],
+  );
   const rev = await author.post(`/api/sheets/${id}/revisions`, { purpose: 'For construction' });
   expect(rev.status).toBe(201);
   expect((await checker.post(`/api/revisions/${rev.body.revision.id}/sign-off`)).status).toBe(200);
@@ -133,20 +128,13 @@ describe('triggers on revisions and seals', () => {
   });
 
   it('refuses a change of content on a revision that is only in check', async () => {
-    const sheet = await author.post(`/api/projects/${team.project.id}/sheets`, {
-      number: `TG-${unique()}`,
-      title: 'In check',
-    });
-    const put = await author.agent
-      .put(`/api/sheets/${sheet.body.sheet.id}/draft`)
-      .set('X-CSRF-Token', author.csrfToken)
-      .set('If-Match', `"${sheet.body.sheet.draftVersion}"`)
-      .send({
-        blocks: [{ id: 'calc', kind: 'calc', source: 'k = 2 kN/mm' }],
-        settings: { significantFigures: 4 },
-      });
-    expect(put.status).toBe(200);
-    const rev = await author.post(`/api/sheets/${sheet.body.sheet.id}/revisions`, {
+    const sheet = await createSheetWithDraft(
+      author,
+      team.project.id,
+      { number: `TG-${unique()}`, title: 'In check' },
+      [{ id: 'calc', kind: 'calc', source: 'k = 2 kN/mm' }],
+    );
+    const rev = await author.post(`/api/sheets/${sheet.id}/revisions`, {
       purpose: 'For check',
     });
     expect(rev.status).toBe(201);

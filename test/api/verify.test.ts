@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {
+  saveDraft,
   anonymous,
   createTeamApp,
   createTestApp,
@@ -20,13 +21,7 @@ let principal: ApiClient;
 let sheet: { id: number; number: string };
 
 async function sealNext(source: string): Promise<string> {
-  const current = await author.get(`/api/sheets/${sheet.id}`);
-  const put = await author.agent
-    .put(`/api/sheets/${sheet.id}/draft`)
-    .set('X-CSRF-Token', author.csrfToken)
-    .set('If-Match', `"${current.body.sheet.draftVersion}"`)
-    .send({ blocks: [{ id: 'calc', kind: 'calc', source }], settings: { significantFigures: 4 } });
-  expect(put.status).toBe(200);
+  await saveDraft(author, sheet.id, [{ id: 'calc', kind: 'calc', source }]);
   const rev = await author.post(`/api/sheets/${sheet.id}/revisions`, {
     purpose: 'For construction',
   });
