@@ -145,7 +145,7 @@ export function sheetBeam(props: unknown): Record<string, unknown> {
   const fn = 'beam';
   const p = propsOf(
     props,
-    'beam',
+    fn,
     'beam: give the properties as an object: beam({E: 210 GPa, I: 0.012 m^4, mass: 1.2 t/m, length: 32 m, elements: 20, ends: "pinned-pinned"}).',
     BEAM_KEYS,
     ['E', 'I', 'mass', 'length', 'elements', 'ends'],
@@ -244,7 +244,7 @@ export function sheetPlaneFrame(props: unknown): Record<string, unknown> {
   const fn = 'plane_frame';
   const p = propsOf(
     props,
-    'plane_frame',
+    fn,
     'plane_frame: give the frame as an object: plane_frame({nodes: [0 m, 0 m; 0 m, 3.5 m], members: [1, 2], E: 210 GPa, A: 5.4e-3 m^2, I: 8.4e-5 m^4, mass: 42 kg/m, fixed: [1]}).',
     FRAME_KEYS,
     ['nodes', 'members', 'E', 'A', 'I', 'mass'],
