@@ -7,3 +7,5 @@ export * from './shifted-inverse-iteration';
 export * from './forward-iteration';
 export * from './modal-quantities';
 export * from './solve-modes';
+export * from './lanczos';
+export * from './subspace-iteration';

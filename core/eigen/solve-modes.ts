@@ -206,10 +206,15 @@ export function solveModes(
       noteParts.push(
         `auto: ${n} DOFs ≤ ${AUTO_DENSE_LIMIT}, so the dense method computes every mode.`,
       );
+    } else if (K.kind === 'sparse-symmetric') {
+      method = 'lanczos';
+      noteParts.push(
+        `auto: ${n} DOFs > ${AUTO_DENSE_LIMIT} in sparse storage, so shift-invert Lanczos finds the lowest ${opts.count}.`,
+      );
     } else {
       method = 'inverse';
       noteParts.push(
-        `auto: ${n} DOFs > ${AUTO_DENSE_LIMIT} (${K.kind === 'dense' ? 'dense' : 'sparse'} storage), so inverse iteration finds the lowest ${opts.count}.`,
+        `auto: ${n} DOFs > ${AUTO_DENSE_LIMIT} (dense storage), so inverse iteration finds the lowest ${opts.count}.`,
       );
     }
   } else {

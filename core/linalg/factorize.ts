@@ -5,6 +5,7 @@
 import { EngineError } from '../errors';
 import { assertDenseSymmetric, denseLDLT } from './dense';
 import { skylineLDLT } from './skyline';
+import { factorizeSparseLdlt } from './sparse-ldlt/index';
 import { matrixSize, symmetricMultiply } from './sparse';
 import type {
   DenseMatrix,
@@ -19,8 +20,9 @@ export interface FactorizeOptions {
 }
 
 /**
- * Factorizes a symmetric matrix as L D Lᵀ: dense storage → dense LDLᵀ; sparse storage → skyline
- * LDLᵀ with a reverse Cuthill–McKee ordering ('auto' keeps whichever profile is smaller).
+ * Factorizes a symmetric matrix as L D Lᵀ: dense storage → dense LDLᵀ; sparse storage → the
+ * fill-reducing sparse LDLᵀ (nested dissection, multifrontal; `sparse-ldlt/README.md`), or with
+ * `ordering: 'rcm' | 'natural'` the skyline LDLᵀ with that band ordering.
  * The factorization's `negativePivots` is the Sturm count (Sylvester's law of inertia).
  * @throws EngineError ZERO_PIVOT with `details.dof` (1-based) on a singular matrix.
  * @example const F = factorizeSymmetric(combine(K, 1, M, -sigma)); F.negativePivots
@@ -30,7 +32,11 @@ export function factorizeSymmetric(
   options: FactorizeOptions = {},
 ): SymmetricFactorization {
   if (A.kind === 'dense') return denseLDLT(A);
-  return skylineLDLT(A, { ordering: options.ordering ?? 'auto' });
+  // The fill-reducing sparse LDLᵀ is the default; an explicit band ordering asks for the skyline.
+  if (options.ordering === 'rcm' || options.ordering === 'natural') {
+    return skylineLDLT(A, { ordering: options.ordering });
+  }
+  return factorizeSparseLdlt(A);
 }
 
 /**

@@ -7,3 +7,4 @@ export * from './ordering';
 export * from './skyline';
 export * from './factorize';
 export * from './matrix-io';
+export * from './sparse-ldlt/index';

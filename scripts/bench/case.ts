@@ -4,13 +4,14 @@
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { CholeskyDecomposition, EigenvalueDecomposition, Matrix, solve } from 'ml-matrix';
-import { denseEigensolver, diagonalOf, type SparseSymmetricMatrix } from '../../core/index';
-// The integrator re-exports these from core/index.ts (issue 4); until then the bench reaches them
-// directly.
-// eslint-disable-next-line import-x/no-restricted-paths
-import { lanczos, type LanczosSturm } from '../../core/eigen/lanczos';
-// eslint-disable-next-line import-x/no-restricted-paths
-import { createShiftedPencil } from '../../core/linalg/sparse-ldlt/index';
+import {
+  createShiftedPencil,
+  denseEigensolver,
+  diagonalOf,
+  lanczos,
+  type LanczosSturm,
+  type SparseSymmetricMatrix,
+} from '../../core/index';
 import { writeMatrixMarket } from './matrix-market';
 import { PROBLEMS } from './problems';
 

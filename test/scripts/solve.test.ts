@@ -58,7 +58,7 @@ describe('scripts/solve.ts', () => {
     expect(r.status, r.stderr).toBe(0);
     const out = JSON.parse(r.stdout);
     expect(out.n).toBe(N);
-    expect(out.method).toBe('inverse');
+    expect(out.method).toBe('lanczos');
     expect(out.modes).toHaveLength(10);
     out.modes.forEach((mode: Record<string, number>, i: number) => {
       for (const key of ['lambda', 'omega', 'frequencyHz', 'periodS', 'residual', 'iterations'])

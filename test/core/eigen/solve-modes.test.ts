@@ -192,13 +192,13 @@ describe('solveModes refusals (DESIGN.md §5)', () => {
 });
 
 describe('solveModes results', () => {
-  it('auto picks dense for small models and inverse for large ones, and says so', () => {
+  it('auto picks dense for small models and Lanczos for large sparse ones, and says so', () => {
     const small = chain(10);
     expect(solveModes(small.K, small.M, { count: 3 }).methodNote).toMatch(/auto: 10 DOFs ≤ 400/);
     const big = chain(800);
     const r = solveModes(big.K, big.M, { count: 2 });
-    expect(r.method).toBe('inverse');
-    expect(r.methodNote).toMatch(/auto: 800 DOFs > 400/);
+    expect(r.method).toBe('lanczos');
+    expect(r.methodNote).toMatch(/auto: 800 DOFs > 400 in sparse storage/);
     const s = solveModes(big.K, big.M, { count: 1, shift: 1e-3 });
     expect(s.method).toBe('shifted');
   });
@@ -280,7 +280,7 @@ describe('solveModes results', () => {
     const N = 20000;
     const { K, M } = chain(N);
     const r = solveModes(K, M, { count: 10 });
-    expect(r.method).toBe('inverse');
+    expect(r.method).toBe('lanczos');
     r.modes.forEach((m, i) => {
       const exact = 4 * Math.sin(((2 * i + 1) * Math.PI) / (2 * (2 * N + 1))) ** 2;
       expect(Math.abs(m.lambda - exact) / exact).toBeLessThan(1e-9);

@@ -121,7 +121,8 @@ describe('dense and skyline factorizations', () => {
     // a chain in the best order has profile 2N − 1 (one off-diagonal per row)
     expect(profileSize(K, reverseCuthillMcKee(K))).toBe(2 * N - 1);
     expect(profileSize(K)).toBeGreaterThan(10 * N);
-    const F = factorizeSymmetric(K);
+    const F = factorizeSymmetric(K, { ordering: 'rcm' });
+    expect(F.method).toBe('skyline-ldlt');
     expect(F.factorNonzeros).toBe(2 * N - 1);
     const x = Float64Array.from({ length: N }, (_, i) => i % 7);
     const y = F.solve(symmetricMultiply(K, x));
