@@ -118,6 +118,12 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     );
 
     const api = express.Router();
+    // API answers are never cached: a sheet's status changes without its draft version, so a
+    // revalidated copy (ETag → 304) would show a stale status.
+    api.use((_req, res, next) => {
+      res.set('Cache-Control', 'no-store');
+      next();
+    });
     api.use(csrfProtection);
     api.use(loadSessionUser(db));
     api.use('/auth', createAuthRouter(ctx));
