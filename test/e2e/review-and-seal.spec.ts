@@ -19,15 +19,15 @@ import { addBlock, newSheet, RUN, setSource, waitForResults, waitSaved } from '.
 // A single-degree-of-freedom oscillator: f = √(k/m) / 2π (closed form, any dynamics text).
 const K = 2000; // kN/m
 const M = 5; // t
-const REV1 = ['k = 2000 kN/m  # spring', 'm = 5 t  # mass', 'f = sqrt(k / m) / (2 * pi)'].join(
+const REV1 = ['k = 2000 kN/m  # spring', 'm_s = 5 t  # mass', 'f = sqrt(k / m_s) / (2 * pi)'].join(
   '\n',
 );
 // Rev 2 inserts a line above the remarked line 3, which then is line 4.
 const REV2 = [
   'k = 2000 kN/m  # spring',
-  'm = 5 t  # mass',
+  'm_s = 5 t  # mass',
   'g = 9.81 m/s^2  # for the static deflection',
-  'f = sqrt(k / m) / (2 * pi)',
+  'f = sqrt(k / m_s) / (2 * pi)',
 ].join('\n');
 
 describe('review and seal, the whole flow (browser)', () => {

@@ -12,10 +12,78 @@ import {
   writtenUnits,
   type EvalContext,
 } from '../context';
+import { EngineError } from '../../errors';
 import { formatValue } from '../format';
 import { expressionTex, latexName, substitutionTex } from '../latex';
 import { evaluateStatements } from './statements';
 import type { CalcBlockResult, CalcLineResult, SheetBlock } from '../types';
+
+/**
+ * Unit symbols that a value of the same name hides. mathjs looks a name up before the unit of the
+ * same spelling, so after `m = 5 t` the line `g = 9.81 m/s^2` would silently multiply by the mass:
+ * a wrong number that looks right. A number followed by such a name (`9.81 m`) is written as a
+ * unit, so when the name is also a value in scope the line is refused, naming both readings.
+ */
+const UNIT_NAMES: Record<string, string> = {
+  m: 'the metre',
+  mm: 'the millimetre',
+  cm: 'the centimetre',
+  km: 'the kilometre',
+  s: 'the second',
+  ms: 'the millisecond',
+  min: 'the minute',
+  h: 'the hour',
+  kg: 'the kilogram',
+  t: 'the tonne',
+  g: 'the gram',
+  N: 'the newton',
+  kN: 'the kilonewton',
+  MN: 'the meganewton',
+  Pa: 'the pascal',
+  kPa: 'the kilopascal',
+  MPa: 'the megapascal',
+  GPa: 'the gigapascal',
+  Hz: 'the hertz',
+  rad: 'the radian',
+  deg: 'the degree',
+  rpm: 'revolutions per minute',
+};
+
+/** Does the expression write a unit (a unit symbol that no value hides)? */
+function writesUnit(ctx: EvalContext, node: MathNode): boolean {
+  let found = false;
+  node.traverse((n) => {
+    if (n.type !== 'SymbolNode') return;
+    const name = (n as unknown as { name: string }).name;
+    if (!ctx.scope.has(name) && isUnitName(ctx, name)) found = true;
+  });
+  return found;
+}
+
+/**
+ * Refuses `9.81 m/s^2` or `2000 kN/m` while `m` names a value: a number or a unit followed by the
+ * name is unit notation, and the engineer meant the unit.
+ */
+export function refuseHiddenUnits(ctx: EvalContext, node: MathNode): void {
+  node.traverse((n) => {
+    const op = n as unknown as { type: string; implicit?: boolean; fn?: string; args?: MathNode[] };
+    if (op.type !== 'OperatorNode' || (op.fn !== 'multiply' && op.fn !== 'divide')) return;
+    const [a, b] = op.args ?? [];
+    if (!a || b?.type !== 'SymbolNode') return;
+    const name = (b as unknown as { name: string }).name;
+    const unit = Object.hasOwn(UNIT_NAMES, name) ? UNIT_NAMES[name] : undefined;
+    if (!unit || !ctx.scope.has(name)) return;
+    const unitNotation = (op.implicit === true && a.type === 'ConstantNode') || writesUnit(ctx, a);
+    if (unitNotation) {
+      throw new EngineError(
+        'SHEET_EVAL',
+        `"${name}" here reads as ${unit}, but a value named ${name} is defined above and would ` +
+          `be used instead. Rename that value (for example ${name}_1) so ${name} means ${unit}.`,
+        { name },
+      );
+    }
+  });
+}
 
 /** The name an assignment defines (`k = …`, `K[1,1] = …`, `f(x) = …`), or null. */
 export function assignedName(node: MathNode): string | null {
@@ -53,6 +121,7 @@ export function evaluateCalcLine(
 ): CalcLineResult {
   const node = parseExpression(ctx, code);
   const name = assignedName(node);
+  refuseHiddenUnits(ctx, node);
   const rhs: MathNode =
     node.type === 'AssignmentNode' ? (node as unknown as { value: MathNode }).value : node;
   // LaTeX before evaluating, so substituted values are the ones this line used.

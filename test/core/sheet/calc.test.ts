@@ -32,8 +32,8 @@ describe('calc blocks: values and units', () => {
     // 1 t = 1000 kg (SI brochure, non-SI units accepted for use with SI).
     {
       what: 't to kg',
-      setup: 'm = 18 t',
-      line: 'm to kg',
+      setup: 'm_1 = 18 t',
+      line: 'm_1 to kg',
       value: 18 * 1000,
       unit: 'kg',
       tol: 1e-12,
@@ -50,8 +50,8 @@ describe('calc blocks: values and units', () => {
     // Closed form f = √(k/m)/(2π) with k = 24e6 N/m, m = 18e3 kg.
     {
       what: 'frequency of a spring and mass shown in Hz',
-      setup: 'k = 24 kN/mm\nm = 18 t',
-      line: 'f = sqrt(k/m)/(2 pi)',
+      setup: 'k = 24 kN/mm\nm_1 = 18 t',
+      line: 'f = sqrt(k/m_1)/(2 pi)',
       value: Math.sqrt(24e6 / 18e3) / (2 * Math.PI),
       unit: 'Hz',
       tol: 1e-12,
@@ -59,8 +59,8 @@ describe('calc blocks: values and units', () => {
     // ω = √(k/m) in rad/s for names starting with omega (display rule of core/sheet/format.ts).
     {
       what: 'omega shown in rad/s',
-      setup: 'k = 24 kN/mm\nm = 18 t',
-      line: 'omega = sqrt(k/m)',
+      setup: 'k = 24 kN/mm\nm_1 = 18 t',
+      line: 'omega = sqrt(k/m_1)',
       value: Math.sqrt(24e6 / 18e3),
       unit: 'rad/s',
       tol: 1e-12,
@@ -87,7 +87,7 @@ describe('calc blocks: values and units', () => {
     {
       what: 'stress simplified to MPa',
       setup: 'F = 48 kN',
-      line: 's = F / (40 mm * 100 mm)',
+      line: 'sigma = F / (40 mm * 100 mm)',
       value: 48e3 / (0.04 * 0.1) / 1e6,
       unit: 'MPa',
       tol: 1e-12,
@@ -169,8 +169,10 @@ describe('calc blocks: values and units', () => {
 
   it("shows the result to the sheet's significant figures", () => {
     // √(24e6/18e3)/(2π) = 5.8115… Hz (closed form above).
-    expect(calc('k = 24 kN/mm\nm = 18 t\nf = sqrt(k/m)/(2 pi)').line(3)!.display).toBe('5.812 Hz');
-    expect(calc('k = 24 kN/mm\nm = 18 t\nf = sqrt(k/m)/(2 pi)', 6).line(3)!.display).toBe(
+    expect(calc('k = 24 kN/mm\nm_1 = 18 t\nf = sqrt(k/m_1)/(2 pi)').line(3)!.display).toBe(
+      '5.812 Hz',
+    );
+    expect(calc('k = 24 kN/mm\nm_1 = 18 t\nf = sqrt(k/m_1)/(2 pi)', 6).line(3)!.display).toBe(
       '5.81152 Hz',
     );
   });
@@ -229,6 +231,21 @@ describe('calc blocks: errors at the right line', () => {
     expect(r.errors[0]!.message).toBe('Unknown name "k2" — did you mean "k_2"?');
   });
 
+  it('refuses a unit hidden by a value of the same name (m = 5 t, then 9.81 m/s^2)', () => {
+    // mathjs resolves a name before the unit of the same spelling; 9.81 m/s^2 would silently
+    // become 9.81 × 5 t / s^2.
+    const { r } = calc('m = 5 t\nk = 2000 kN/m\ng = 9.81 m/s^2');
+    // line 2 (2000 kN/m) and line 3 (9.81 m/s^2) both write the metre
+    expect(r.errors.map((e) => e.line)).toEqual([2, 3]);
+    expect(r.errors[0]).toMatchObject({ blockId: 'c1', line: 2, code: 'SHEET_EVAL' });
+    expect(r.errors[1]!.message).toMatch(/^"m" here reads as the metre, but a value named m/);
+    // k / m with m a value is ordinary arithmetic, not unit notation
+    expect(calc('m = 5 t\nk_1 = 2000 kN/mm\nw = sqrt(k_1 / m)').r.errors).toHaveLength(0);
+    const ok = calc('m_1 = 5 t\ng = 9.81 m/s^2');
+    expect(ok.r.errors).toHaveLength(0);
+    expect(ok.line(2)!.display).toBe('9.81 m/s^2');
+  });
+
   it('says which units do not match', () => {
     const { r } = calc('a = 3 kN\nb = 2 m\nc = a + b');
     expect(r.errors[0]).toMatchObject({ line: 3 });
@@ -236,7 +253,7 @@ describe('calc blocks: errors at the right line', () => {
   });
 
   it('reports division by zero', () => {
-    const { r } = calc('F = 3 kN\nA = 0 m^2\ns = F / A');
+    const { r } = calc('F = 3 kN\nA = 0 m^2\nsigma = F / A');
     expect(r.errors[0]).toMatchObject({ line: 3 });
     expect(r.errors[0]!.message).toMatch(/^Division by zero/);
   });
