@@ -159,6 +159,10 @@ export function RevisionList({
 const ACTION_WORDS: Record<string, string> = {
   'sheet.created': 'created the sheet',
   'sheet.updated': 'changed the sheet',
+  'sheet.renamed': 'renamed the sheet',
+  'sheet.draft_saved': 'saved the draft',
+  'sheet.deleted': 'deleted the sheet',
+  'upload.added': 'uploaded a matrix file',
   'revision.issued': 'issued a revision for check',
   'revision.returned': 'returned the revision',
   'revision.signed_off': 'signed off the revision',
@@ -197,7 +201,7 @@ export function SheetHistory({ sheetId }: { sheetId: number }) {
             </time>
             <span>
               <span className="font-medium">{entry.actor?.name ?? 'The system'}</span>{' '}
-              {ACTION_WORDS[entry.action] ?? entry.action}
+              {ACTION_WORDS[entry.action] ?? entry.action.replace(/[._]/g, ' ')}
               {typeof rev === 'number' ? ` (Rev ${rev})` : ''}
               {typeof reason === 'string' ? ` — ${reason}` : ''}
             </span>
