@@ -13,7 +13,13 @@ import { symmetricMultiply } from '../linalg/sparse';
 import type { SymmetricFactorization } from '../linalg/types';
 import { seededRandom } from './random';
 import type { MethodInput, RawEigenResult } from './types';
-import { checkCancelled, mOrthogonalize, pencilSize, startVector } from './vector-tools';
+import {
+  acceptMassNormalized,
+  checkCancelled,
+  mOrthogonalize,
+  pencilSize,
+  startVector,
+} from './vector-tools';
 
 const EPS = 2 ** -52;
 
@@ -138,19 +144,7 @@ export function forwardIteration(input: MethodInput): RawEigenResult {
         { mode: mode + 1, modesConverged: mode, iterations: it },
       );
     }
-    mOrthogonalize(x, phis, psis);
-    symmetricMultiply(M, x, mx);
-    xy = 0;
-    for (let i = 0; i < n; i++) xy += (x[i] as number) * (mx[i] as number);
-    c = 1 / Math.sqrt(xy);
-    const phi = new Float64Array(n);
-    const psi = new Float64Array(n);
-    for (let i = 0; i < n; i++) {
-      phi[i] = (x[i] as number) * c;
-      psi[i] = (mx[i] as number) * c;
-    }
-    phis.push(phi);
-    psis.push(psi);
+    const phi = acceptMassNormalized(M, x, mx, phis, psis);
     out.lambdas.push(history[history.length - 1] as number);
     out.vectors.push(phi);
     out.iterations.push(it);

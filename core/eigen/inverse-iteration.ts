@@ -16,7 +16,13 @@ import { symmetricMultiply } from '../linalg/sparse';
 import type { SymmetricFactorization } from '../linalg/types';
 import { seededRandom } from './random';
 import type { MethodInput, RawEigenResult } from './types';
-import { checkCancelled, mOrthogonalize, pencilSize, startVector } from './vector-tools';
+import {
+  acceptMassNormalized,
+  checkCancelled,
+  mOrthogonalize,
+  pencilSize,
+  startVector,
+} from './vector-tools';
 
 const EPS = 2 ** -52;
 
@@ -142,19 +148,7 @@ export function inverseIteration(input: MethodInput, label = 'inverse iteration'
       );
     }
     // final vector: M-orthogonalize once more (roundoff) and renormalize
-    mOrthogonalize(x, phis, psis);
-    symmetricMultiply(M, x, y);
-    let xy = 0;
-    for (let i = 0; i < n; i++) xy += (x[i] as number) * (y[i] as number);
-    const c = 1 / Math.sqrt(xy);
-    const phi = new Float64Array(n);
-    const psi = new Float64Array(n);
-    for (let i = 0; i < n; i++) {
-      phi[i] = (x[i] as number) * c;
-      psi[i] = (y[i] as number) * c;
-    }
-    phis.push(phi);
-    psis.push(psi);
+    const phi = acceptMassNormalized(M, x, y, phis, psis);
     result.lambdas.push(history[history.length - 1] as number);
     result.vectors.push(phi);
     result.iterations.push(it);

@@ -4,7 +4,7 @@
  */
 import { EngineError } from '../errors';
 import { combine, diagonalOf, factorizeSymmetric } from '../linalg/factorize';
-import { matrixSize } from '../linalg/sparse';
+import { matrixSize, symmetricMultiply } from '../linalg/sparse';
 import type { SymmetricMatrix } from '../linalg/types';
 
 /**
@@ -95,4 +95,33 @@ export function pencilSize(K: SymmetricMatrix, M: SymmetricMatrix): number {
     );
   }
   return n;
+}
+
+/**
+ * Accepts a converged iterate as a mode: M-orthogonalizes it once more against the modes already
+ * found (roundoff), scales it to φᵀMφ = 1, and appends φ and Mφ to `phis` and `psis` so the next
+ * modes deflate against it. `mx` is scratch of length n. Returns φ.
+ */
+export function acceptMassNormalized(
+  M: SymmetricMatrix,
+  x: Float64Array,
+  mx: Float64Array,
+  phis: Float64Array[],
+  psis: Float64Array[],
+): Float64Array {
+  const n = x.length;
+  mOrthogonalize(x, phis, psis);
+  symmetricMultiply(M, x, mx);
+  let xy = 0;
+  for (let i = 0; i < n; i++) xy += (x[i] as number) * (mx[i] as number);
+  const c = 1 / Math.sqrt(xy);
+  const phi = new Float64Array(n);
+  const psi = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    phi[i] = (x[i] as number) * c;
+    psi[i] = (mx[i] as number) * c;
+  }
+  phis.push(phi);
+  psis.push(psi);
+  return phi;
 }
