@@ -2,14 +2,14 @@ import { Table, Td, Th } from '../../../components/ui/table';
 import { Spinner } from '../../../components/ui/spinner';
 import { QueryError } from '../../../components/ui/alert';
 import { EmptyState } from '../../../components/ui/empty-state';
+import { FilterBar } from '../../../components/ui/filter-bar';
 import { Badge } from '../../../components/ui/badge';
-import { useId, useState } from 'react';
+import { useState } from 'react';
 import { useUsers } from '../api/get-users';
 
 export function UsersTable() {
   const users = useUsers();
   const [filter, setFilter] = useState('');
-  const filterId = useId();
 
   if (users.isPending) return <Spinner label="Loading people…" />;
   if (users.isError) {
@@ -26,26 +26,16 @@ export function UsersTable() {
 
   return (
     <>
-      <div className="mb-3 flex flex-wrap items-end gap-3">
-        <div className="flex flex-col gap-1">
-          <label htmlFor={filterId} className="text-sm font-medium">
-            Filter people
-          </label>
-          <input
-            id={filterId}
-            type="search"
-            value={filter}
-            onChange={(e) => setFilter(e.target.value)}
-            placeholder="Name or e-mail"
-            className="w-72 rounded-sm border border-rule-strong bg-paper-sheet px-2.5 py-1.5"
-          />
-        </div>
-        <p className="pb-2 text-sm text-ink-soft" role="status">
-          {shown.length === users.data.length
-            ? plural(users.data.length)
-            : `${shown.length} of ${plural(users.data.length)}`}
-        </p>
-      </div>
+      <FilterBar
+        label="Filter people"
+        placeholder="Name or e-mail"
+        value={filter}
+        onChange={setFilter}
+        shown={shown.length}
+        total={users.data.length}
+        countWords={plural}
+        widthClass="w-72"
+      />
       {shown.length === 0 ? (
         <EmptyState title="No one matches the filter" />
       ) : (

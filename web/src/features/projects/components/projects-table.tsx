@@ -3,16 +3,16 @@ import { Table, Td, Th } from '../../../components/ui/table';
 import { Spinner } from '../../../components/ui/spinner';
 import { QueryError } from '../../../components/ui/alert';
 import { EmptyState } from '../../../components/ui/empty-state';
+import { FilterBar } from '../../../components/ui/filter-bar';
 import { Badge } from '../../../components/ui/badge';
 import { paths } from '../../../config/paths';
 import { roleLabel } from '../../../config/words';
-import { useId, useState } from 'react';
+import { useState } from 'react';
 import { useProjects } from '../api/get-projects';
 
 export function ProjectsTable({ isAdmin }: { isAdmin: boolean }) {
   const projects = useProjects();
   const [filter, setFilter] = useState('');
-  const filterId = useId();
 
   if (projects.isPending) return <Spinner label="Loading projects…" />;
   if (projects.isError) {
@@ -39,26 +39,16 @@ export function ProjectsTable({ isAdmin }: { isAdmin: boolean }) {
 
   return (
     <>
-      <div className="mb-3 flex flex-wrap items-end gap-3">
-        <div className="flex flex-col gap-1">
-          <label htmlFor={filterId} className="text-sm font-medium">
-            Filter projects
-          </label>
-          <input
-            id={filterId}
-            type="search"
-            value={filter}
-            onChange={(e) => setFilter(e.target.value)}
-            placeholder="Job no., name, client or site"
-            className="w-80 rounded-sm border border-rule-strong bg-paper-sheet px-2.5 py-1.5"
-          />
-        </div>
-        <p className="pb-2 text-sm text-ink-soft" role="status">
-          {shown.length === projects.data.length
-            ? plural(projects.data.length)
-            : `${shown.length} of ${plural(projects.data.length)}`}
-        </p>
-      </div>
+      <FilterBar
+        label="Filter projects"
+        placeholder="Job no., name, client or site"
+        value={filter}
+        onChange={setFilter}
+        shown={shown.length}
+        total={projects.data.length}
+        countWords={plural}
+        widthClass="w-80"
+      />
       {shown.length === 0 ? (
         <EmptyState title="No project matches the filter" />
       ) : (
