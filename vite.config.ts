@@ -19,6 +19,51 @@ export default defineConfig({
     sourcemap: false,
     // Every font is bundled as a file under /assets, never inlined (the CSP allows 'self').
     assetsInlineLimit: 0,
+    rolldownOptions: {
+      output: {
+        // Libraries in chunks of their own, named for what they are, so a screen fetches only the
+        // ones it uses and a change to our code does not re-download them. Each group is a
+        // library with a clear job; the screens themselves are split by the router's lazy imports.
+        codeSplitting: {
+          groups: [
+            {
+              name: 'react',
+              test: /node_modules[\\/](react|react-dom|scheduler)[\\/]/,
+              priority: 30,
+            },
+            {
+              name: 'router',
+              test: /node_modules[\\/](react-router|react-router-dom|cookie|set-cookie-parser)[\\/]/,
+              priority: 30,
+            },
+            {
+              name: 'query',
+              test: /node_modules[\\/]@tanstack[\\/](react-query|query-core)[\\/]/,
+              priority: 30,
+            },
+            {
+              name: 'table',
+              test: /node_modules[\\/]@tanstack[\\/](react-table|table-core)[\\/]/,
+              priority: 30,
+            },
+            {
+              name: 'codemirror',
+              test: /node_modules[\\/](@codemirror|@lezer|@uiw|@marijn|crelt|style-mod|w3c-keyname)[\\/]/,
+              priority: 20,
+            },
+            // Its script only: the stylesheet and fonts are imported by main.tsx and stay with the entry.
+            { name: 'katex', test: /node_modules[\\/]katex[\\/].*\.m?js$/, priority: 20 },
+            { name: 'markdown', test: /node_modules[\\/]marked[\\/]/, priority: 20 },
+            // recharts and what it is built on (d3 scales and shapes, its redux store)
+            {
+              name: 'charts',
+              test: /node_modules[\\/](recharts|d3-[a-z-]+|victory-vendor|internmap|@reduxjs|redux|redux-thunk|react-redux|reselect|immer|es-toolkit|eventemitter3|decimal\.js-light|tiny-invariant|clsx|use-sync-external-store)[\\/]/,
+              priority: 10,
+            },
+          ],
+        },
+      },
+    },
   },
   server: {
     host: '127.0.0.1',

@@ -1,37 +1,152 @@
-import { useState } from 'react';
+import { lazy, Suspense, useState, type ComponentType, type ReactNode } from 'react';
 import { createBrowserRouter, RouterProvider } from 'react-router-dom';
+import { Spinner } from '../components/ui/spinner';
 import { paths } from '../config/paths';
 import { ProtectedLayout } from './routes/protected';
 import { SignInRoute } from './routes/sign-in';
 import { ProjectsRoute } from './routes/projects';
-import { ProjectRoute } from './routes/project';
-import { AdminRoute } from './routes/admin';
-import { SheetRoute, sheetPath } from './routes/sheet';
 import { NotFoundRoute } from './routes/not-found';
-import { RevisionRoute, revisionPath } from './routes/revision';
-import { PrintRoute, printPath } from './routes/print';
-import { CompareRoute, comparePath } from './routes/compare';
-import { OutboxRoute, outboxPath } from './routes/outbox';
-import { VerifyRoute, verifyCodePath, verifyPath } from './routes/verify';
+
+// The first screens a person sees (sign in, the projects list) are in the entry chunk; every other
+// screen is its own chunk, fetched the first time it is opened, so signing in does not wait for
+// the editor's CodeMirror, the revision's KaTeX or the admin tables.
+function screen<M>(load: () => Promise<M>, pick: (module: M) => ComponentType) {
+  return lazy(() => load().then((module) => ({ default: pick(module) })));
+}
+
+const ProjectRoute = screen(
+  () => import('./routes/project'),
+  (m) => m.ProjectRoute,
+);
+const SheetRoute = screen(
+  () => import('./routes/sheet'),
+  (m) => m.SheetRoute,
+);
+const RevisionRoute = screen(
+  () => import('./routes/revision'),
+  (m) => m.RevisionRoute,
+);
+const PrintRoute = screen(
+  () => import('./routes/print'),
+  (m) => m.PrintRoute,
+);
+const CompareRoute = screen(
+  () => import('./routes/compare'),
+  (m) => m.CompareRoute,
+);
+const OutboxRoute = screen(
+  () => import('./routes/outbox'),
+  (m) => m.OutboxRoute,
+);
+const AdminRoute = screen(
+  () => import('./routes/admin'),
+  (m) => m.AdminRoute,
+);
+const VerifyRoute = screen(
+  () => import('./routes/verify'),
+  (m) => m.VerifyRoute,
+);
+
+/** While a screen's code arrives: inside the shell for signed-in pages, alone for the others. */
+function Opening({ children, bare = false }: { children: ReactNode; bare?: boolean }) {
+  return (
+    <Suspense
+      fallback={
+        bare ? (
+          <div className="mx-auto max-w-md px-6 py-16">
+            <Spinner label="Opening…" />
+          </div>
+        ) : (
+          <Spinner label="Opening…" />
+        )
+      }
+    >
+      {children}
+    </Suspense>
+  );
+}
 
 function createAppRouter() {
   return createBrowserRouter([
     { path: paths.signIn.path, element: <SignInRoute /> },
     // Public: a seal is checked without signing in.
-    { path: verifyPath, element: <VerifyRoute /> },
-    { path: verifyCodePath, element: <VerifyRoute /> },
+    {
+      path: paths.verify.path,
+      element: (
+        <Opening bare>
+          <VerifyRoute />
+        </Opening>
+      ),
+    },
+    {
+      path: paths.verify.codePath,
+      element: (
+        <Opening bare>
+          <VerifyRoute />
+        </Opening>
+      ),
+    },
     // Printed as paper: no app header; signs strangers in like every member-only page.
-    { path: printPath, element: <PrintRoute /> },
+    {
+      path: paths.print.path,
+      element: (
+        <Opening bare>
+          <PrintRoute />
+        </Opening>
+      ),
+    },
     {
       element: <ProtectedLayout />,
       children: [
         { index: true, element: <ProjectsRoute /> },
-        { path: paths.project.path, element: <ProjectRoute /> },
-        { path: sheetPath, element: <SheetRoute /> },
-        { path: revisionPath, element: <RevisionRoute /> },
-        { path: comparePath, element: <CompareRoute /> },
-        { path: outboxPath, element: <OutboxRoute /> },
-        { path: paths.admin.path, element: <AdminRoute /> },
+        {
+          path: paths.project.path,
+          element: (
+            <Opening>
+              <ProjectRoute />
+            </Opening>
+          ),
+        },
+        {
+          path: paths.sheet.path,
+          element: (
+            <Opening>
+              <SheetRoute />
+            </Opening>
+          ),
+        },
+        {
+          path: paths.revision.path,
+          element: (
+            <Opening>
+              <RevisionRoute />
+            </Opening>
+          ),
+        },
+        {
+          path: paths.compare.path,
+          element: (
+            <Opening>
+              <CompareRoute />
+            </Opening>
+          ),
+        },
+        {
+          path: paths.outbox.path,
+          element: (
+            <Opening>
+              <OutboxRoute />
+            </Opening>
+          ),
+        },
+        {
+          path: paths.admin.path,
+          element: (
+            <Opening>
+              <AdminRoute />
+            </Opening>
+          ),
+        },
         { path: '*', element: <NotFoundRoute /> },
       ],
     },

@@ -13,6 +13,30 @@ export const paths = {
     href: (projectId: number | string) => `/projects/${projectId}`,
   },
   admin: { path: '/admin', href: () => '/admin' },
+  outbox: { path: '/outbox', href: () => '/outbox' },
+  sheet: {
+    path: '/projects/:projectId/sheets/:sheetId',
+    href: (projectId: number | string, sheetId: number | string) =>
+      `/projects/${projectId}/sheets/${sheetId}`,
+  },
+  revision: {
+    path: '/revisions/:revisionId',
+    href: (revisionId: number | string) => `/revisions/${revisionId}`,
+  },
+  print: {
+    path: '/revisions/:revisionId/print',
+    href: (revisionId: number | string) => `/revisions/${revisionId}/print`,
+  },
+  compare: {
+    path: '/sheets/:sheetId/compare',
+    href: (sheetId: number | string, from: number | string, to: number | string) =>
+      `/sheets/${sheetId}/compare?from=${from}&to=${to}`,
+  },
+  verify: {
+    path: '/verify',
+    codePath: '/verify/:code',
+    href: (code?: string) => (code ? `/verify/${encodeURIComponent(code)}` : '/verify'),
+  },
 } as const;
 
 /**

@@ -41,7 +41,7 @@ export function AppShell({ user, children }: { user: User; children: ReactNode }
                 </NavLink>
               ) : null}
               {user.isAdmin ? (
-                <NavLink to="/outbox" className={navClass}>
+                <NavLink to={paths.outbox.href()} className={navClass}>
                   Outbox
                 </NavLink>
               ) : null}

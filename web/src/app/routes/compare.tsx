@@ -2,9 +2,6 @@ import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { Alert } from '../../components/ui/alert';
 import { paths } from '../../config/paths';
 import { CompareView } from '../../features/compare/components/compare-view';
-import { revisionHref } from './revision';
-
-export const comparePath = '/sheets/:sheetId/compare';
 
 const positive = (raw: string | null) => {
   const n = Number(raw);
@@ -34,7 +31,7 @@ export function CompareRoute() {
         from={from}
         to={to}
         onChange={(f, t) => setSearch({ from: String(f), to: String(t) })}
-        revisionHref={revisionHref}
+        revisionHref={paths.revision.href}
       />
     </div>
   );

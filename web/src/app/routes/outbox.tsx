@@ -3,8 +3,6 @@ import { Section } from '../../components/ui/section';
 import { OutboxList } from '../../features/outbox/components/outbox-list';
 import { useSignedInUser } from './use-user';
 
-export const outboxPath = '/outbox';
-
 /** Admins read the mail the local fake transport kept when no SMTP server is configured. */
 export function OutboxRoute() {
   const user = useSignedInUser();

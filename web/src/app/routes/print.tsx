@@ -5,8 +5,6 @@ import { paths } from '../../config/paths';
 import { useMe } from '../../features/auth/api/get-me';
 import { PrintView } from '../../features/print/components/print-view';
 
-export const printPath = '/revisions/:revisionId/print';
-
 /**
  * The calculation package, without the app's header and navigation so the page prints as paper;
  * it still needs a signed-in member, like the revision itself.

@@ -8,7 +8,6 @@ import { AddMemberForm } from '../../features/members/components/add-member-form
 import { ActivityList } from '../../features/activity/components/activity-list';
 import { useProject } from '../../features/projects/api/get-project';
 import { SheetsTable } from '../../features/sheets/components/sheets-table';
-import { sheetHref } from './sheet';
 import { useSignedInUser } from './use-user';
 
 export function ProjectRoute() {
@@ -50,7 +49,7 @@ function ProjectSheets({ projectId }: { projectId: number }) {
   const canCreate = project.data?.myRoles.includes('author') ?? false;
   return (
     <Section title="Sheets">
-      <SheetsTable projectId={projectId} canCreate={canCreate} sheetHref={sheetHref} />
+      <SheetsTable projectId={projectId} canCreate={canCreate} sheetHref={paths.sheet.href} />
     </Section>
   );
 }

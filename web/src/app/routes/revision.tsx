@@ -3,14 +3,7 @@ import { Alert } from '../../components/ui/alert';
 import { paths } from '../../config/paths';
 import { RevisionView } from '../../features/review/components/revision-view';
 import { SealDialog } from '../../features/seal/components/seal-dialog';
-import { sheetHref } from './sheet';
 import { useSignedInUser } from './use-user';
-
-export const revisionPath = '/revisions/:revisionId';
-export const revisionHref = (revisionId: number | string) => `/revisions/${revisionId}`;
-export const printHref = (revisionId: number | string) => `/revisions/${revisionId}/print`;
-export const compareHref = (sheetId: number | string, from: number | string, to: number | string) =>
-  `/sheets/${sheetId}/compare?from=${from}&to=${to}`;
 
 /** A revision, read-only, with its remarks; the checker's and principal's actions (issue 7). */
 export function RevisionRoute() {
@@ -28,7 +21,7 @@ export function RevisionRoute() {
     <RevisionView
       revisionId={revisionId}
       user={user}
-      links={{ sheet: sheetHref, print: printHref, compare: compareHref }}
+      links={{ sheet: paths.sheet.href, print: paths.print.href, compare: paths.compare.href }}
       sealAction={(rev) => (
         <SealDialog
           key={rev.id}

@@ -15,10 +15,6 @@ const SheetEditor = lazy(() =>
   import('../../features/editor/components/sheet-editor').then((m) => ({ default: m.SheetEditor })),
 );
 
-export const sheetPath = '/projects/:projectId/sheets/:sheetId';
-export const sheetHref = (projectId: number | string, sheetId: number | string) =>
-  `/projects/${projectId}/sheets/${sheetId}`;
-
 /** The sheet editor on the draft (issue 6). */
 export function SheetRoute() {
   const { sheetId: raw } = useParams();
@@ -32,12 +28,12 @@ export function SheetRoute() {
   }
   return (
     <div className="flex flex-col gap-4">
-      <IssueForCheck sheetId={sheetId} revisionHref={(id) => `/revisions/${id}`} />
+      <IssueForCheck sheetId={sheetId} revisionHref={paths.revision.href} />
       <Suspense fallback={<Spinner label="Opening the editor…" />}>
         <SheetEditor sheetId={sheetId} projectHref={(id) => paths.project.href(id)} />
       </Suspense>
       <Section title="Revisions">
-        <RevisionList sheetId={sheetId} revisionHref={(id) => `/revisions/${id}`} />
+        <RevisionList sheetId={sheetId} revisionHref={paths.revision.href} />
       </Section>
       <Section title="History">
         <SheetHistory sheetId={sheetId} />

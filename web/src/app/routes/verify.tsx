@@ -1,12 +1,8 @@
 import { Link, useNavigate, useParams } from 'react-router-dom';
+import { paths } from '../../config/paths';
 import { CAUTION } from '../../config/words';
 import { VerifyCodeForm, VerifyResult } from '../../features/verify/components/verify-page';
 import { Wordmark } from '../layout/wordmark';
-
-export const verifyPath = '/verify';
-export const verifyCodePath = '/verify/:code';
-export const verifyHref = (code?: string) =>
-  code ? `/verify/${encodeURIComponent(code)}` : '/verify';
 
 /** Public: anyone checks a seal without signing in (DESIGN §7). */
 export function VerifyRoute() {
@@ -16,7 +12,7 @@ export function VerifyRoute() {
     <div className="min-h-screen bg-paper">
       <header className="border-b border-rule bg-paper-sheet">
         <div className="mx-auto flex max-w-3xl items-center justify-between px-6 py-3">
-          <Link to={verifyHref()} aria-label="Modewright, verify a seal">
+          <Link to={paths.verify.href()} aria-label="Modewright, verify a seal">
             <Wordmark />
           </Link>
           <span className="text-sm text-ink-soft">Seal verification — no sign-in needed</span>
@@ -31,7 +27,7 @@ export function VerifyRoute() {
         <VerifyCodeForm
           key={code ?? ''}
           initial={code ?? ''}
-          onSubmit={(c) => navigate(verifyHref(c))}
+          onSubmit={(c) => navigate(paths.verify.href(c))}
         />
         {code ? <VerifyResult code={code} /> : null}
         <p className="border-t border-rule pt-3 text-xs text-ink-faint">{CAUTION}</p>
