@@ -1,5 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { anonymous, createTestApp, signedIn, type TestApp } from '../support/api-app';
+import {
+  anonymous,
+  createSheetWithDraft,
+  createTestApp,
+  signedIn,
+  type TestApp,
+} from '../support/api-app';
 import { createProject, createProjectTeam, createUser } from '../support/factories';
 
 let t: TestApp;
@@ -86,5 +92,26 @@ describe('activity table', () => {
       /append-only: rows cannot be removed/,
     );
     expect(await t.db('activity').where({ id }).first()).toMatchObject({ action: 'user.created' });
+  });
+});
+
+describe('activity about a sheet', () => {
+  it('names the sheet by its number and title, not only its id', async () => {
+    const team = await createProjectTeam(t.db);
+    const author = await signedIn(t.app, team.author);
+    const sheet = await createSheetWithDraft(
+      author,
+      team.project.id,
+      { number: `ACT-${team.project.id}`, title: 'Deck frequency' },
+      [{ id: 'intro', kind: 'text', source: 'Vertical modes of the deck.' }],
+    );
+    const res = await author.get(`/api/projects/${team.project.id}/activity`).expect(200);
+    const aboutSheet = res.body.activity.filter(
+      (a: { action: string }) => a.action === 'sheet.created' || a.action === 'sheet.draft_saved',
+    );
+    expect(aboutSheet).toHaveLength(2);
+    for (const entry of aboutSheet) {
+      expect(entry.sheet).toEqual({ id: sheet.id, number: sheet.number, title: 'Deck frequency' });
+    }
   });
 });

@@ -27,6 +27,8 @@ export interface ActivityEntry {
   objectType: string;
   objectId: number | null;
   details: Record<string, unknown>;
+  /** The sheet the entry is about (its details name `sheetId`, or the object is a sheet), when it still exists. */
+  sheet?: { id: number; number: string; title: string };
 }
 
 /** An activity row joined with its actor's name (`users as u`), as the lists select it. */
@@ -88,6 +90,29 @@ export const activityRepository = {
       .orderBy('a.at', 'desc')
       .orderBy('a.id', 'desc')
       .limit(limit);
-    return rows.map(activityEntryOf);
+    const entries = rows.map(activityEntryOf);
+    return withSheets(db, entries);
   },
 };
+
+/** The id of the sheet an entry is about, if any. */
+function sheetIdOf(entry: ActivityEntry): number | null {
+  const fromDetails = entry.details?.sheetId;
+  if (typeof fromDetails === 'number') return fromDetails;
+  return entry.objectType === 'sheet' && entry.objectId !== null ? entry.objectId : null;
+}
+
+/** Adds each entry's sheet (number and title), so the log can say "DYN-02 Rev 1", not an id. */
+async function withSheets(db: DbOrTx, entries: ActivityEntry[]): Promise<ActivityEntry[]> {
+  const ids = [...new Set(entries.map(sheetIdOf).filter((id): id is number => id !== null))];
+  if (ids.length === 0) return entries;
+  const sheets: { id: number; number: string; title: string }[] = await db('sheets')
+    .whereIn('id', ids)
+    .select('id', 'number', 'title');
+  const byId = new Map(sheets.map((s) => [Number(s.id), { ...s, id: Number(s.id) }]));
+  return entries.map((entry) => {
+    const id = sheetIdOf(entry);
+    const sheet = id === null ? undefined : byId.get(id);
+    return sheet ? { ...entry, sheet } : entry;
+  });
+}

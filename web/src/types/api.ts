@@ -37,4 +37,6 @@ export type ActivityEntry = {
   objectType: string;
   objectId: number | string | null;
   details: Record<string, unknown> | null;
+  /** The sheet the entry is about, when it still exists. */
+  sheet?: { id: number; number: string; title: string };
 };

@@ -5,7 +5,7 @@ import { QueryError } from '../../../components/ui/alert';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { formatUtc } from '../../../lib/format';
 import { useProjectActivity } from '../api/get-project-activity';
-import { describeAction, describeDetails } from './describe-activity';
+import { describeActivity } from './describe-activity';
 
 // The newest entries first; the whole log is one click away.
 const FIRST_SHOWN = 15;
@@ -29,7 +29,7 @@ export function ActivityList({ projectId }: { projectId: number }) {
     <>
       <ol aria-label="Activity" className="flex flex-col">
         {entries.map((entry) => {
-          const details = describeDetails(entry.details);
+          const { text, facts } = describeActivity(entry);
           return (
             <li
               key={entry.id}
@@ -40,11 +40,10 @@ export function ActivityList({ projectId }: { projectId: number }) {
               </time>
               <div>
                 <p>
-                  <span className="font-medium">{entry.actor?.name ?? 'Someone'}</span>{' '}
-                  {describeAction(entry.action)}
+                  <span className="font-medium">{entry.actor?.name ?? 'Someone'}</span> {text}
                 </p>
-                {details.length > 0 ? (
-                  <p className="text-xs text-ink-soft">{details.join(' · ')}</p>
+                {facts.length > 0 ? (
+                  <p className="text-xs text-ink-soft">{facts.join(' · ')}</p>
                 ) : null}
               </div>
             </li>
