@@ -9,3 +9,4 @@ export * from './modal-quantities';
 export * from './solve-modes';
 export * from './lanczos';
 export * from './subspace-iteration';
+export * from './conditioning';

@@ -11,12 +11,18 @@
  * OP Q = Q H + β q e_mᵀ holds throughout and |β y_m| is the residual of each Ritz pair.
  */
 import { EngineError, NoConvergenceError } from '../errors';
+import {
+  assessConditioning,
+  RIGID_BODY_THRESHOLD,
+  type ConditioningAssessment,
+} from './conditioning';
 import { diagonalOf, toSparse } from '../linalg/factorize';
 import { createShiftedPencil, multiplyLower } from '../linalg/sparse-ldlt/shifted';
 import type { SparseSymmetricMatrix, SymmetricFactorization } from '../linalg/types';
 import { symmetricEigen } from './dense-eigensolver';
 import { seededRandom } from './random';
 import type { MethodInput, RawEigenResult } from './types';
+import { lambdaScale } from './vector-tools';
 
 /** Extra options of the Lanczos method. */
 export interface LanczosOptions {
@@ -32,9 +38,11 @@ export interface LanczosOptions {
 }
 
 /**
- * The Sturm proof made inside the method: K − σM factored at `shift` = λ_p + δ (δ = 1e-8·|λ_p|)
- * has `countBelow` negative pivots; `found` modes lie below that shift (`below` = eigenvalues
- * below the working shift σ, normally 0).
+ * The Sturm proof made inside the method. Lowest-p mode: K − σM factored at `shift` = λ_p + δ
+ * (δ = 1e-8·|λ_p|) has `countBelow` negative pivots; `belowSigma` eigenvalues lie below the
+ * working shift σ (normally 0), so `countBelow − belowSigma` should equal `found`. Band mode:
+ * `shift` is the band's upper end hi, `belowSigma` the count below its lower end lo, and `found`
+ * the modes returned in [lo, hi).
  */
 export interface LanczosSturm {
   shift: number;
@@ -42,10 +50,25 @@ export interface LanczosSturm {
   belowSigma: number;
   found: number;
   ok: boolean;
+  /** Band mode only: the band checked. */
+  band?: { lo: number; hi: number };
 }
 
-/** What `lanczos` returns: the raw result plus its Sturm proof (absent in band mode). */
-export type LanczosResult = RawEigenResult & { sturm?: LanczosSturm };
+/** A warning of the method in words, with an UPPER_SNAKE code (also written into `notes`). */
+export interface MethodWarning {
+  code: string;
+  message: string;
+}
+
+/**
+ * What `lanczos` returns: the raw result plus its Sturm proof, its conditioning estimate and
+ * the warnings (STURM_MISMATCH, ILL_CONDITIONED), each of which is also in `notes`.
+ */
+export type LanczosResult = RawEigenResult & {
+  sturm?: LanczosSturm;
+  conditioning: ConditioningAssessment;
+  warnings: MethodWarning[];
+};
 
 /** The shifted operator used by both subspace iteration and Lanczos. */
 export interface ShiftedOperator {
@@ -55,6 +78,8 @@ export interface ShiftedOperator {
   readonly sigma: number;
   readonly factorization: SymmetricFactorization;
   readonly notes: string[];
+  /** True when K − σM was singular at the shift asked for (rigid-body modes) and σ was moved. */
+  readonly singularAtShift: boolean;
   /** Counts eigenvalues below s (Sturm sequence of K − sM) with the same symbolic analysis. */
   countBelow(s: number): number;
   /** LDLᵀ of K − sM with the same symbolic analysis. */
@@ -132,6 +157,7 @@ export function prepareShiftedOperator(
     sigma,
     factorization,
     notes,
+    singularAtShift: sigma !== input.shift,
     countBelow: (s: number) => pencil.factorize(s).negativePivots,
     factorizeAt: (s: number) => pencil.factorize(s),
   };
@@ -141,20 +167,45 @@ export function prepareShiftedOperator(
  * The lowest `count` modes (or every mode in `options.band`) by shift-invert Lanczos.
  * Convergence: a Ritz pair is accepted when its residual |β y_m| ≤ tolerance · |θ|.
  *
+ * After the run a Sturm count proves that no mode was missed: just above the highest mode found
+ * (lowest-p mode) or at both ends of the band (band mode: the inertia of K − lo·M and K − hi·M
+ * counts the eigenvalues in [lo, hi)). Missing copies of a repeated eigenvalue are found by runs
+ * locked against the converged modes; a count that still disagrees is a STURM_MISMATCH warning
+ * naming how many are missing. The conditioning λ_max/λ₁ (λ_max ≥ max K_ii/M_ii) is assessed
+ * too: when it costs λ₁ digits beyond the tolerance, an ILL_CONDITIONED warning says how many and,
+ * when none survive, that the lowest eigenvalues are not meaningful.
+ *
  * @throws EngineError CANCELLED when `signal.aborted` is seen between restarts;
  *   NoConvergenceError (with the converged modes as `partial`) after `maxIterations` restarts;
  *   STIFFNESS_SINGULAR, MODEL_TOO_LARGE from the factorization.
  * @example
  * const raw = lanczos({ K, M, count: 10, tolerance: 1e-10, maxIterations: 300, shift: 0, seed: 1 });
+ * raw.warnings; // [] on a well-conditioned model whose Sturm count agrees
  */
 export function lanczos(input: MethodInput, options: LanczosOptions = {}): LanczosResult {
   const op = prepareShiftedOperator(input, options.memoryLimitBytes);
   const { n, M } = op;
   let sigma = op.sigma;
   const notes = [...op.notes];
+  const warnings: MethodWarning[] = [];
+  const scale = lambdaScale(op.K, op.M);
+  const finish = (raw: RawEigenResult, sturm?: LanczosSturm): LanczosResult => {
+    const conditioning = assessConditioning(
+      scale,
+      raw.lambdas,
+      op.singularAtShift ? RIGID_BODY_THRESHOLD * scale : 0,
+      input.tolerance,
+    );
+    if (conditioning.message) {
+      warnings.push({ code: 'ILL_CONDITIONED', message: conditioning.message });
+      notes.push(conditioning.message);
+    }
+    return { ...raw, notes, conditioning, warnings, ...(sturm ? { sturm } : {}) };
+  };
+  const none: RawEigenResult = { lambdas: [], vectors: [], iterations: [], histories: [], notes };
   let factorization = op.factorization;
   let p = Math.min(input.count, n);
-  let band: { lo: number; hi: number; below: number } | undefined;
+  let band: { lo: number; hi: number; belowLo: number; belowHi: number } | undefined;
   if (options.band) {
     const { lo, hi } = options.band;
     if (!(hi > lo)) {
@@ -163,18 +214,28 @@ export function lanczos(input: MethodInput, options: LanczosOptions = {}): Lancz
         `The frequency band must have its upper end above the lower one (got ${lo} to ${hi}).`,
       );
     }
-    const below = op.countBelow(lo);
-    p = op.countBelow(hi) - below;
+    const belowLo = op.countBelow(lo);
+    const belowHi = op.countBelow(hi);
+    p = belowHi - belowLo;
     notes.push(`${p} eigenvalue${p === 1 ? '' : 's'} in the band (Sturm counts at both ends).`);
-    if (p === 0) return { lambdas: [], vectors: [], iterations: [], histories: [], notes };
+    if (p === 0) {
+      return finish(none, {
+        shift: hi,
+        countBelow: belowHi,
+        belowSigma: belowLo,
+        found: 0,
+        ok: true,
+        band: { lo, hi },
+      });
+    }
     // Shift to the lower end: the band's eigenvalues are the largest θ = 1/(λ − σ) > 0.
     sigma = lo;
     factorization = op.factorizeAt(lo);
-    band = { lo, hi, below };
+    band = { lo, hi, belowLo, belowHi };
   }
-  if (p === 0) return { lambdas: [], vectors: [], iterations: [], histories: [], notes };
+  if (p === 0) return finish(none);
   const rand = seededRandom(input.seed);
-  let result: LanczosResult = lanczosRun(
+  let result: RawEigenResult = lanczosRun(
     input,
     M,
     factorization,
@@ -187,69 +248,135 @@ export function lanczos(input: MethodInput, options: LanczosOptions = {}): Lancz
   );
   let sturm: LanczosSturm | undefined;
   // A single start vector sees one copy of a repeated eigenvalue. The Sturm count just above the
-  // highest mode found tells how many are missing; those are found by a new run orthogonal to
-  // (locked against) the converged modes, until the count and the modes agree.
-  for (let round = 0; round < 8 && !band; round++) {
-    const lamP = result.lambdas[result.lambdas.length - 1]!;
-    const above = lamP + Math.max(1e-8 * Math.abs(lamP), 1e-12 * Math.abs(sigma) + 1e-300);
+  // highest mode found (or at the band's upper end) tells how many are missing; those are found
+  // by a new run orthogonal to (locked against) the converged modes, until the count and the
+  // modes agree.
+  const MAX_LOCKED_RUNS = 8;
+  for (let round = 0; ; round++) {
+    let above: number;
     let below: number;
-    try {
-      below = op.countBelow(above);
-    } catch (e) {
-      if (e instanceof EngineError && e.code === 'ZERO_PIVOT') break;
-      throw e;
+    let found: number;
+    if (band) {
+      above = band.hi;
+      below = band.belowHi;
+      found = result.lambdas.filter((l) => l >= band.lo && l < band.hi).length;
+    } else {
+      const lamP = result.lambdas[result.lambdas.length - 1]!;
+      above = lamP + Math.max(1e-8 * Math.abs(lamP), 1e-12 * Math.abs(sigma) + 1e-300);
+      try {
+        below = op.countBelow(above);
+      } catch (e) {
+        if (e instanceof EngineError && e.code === 'ZERO_PIVOT') break;
+        throw e;
+      }
+      found = result.lambdas.filter((l) => l < above).length;
     }
-    const found = result.lambdas.filter((l) => l < above).length;
     const before = factorization.negativePivots;
-    sturm = {
-      shift: above,
-      countBelow: below,
-      belowSigma: before,
-      found,
-      ok: below - before === found,
-    };
-    if (below - before <= found) {
-      notes.push(
-        `Sturm check: ${below - before} eigenvalue${below - before === 1 ? '' : 's'} between ` +
-          `σ = ${sigma.toPrecision(4)} and ${above.toPrecision(6)} rad²/s², ${found} found` +
-          (below - before < found
-            ? ' — fewer than found: the model is too ill-conditioned for its pivots to be trusted.'
-            : '.'),
-      );
-      break;
-    }
+    const inside = below - before;
+    sturm = { shift: above, countBelow: below, belowSigma: before, found, ok: inside === found };
+    if (inside <= found || round >= MAX_LOCKED_RUNS) break;
     const lockedM = result.vectors.map((v) => multiplyLower(M, v));
     const extra = lanczosRun(
       input,
       M,
       factorization,
       sigma,
-      below - before - found,
+      inside - found,
       result.vectors,
       lockedM,
       rand,
       options.basisSize,
     );
     notes.push(
-      `${below - before - found} repeated or hidden mode${below - before - found === 1 ? '' : 's'} ` +
+      `${inside - found} repeated or hidden mode${inside - found === 1 ? '' : 's'} ` +
         'found by a second Lanczos run locked against the converged ones (Sturm count).',
     );
-    result = mergeResults(result, extra, p);
+    result = mergeResults(result, extra, Math.max(p, result.lambdas.length));
   }
-  result.notes = notes;
-  if (sturm) result.sturm = sturm;
   if (band) {
-    // Keep exactly the modes inside the band (a Ritz value can sit just outside by rounding).
-    const keep = result.lambdas.map((l) => l >= band.lo && l <= band.hi);
-    return {
+    // Keep exactly the modes inside [lo, hi) (a Ritz value can sit just outside by rounding),
+    // then the band's own Sturm check on what is returned.
+    const { lo, hi } = band;
+    const keep = result.lambdas.map((l) => l >= lo && l < hi);
+    const kept: RawEigenResult = {
       lambdas: result.lambdas.filter((_, i) => keep[i]),
       vectors: result.vectors.filter((_, i) => keep[i]),
       iterations: result.iterations.filter((_, i) => keep[i]),
       histories: result.histories.filter((_, i) => keep[i]),
-      notes: result.notes,
+      notes,
     };
+    const check = checkBandSturm(band, kept.lambdas);
+    notes.push(check.note);
+    if (check.warning) {
+      warnings.push(check.warning);
+      notes.push(check.warning.message);
+    }
+    return finish(kept, check.sturm);
   }
-  return result;
+  if (sturm) {
+    const inside = sturm.countBelow - sturm.belowSigma;
+    notes.push(
+      `Sturm check: ${inside} eigenvalue${inside === 1 ? '' : 's'} between ` +
+        `σ = ${sigma.toPrecision(4)} and ${sturm.shift.toPrecision(6)} rad²/s², ${sturm.found} found` +
+        (inside < sturm.found
+          ? ' — fewer than found: the model is too ill-conditioned for its pivots to be trusted.'
+          : '.'),
+    );
+    if (inside > sturm.found) {
+      const missing = inside - sturm.found;
+      const message =
+        `Sturm check failed: K − σM at σ = ${sturm.shift.toPrecision(6)} rad²/s² (just above the ` +
+        `highest mode found) counts ${inside} eigenvalues above the shift ` +
+        `${sigma.toPrecision(4)}, but ${sturm.found} were found: ${missing} mode` +
+        `${missing === 1 ? ' is' : 's are'} missing (a repeated or closely spaced eigenvalue ` +
+        'was skipped even after locked runs).';
+      warnings.push({ code: 'STURM_MISMATCH', message });
+      notes.push(message);
+    }
+  }
+  return finish(result, sturm);
+}
+
+/**
+ * The Sturm check of a band [lo, hi): the eigenvalues in it are (negative pivots of K − hi·M)
+ * − (negative pivots of K − lo·M) by Sylvester's law of inertia; that count is set against the
+ * modes found in the band. A mismatch is a STURM_MISMATCH warning naming how many are missing
+ * (or how many too many were returned).
+ * @example
+ * const c = checkBandSturm({ lo, hi, belowLo: count(lo), belowHi: count(hi) }, raw.lambdas);
+ * c.sturm.ok; c.warning?.message;
+ */
+export function checkBandSturm(
+  band: { lo: number; hi: number; belowLo: number; belowHi: number },
+  lambdas: readonly number[],
+): { sturm: LanczosSturm; note: string; warning: MethodWarning | null } {
+  const { lo, hi, belowLo, belowHi } = band;
+  const counted = belowHi - belowLo;
+  const found = lambdas.filter((l) => l >= lo && l < hi).length;
+  const sturm: LanczosSturm = {
+    shift: hi,
+    countBelow: belowHi,
+    belowSigma: belowLo,
+    found,
+    ok: counted === found,
+    band: { lo, hi },
+  };
+  const range = `[${lo.toPrecision(6)}, ${hi.toPrecision(6)}) rad²/s²`;
+  const note =
+    `Sturm check of the band ${range}: K − λM has ${belowLo} negative pivot` +
+    `${belowLo === 1 ? '' : 's'} at λ = lo and ${belowHi} at λ = hi, so ${counted} ` +
+    `eigenvalue${counted === 1 ? '' : 's'} lie in the band; ${found} found.`;
+  if (counted === found) return { sturm, note, warning: null };
+  const message =
+    counted > found
+      ? `Sturm check failed for the band ${range}: the inertia of K − lo·M and K − hi·M counts ` +
+        `${counted} eigenvalues in it, but ${found} were found: ${counted - found} mode` +
+        `${counted - found === 1 ? ' is' : 's are'} missing (a repeated or closely spaced ` +
+        'eigenvalue was skipped).'
+      : `Sturm check failed for the band ${range}: the inertia of K − lo·M and K − hi·M counts ` +
+        `${counted} eigenvalues in it, but ${found} were returned: ${found - counted} too many ` +
+        '(the model is too ill-conditioned for its pivots to be trusted).';
+  return { sturm, note, warning: { code: 'STURM_MISMATCH', message } };
 }
 
 function mergeResults(a: RawEigenResult, b: RawEigenResult, p: number): RawEigenResult {
@@ -258,7 +385,7 @@ function mergeResults(a: RawEigenResult, b: RawEigenResult, p: number): RawEigen
     ...b.lambdas.map((l, i) => ({ l, s: b, i })),
   ];
   idx.sort((x, y) => x.l - y.l);
-  const top = idx.slice(0, Math.max(p, a.lambdas.length));
+  const top = idx.slice(0, p);
   return {
     lambdas: top.map((t) => t.l),
     vectors: top.map((t) => t.s.vectors[t.i]!),

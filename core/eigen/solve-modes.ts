@@ -15,7 +15,8 @@ import type { SymmetricFactorization, SymmetricMatrix } from '../linalg/types';
 import { denseEigensolver } from './dense-eigensolver';
 import { forwardIteration } from './forward-iteration';
 import { inverseIteration } from './inverse-iteration';
-import { lanczos } from './lanczos';
+import { assessConditioning, RIGID_BODY_THRESHOLD } from './conditioning';
+import { lanczos, type LanczosResult } from './lanczos';
 import {
   backwardError,
   closelySpacedPairs,
@@ -42,8 +43,6 @@ import { lambdaScale, pencilSize, sturmCount } from './vector-tools';
 const EPS = 2 ** -52;
 /** Largest model `auto` sends to the dense method. */
 export const AUTO_DENSE_LIMIT = 400;
-/** Eigenvalues below this fraction of max K_ii/M_ii count as rigid-body modes (common practice). */
-export const RIGID_BODY_THRESHOLD = 1e-10;
 const METHODS: MethodName[] = [
   'auto',
   'inverse',
@@ -298,7 +297,12 @@ export function solveModes(
             : method === 'subspace'
               ? subspaceIteration(input)
               : lanczos(input);
-  noteParts.push(...raw.notes);
+  // Lanczos writes its own warnings into its notes (for callers of the method alone); here they
+  // come once, as warnings of the result, so they are not repeated in the method note.
+  const methodWarnings = new Set(
+    ((raw as Partial<LanczosResult>).warnings ?? []).map((w) => w.message),
+  );
+  noteParts.push(...raw.notes.filter((note) => !methodWarnings.has(note)));
   const result = buildResult(K, M, raw, {
     method,
     opts,
@@ -355,17 +359,16 @@ function buildResult(
   const parts = participation(M, vectors, c.influence);
 
   // conditioning: λ_max / λ_1 with λ_max ≥ max K_ii/M_ii and λ_1 the lowest flexible mode found
-  const flexible = raw.lambdas.filter((l) => l > RIGID_BODY_THRESHOLD * c.scale);
-  const top = Math.max(c.scale, ...raw.lambdas);
-  const low = flexible.length > 0 ? Math.min(...flexible) : NaN;
-  const estimate = Number.isFinite(low) && low > 0 ? top / low : NaN;
-  const digitsLost = Number.isFinite(estimate) ? Math.max(0, Math.log10(estimate)) : NaN;
-  if (Number.isFinite(estimate) && estimate * EPS > opts.tolerance) {
-    warnings.push({
-      code: 'ILL_CONDITIONED',
-      message: `The model's conditioning λ_max/λ₁ ≈ ${estimate.toPrecision(2)} times machine precision (${(estimate * EPS).toPrecision(2)}) exceeds the tolerance asked for (${opts.tolerance}): about ${digitsLost.toFixed(1)} of 16 digits may be lost, so the lowest modes' last digits and residual checks cannot reach that tolerance. A coarser mesh or a looser tolerance is consistent with the data.`,
-    });
-  }
+  // (the same assessment, and so the same words, as Lanczos makes on its own)
+  const cond = assessConditioning(
+    c.scale,
+    raw.lambdas,
+    c.rigidBodyModes > 0 ? RIGID_BODY_THRESHOLD * c.scale : 0,
+    opts.tolerance,
+  );
+  const estimate = cond.ratio;
+  const digitsLost = cond.digitsLost;
+  if (cond.message) warnings.push({ code: 'ILL_CONDITIONED', message: cond.message });
 
   // Sturm check
   let sturm: ModalResult['sturm'];
