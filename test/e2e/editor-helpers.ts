@@ -164,3 +164,23 @@ export function useAuthorBrowser(): () => BrowserSession {
     return ines;
   };
 }
+
+/** The sheet id in an editor address (`/projects/3/sheets/17` → 17). */
+export function sheetIdOf(url: string): number {
+  const match = /\/sheets\/(\d+)/.exec(new URL(url).pathname);
+  if (!match) throw new Error(`No sheet id in ${url}`);
+  return Number(match[1]);
+}
+
+/** The draft's block sources as the server holds them, read with the page's own session. */
+export async function serverDraftSources(page: Page, sheetId: number): Promise<string[]> {
+  const response = await page.request.get(`/api/sheets/${sheetId}`);
+  if (!response.ok()) throw new Error(`GET /api/sheets/${sheetId}: HTTP ${response.status()}`);
+  const body = (await response.json()) as { sheet: { draft: { blocks: { source: string }[] } } };
+  return body.sheet.draft.blocks.map((b) => b.source);
+}
+
+/** The words of the save indicator in the editor's header. */
+export async function saveStateText(page: Page): Promise<string> {
+  return (await page.getByTestId('save-state').innerText()).trim();
+}

@@ -17,7 +17,7 @@ const SAVE_LABELS: Record<SaveState, string> = {
   saved: 'Saved',
   unsaved: 'Unsaved changes',
   saving: 'Saving…',
-  offline: 'Offline — will save when the server is back',
+  offline: 'Not saved — cannot reach the server; retrying',
   conflict: 'Not saved — changed elsewhere',
   error: 'Not saved',
 };
@@ -129,8 +129,8 @@ export function SheetHeader({
             className={`ml-auto text-xs ${
               saveState === 'saved'
                 ? 'text-ink-faint'
-                : saveState === 'error' || saveState === 'conflict'
-                  ? 'text-fail'
+                : saveState === 'error' || saveState === 'conflict' || saveState === 'offline'
+                  ? 'font-medium text-fail'
                   : 'text-ink-soft'
             }`}
             title={saveError ?? undefined}

@@ -49,6 +49,7 @@ export function useAutosave({
     }
     inFlight.current = true;
     setState('saving');
+    let failed = false;
     try {
       const result = await saveDraft(sheetId, version.current, JSON.parse(text) as Draft);
       if (result.kind === 'saved') {
@@ -62,9 +63,11 @@ export function useAutosave({
         setState('conflict');
       }
     } catch (e) {
+      failed = true;
       if (isApiError(e) && e.status === 0) {
         setState('offline');
         setError(e.message);
+        if (timer.current) clearTimeout(timer.current);
         timer.current = setTimeout(() => void flush(), OFFLINE_RETRY_MS);
       } else {
         setState('error');
@@ -73,8 +76,10 @@ export function useAutosave({
     } finally {
       inFlight.current = false;
     }
-    // Typed while the save was in flight: save again.
-    if (!blocked.current && JSON.stringify(latest.current) !== saved.current) {
+    // Typed while the save was in flight: save again. Not after a failure: an unreachable server
+    // is retried on its own timer (or when the browser says it is online again), and a refused
+    // save waits for the next edit rather than being repeated every second.
+    if (!failed && !blocked.current && JSON.stringify(latest.current) !== saved.current) {
       if (timer.current) clearTimeout(timer.current);
       timer.current = setTimeout(() => void flush(), DEBOUNCE_MS);
     }
