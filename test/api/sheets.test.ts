@@ -204,7 +204,7 @@ describe('GET /api/sheets/:sheetId', () => {
     expect(res.status).toBe(200);
     expect(res.headers.etag).toBe('"1"');
     expect(res.body.sheet.myRoles).toEqual(['viewer']);
-    expect(res.body.sheet.draft.blocks.length).toBe(6);
+    expect(res.body.sheet.draft.blocks.length).toBe(7);
   });
 
   it('answers 404 for a sheet that does not exist and 422 for a bad id', async () => {

@@ -89,9 +89,20 @@ const footbridge: SheetTemplate = {
       source: lines(
         'deck_v.f[1] >= 3.0 Hz  # vertical: pedestrian-bridge guide value 3.0 Hz (from memory)',
         'deck_h.f[1] >= 1.3 Hz  # lateral: pedestrian-bridge guide value 1.3 Hz (from memory)',
-        'deck_v.f[1] >= 5 Hz  # vertical: EN 1990 Annex A2, no comfort check needed above 5 Hz (from memory)',
-        'deck_h.f[1] >= 2.5 Hz  # lateral: EN 1990 Annex A2, no comfort check needed above 2.5 Hz (from memory)',
         'abs(deck_v.f[1] / f_hand - 1) <= 0.01  # beam model within 1 % of the closed form',
+      ),
+    },
+    {
+      id: 'outcome',
+      kind: 'text',
+      source: lines(
+        '### Outcome',
+        '',
+        'Both lowest frequencies are above the guide values. Walking pedestrians can still excite a',
+        'deck whose first vertical frequency is below about 5 Hz, or whose first lateral frequency',
+        'is below about 2.5 Hz (common practice; EN 1990 Annex A2 gives such limits, from memory):',
+        'where that is so, the deck accelerations are assessed against the comfort class agreed',
+        'with the client, in a separate sheet.',
       ),
     },
   ],
