@@ -104,11 +104,10 @@ export function prepareShiftedOperator(
       `K is ${K.n} × ${K.n} but M is ${M.n} × ${M.n}; they must be the same size.`,
     );
   }
-  const pencil = createShiftedPencil(
-    K,
-    M,
-    memoryLimitBytes === undefined ? {} : { memoryLimitBytes },
-  );
+  const pencil =
+    input.pencil && input.pencil.n === K.n
+      ? input.pencil
+      : createShiftedPencil(K, M, memoryLimitBytes === undefined ? {} : { memoryLimitBytes });
   const notes: string[] = [];
   let sigma = input.shift;
   let factorization: SymmetricFactorization | undefined = input.factorization;

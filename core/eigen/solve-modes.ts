@@ -10,7 +10,9 @@ import {
   diagonalOf,
   factorizeSymmetric,
   normOne,
+  toSparse,
 } from '../linalg/factorize';
+import { createShiftedPencil, type ShiftedPencil } from '../linalg/sparse-ldlt/shifted';
 import type { SymmetricFactorization, SymmetricMatrix } from '../linalg/types';
 import { denseEigensolver } from './dense-eigensolver';
 import { forwardIteration } from './forward-iteration';
@@ -219,6 +221,11 @@ export function solveModes(
   } else {
     method = opts.method;
   }
+  // Refuse before allocating when the configured memory would not hold the solve.
+  const pencil =
+    options.memoryLimitBytes === undefined
+      ? undefined
+      : checkMemory(K, M, n, method, opts.count, options.memoryLimitBytes);
   // stiffness: singular (rigid-body modes) or indefinite?
   const scale = lambdaScale(K, M);
   const kf = tryFactorize(K);
@@ -282,9 +289,12 @@ export function solveModes(
         : shift,
     seed: opts.seed,
     ...(method === 'inverse' && factorization ? { factorization } : {}),
+    ...(pencil && (method === 'lanczos' || method === 'subspace') ? { pencil } : {}),
     ...(options.onProgress ? { onProgress: options.onProgress } : {}),
     ...(options.signal ? { signal: options.signal } : {}),
   };
+  const limit =
+    options.memoryLimitBytes === undefined ? {} : { memoryLimitBytes: options.memoryLimitBytes };
   const raw: RawEigenResult =
     method === 'dense'
       ? denseEigensolver(input)
@@ -295,8 +305,8 @@ export function solveModes(
           : method === 'forward'
             ? forwardIteration(input)
             : method === 'subspace'
-              ? subspaceIteration(input)
-              : lanczos(input);
+              ? subspaceIteration(input, limit)
+              : lanczos(input, limit);
   // Lanczos writes its own warnings into its notes (for callers of the method alone); here they
   // come once, as warnings of the result, so they are not repeated in the method note.
   const methodWarnings = new Set(
@@ -314,6 +324,85 @@ export function solveModes(
     massless,
   });
   return result;
+}
+
+/**
+ * n × n arrays of doubles the dense method holds at its peak (K and M densified, the Cholesky
+ * factor, the reduced matrix, the tridiagonal solver's copy and its vectors, and the second
+ * reduction with K for an ill-conditioned model), counted from core/eigen/dense-eigensolver.ts.
+ */
+export const DENSE_METHOD_ARRAYS = 8;
+/** n × n arrays a dense-storage factorization of K − σM holds (K − σM, its factor, a copy). */
+const DENSE_FACTOR_ARRAYS = 3;
+
+function megabytes(bytes: number): string {
+  if (bytes < 2 ** 20) return `${Math.round(bytes / 2 ** 10)} kB`;
+  return `${(bytes / 2 ** 20).toFixed(bytes < 10 * 2 ** 20 ? 1 : 0)} MB`;
+}
+
+/**
+ * The memory check of `solveModes`: estimates the largest arrays of the method and refuses with
+ * MODEL_TOO_LARGE (details: n, method, estimateBytes, limitBytes) when they exceed `limit`. Sparse
+ * storage is estimated by the symbolic analysis of K − σM (the factor's nonzeros) plus the
+ * method's iteration vectors; the analysed pencil is returned for Lanczos and subspace iteration
+ * to reuse. Dense storage and the dense method count their n × n arrays.
+ */
+function checkMemory(
+  K: SymmetricMatrix,
+  M: SymmetricMatrix,
+  n: number,
+  method: Exclude<MethodName, 'auto'>,
+  count: number,
+  limit: number,
+): ShiftedPencil | undefined {
+  if (!(limit > 0))
+    throw invalid('memoryLimitBytes', `The memory limit must be positive, got ${limit}.`);
+  const refuse = (estimate: number, what: string): never => {
+    throw new EngineError(
+      'MODEL_TOO_LARGE',
+      `The ${method} solve of this ${n}-DOF model needs about ${megabytes(estimate)} (${what}), ` +
+        `more than the ${megabytes(limit)} this evaluation may use.`,
+      { n, method, estimateBytes: estimate, limitBytes: limit },
+    );
+  };
+  const square = 8 * n * n;
+  if (method === 'dense') {
+    const estimate = DENSE_METHOD_ARRAYS * square;
+    if (estimate > limit) refuse(estimate, `${DENSE_METHOD_ARRAYS} arrays of ${n} × ${n} numbers`);
+    return undefined;
+  }
+  // Iteration vectors of n numbers each: Lanczos' basis and its M-products (basis size as in
+  // lanczos.ts) plus the modes kept; subspace iteration's five blocks of q vectors; two per
+  // mode (φ, Mφ) and a few work vectors for the vector iterations.
+  const p = Math.min(count, n);
+  const vectors =
+    method === 'lanczos'
+      ? 2 * (Math.min(n, Math.max(2 * p + 10, p + 20)) + 1) + 2 * p
+      : method === 'subspace'
+        ? 5 * Math.min(n, 2 * p, p + 8)
+        : 2 * p + 6;
+  const work = 8 * n * vectors;
+  const sparse =
+    (K.kind === 'sparse-symmetric' && M.kind === 'sparse-symmetric') ||
+    method === 'lanczos' ||
+    method === 'subspace';
+  if (!sparse) {
+    const estimate = DENSE_FACTOR_ARRAYS * square + work;
+    if (estimate > limit) {
+      refuse(estimate, `${DENSE_FACTOR_ARRAYS} arrays of ${n} × ${n} numbers in dense storage`);
+    }
+    return undefined;
+  }
+  const pencil = createShiftedPencil(toSparse(K), toSparse(M));
+  const factor = pencil.symbolic().memoryEstimateBytes;
+  if (factor + work > limit) {
+    refuse(
+      factor + work,
+      `${megabytes(factor)} for the sparse factor of K − σM and ${megabytes(work)} for ` +
+        `${vectors} vectors`,
+    );
+  }
+  return pencil;
 }
 
 interface BuildContext {

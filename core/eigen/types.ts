@@ -2,6 +2,7 @@
  * Types of the eigen engine: the options of `solveModes`, the modal result, and the raw result
  * every method module returns before `solveModes` post-processes it.
  */
+import type { ShiftedPencil } from '../linalg/sparse-ldlt/shifted';
 import type { SymmetricFactorization, SymmetricMatrix } from '../linalg/types';
 
 /** The methods `solveModes` knows. `subspace` and `lanczos` answer INVALID_OPTION until they exist. */
@@ -46,6 +47,14 @@ export interface SolveOptions {
   onProgress?: (p: SolveProgress) => void;
   /** Checked between iterations; when true the solve throws EngineError('CANCELLED'). */
   signal?: { readonly aborted: boolean };
+  /**
+   * Memory the solve may use, bytes. Before any factorization the method's largest arrays (the
+   * sparse factor from its symbolic analysis plus the iteration vectors, or the n × n arrays of
+   * the dense method) are estimated and a larger estimate is refused with MODEL_TOO_LARGE
+   * (details: n, method, estimateBytes, limitBytes). Not part of the reported options: it bounds
+   * the run, not the result.
+   */
+  memoryLimitBytes?: number;
 }
 
 /** Options after defaults are applied, as reported in the result. */
@@ -134,6 +143,8 @@ export interface MethodInput {
   seed: number;
   /** A factorization of K − shift·M when the caller already has one. */
   factorization?: SymmetricFactorization;
+  /** The pencil K − σM already analysed (sparse), reused by Lanczos and subspace iteration. */
+  pencil?: ShiftedPencil;
   onProgress?: (p: SolveProgress) => void;
   signal?: { readonly aborted: boolean };
 }

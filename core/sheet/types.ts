@@ -219,4 +219,12 @@ export interface EvaluateOptions {
   isCancelled?: () => boolean;
   /** Largest matrix a single value may hold (entries). Default 4 000 000. */
   maxMatrixEntries?: number;
+  /**
+   * Memory one modes block's solve may use, bytes (no limit by default). A solve whose estimate
+   * exceeds it is refused with MODEL_TOO_LARGE at the block's `method:` line (else its
+   * `stiffness:` line), naming the estimate and the limit, instead of running out of memory.
+   */
+  memoryLimitBytes?: number;
+  /** How to raise that limit, ending the refusal's advice (e.g. "raise MW_EVAL_MEMORY_MB …"). */
+  memoryLimitAdvice?: string;
 }

@@ -239,6 +239,32 @@ function bindResults(ctx: EvalContext, r: ModalResult): Record<string, unknown> 
   return out;
 }
 
+function mb(bytes: number): string {
+  if (bytes < 2 ** 20) return `${Math.round(bytes / 2 ** 10)} kB`;
+  return `${(bytes / 2 ** 20).toFixed(bytes < 10 * 2 ** 20 ? 1 : 0)} MB`;
+}
+
+/** The refusal of a solve above the memory limit, with the estimate, the limit and what to do. */
+function memoryRefusal(e: EngineError, advice: string | undefined): string {
+  const d = e.details ?? {};
+  const n = typeof d.n === 'number' ? d.n : null;
+  const method = typeof d.method === 'string' ? d.method : null;
+  const estimate = typeof d.estimateBytes === 'number' ? mb(d.estimateBytes) : 'more';
+  const limit = mb(d.limitBytes as number);
+  const others =
+    method === 'dense'
+      ? 'lanczos or subspace, which find the lowest modes without n × n arrays'
+      : method === 'lanczos'
+        ? 'subspace, or fewer modes in "count:"'
+        : 'lanczos, which needs the least memory for the lowest modes of a sparse model';
+  return (
+    `The model is too large for the memory this evaluation may use: ` +
+    `${method ? `the ${method} solve` : 'the solve'}${n !== null ? ` of ${n} DOFs` : ''} needs ` +
+    `about ${estimate}, more than the limit of ${limit}. Use fewer DOFs (a coarser mesh), a ` +
+    `different method (${others}), or ${advice ?? 'ask for a larger memory limit'}.`
+  );
+}
+
 export function evaluateModesBlock(
   ctx: EvalContext,
   block: SheetBlock,
@@ -473,6 +499,10 @@ export function evaluateModesBlock(
     },
   };
 
+  if (ctx.options.memoryLimitBytes !== undefined) {
+    options.memoryLimitBytes = ctx.options.memoryLimitBytes;
+  }
+
   let r: ModalResult;
   try {
     r = solveModes(K.engine, M.engine, options);
@@ -482,11 +512,19 @@ export function evaluateModesBlock(
       err instanceof EngineError
         ? err
         : new EngineError('SHEET_EVAL', String((err as Error)?.message ?? err));
+    const tooLarge = e.code === 'MODEL_TOO_LARGE' && typeof e.details?.limitBytes === 'number';
     const msg =
       e instanceof NoConvergenceError
         ? `${e.message} Raise "max iterations:" or loosen "tolerance:".`
-        : e.message;
-    const line = e.code === 'INVALID_OPTION' ? (keys.method?.line ?? 0) : 0;
+        : tooLarge
+          ? memoryRefusal(e, ctx.options.memoryLimitAdvice)
+          : e.message;
+    const line =
+      e.code === 'INVALID_OPTION'
+        ? (keys.method?.line ?? 0)
+        : tooLarge
+          ? (keys.method?.line ?? keys.stiffness!.line)
+          : 0;
     ctx.errors.push({ ...at(line), message: msg, code: e.code });
     return markFailed();
   }
