@@ -24,7 +24,13 @@ export function symmetricEigen(A: DenseMatrix): { values: Float64Array; vectors:
   const Z = new Float64Array(n * n);
   for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) Z[j * n + i] = V[i * n + j] as number;
   for (let i = 1; i < n; i++) e[i - 1] = e[i] as number;
-  tridiagonalQL(d, e, Z, n);
+  // The eigenvalues alone cost O(n²); used as shifts they let most eigenvalues converge in one
+  // sweep, which halves the work on Z (the "perfect shift" strategy, Parlett, *The Symmetric
+  // Eigenvalue Problem*, §8.9 — from memory).
+  const shifts = d.slice();
+  tridiagonalQL(shifts, e.slice(), null, 0);
+  shifts.sort();
+  tridiagonalQL(d, e, Z, n, shifts);
   const order = Array.from({ length: n }, (_, k) => k).sort(
     (a, b) => (d[a] as number) - (d[b] as number),
   );
@@ -94,24 +100,202 @@ export function tred2(n: number, V: Float64Array, d: Float64Array, e: Float64Arr
     }
     d[i] = h;
   }
-  for (let i = 0; i < n - 1; i++) {
-    V[i * n + (n - 1)] = V[i * n + i] as number;
-    V[i * n + i] = 1;
-    const h = d[i + 1] as number;
-    if (h !== 0) {
-      for (let k = 0; k <= i; k++) d[k] = (V[(i + 1) * n + k] as number) / h;
-      for (let j = 0; j <= i; j++) {
-        let g = 0;
-        for (let k = 0; k <= i; k++) g += (V[(i + 1) * n + k] as number) * (V[j * n + k] as number);
-        for (let k = 0; k <= i; k++) V[j * n + k] = (V[j * n + k] as number) - g * (d[k] as number);
-      }
-    }
-    for (let k = 0; k <= i; k++) V[(i + 1) * n + k] = 0;
-  }
+  accumulate(n, V, d);
   for (let j = 0; j < n; j++) {
     d[j] = V[j * n + (n - 1)] as number;
     V[j * n + (n - 1)] = 0;
   }
   V[(n - 1) * n + (n - 1)] = 1;
   e[0] = 0;
+}
+
+/** Reflectors accumulated together in `accumulate`. */
+const ACCUMULATE_BATCH = 32;
+
+/**
+ * The second half of tred2: V ← V H_i for i = 0 … n − 2, where reflector i is stored in row
+ * i + 1 of V (entries 0..i) with H_i = I − u uᵀ / h, h = d[i + 1]. The Handbook applies one
+ * reflector at a time (rank-one updates, bound by memory); here ACCUMULATE_BATCH of them are
+ * gathered into the compact WY form H_{i0} ⋯ H_{i1} = I − Y T Yᵀ (Schreiber & Van Loan, SIAM J.
+ * Sci. Stat. Comput. 10 (1989); Golub & Van Loan, 4th ed., §5.1.7) and applied to the leading
+ * block as R ← R − ((R Y) T) Yᵀ, two matrix products.
+ */
+function accumulate(n: number, V: Float64Array, d: Float64Array): void {
+  const Bmax = ACCUMULATE_BATCH;
+  const Yt = new Float64Array(Bmax * n); // row b: reflector i0 + b, zero past its support
+  const T = new Float64Array(Bmax * Bmax);
+  const P = new Float64Array(n * Bmax);
+  const w = new Float64Array(Bmax);
+  for (let i0 = 0; i0 < n - 1; i0 += Bmax) {
+    const i1 = Math.min(i0 + Bmax, n - 1) - 1;
+    const B = i1 - i0 + 1;
+    const m = i1 + 1; // the block R = V[0..i1, 0..i1]
+    Yt.fill(0, 0, B * m);
+    T.fill(0);
+    for (let b = 0; b < B; b++) {
+      const i = i0 + b;
+      const h = d[i + 1] as number;
+      const vo = (i + 1) * n;
+      const yo = b * m;
+      if (h !== 0) for (let k = 0; k <= i; k++) Yt[yo + k] = V[vo + k] as number;
+      const tau = h !== 0 ? 1 / h : 0;
+      // T[0:b, b] = −τ T[0:b, 0:b] (Yᵀ u_b), T[b, b] = τ (the forward recurrence of LAPACK's dlarft)
+      for (let c = 0; c < b; c++) {
+        let s = 0;
+        const co = c * m;
+        for (let k = 0; k <= i; k++) s += (Yt[co + k] as number) * (Yt[yo + k] as number);
+        w[c] = s;
+      }
+      for (let r = 0; r < b; r++) {
+        let s = 0;
+        for (let c = r; c < b; c++) s += (T[r * Bmax + c] as number) * (w[c] as number);
+        T[r * Bmax + b] = -tau * s;
+      }
+      T[b * Bmax + b] = tau;
+    }
+    // rows i0 … i1 join the block as unit rows (their diagonal saved in column n − 1); the vector
+    // rows are cleared, as the Handbook's loop does once it has used them. A reflector with
+    // index below a row's own touches only that row's cleared entries, so applying the whole
+    // batch to every row of the block is exact.
+    for (let i = i0; i <= i1; i++) {
+      const vo = (i + 1) * n;
+      for (let k = 0; k <= i; k++) V[vo + k] = 0;
+    }
+    for (let i = i0; i <= i1; i++) {
+      V[i * n + (n - 1)] = V[i * n + i] as number;
+      V[i * n + i] = 1;
+    }
+    multiplyRowsByTransposed(V, n, m, Yt, B, P);
+    // P ← P T
+    for (let j = 0; j < m; j++) {
+      const po = j * Bmax;
+      for (let c = B - 1; c >= 0; c--) {
+        let s = 0;
+        for (let r = 0; r <= c; r++) s += (P[po + r] as number) * (T[r * Bmax + c] as number);
+        P[po + c] = s;
+      }
+    }
+    subtractProduct(V, n, m, P, Yt, B);
+  }
+}
+
+/** P[j, b] = Σ_k R[j, k] Yt[b, k] for j < m, b < B (R = V with row stride n; P row stride 32). */
+function multiplyRowsByTransposed(
+  V: Float64Array,
+  n: number,
+  m: number,
+  Yt: Float64Array,
+  B: number,
+  P: Float64Array,
+): void {
+  const ps = ACCUMULATE_BATCH;
+  let j = 0;
+  for (; j + 1 < m; j += 2) {
+    const r0 = j * n;
+    const r1 = r0 + n;
+    let b = 0;
+    for (; b + 1 < B; b += 2) {
+      const y0 = b * m;
+      const y1 = y0 + m;
+      let s00 = 0;
+      let s01 = 0;
+      let s10 = 0;
+      let s11 = 0;
+      for (let k = 0; k < m; k++) {
+        const a0 = V[r0 + k] as number;
+        const a1 = V[r1 + k] as number;
+        const c0 = Yt[y0 + k] as number;
+        const c1 = Yt[y1 + k] as number;
+        s00 += a0 * c0;
+        s01 += a0 * c1;
+        s10 += a1 * c0;
+        s11 += a1 * c1;
+      }
+      P[j * ps + b] = s00;
+      P[j * ps + b + 1] = s01;
+      P[(j + 1) * ps + b] = s10;
+      P[(j + 1) * ps + b + 1] = s11;
+    }
+    for (; b < B; b++) {
+      const y0 = b * m;
+      let s0 = 0;
+      let s1 = 0;
+      for (let k = 0; k < m; k++) {
+        s0 += (V[r0 + k] as number) * (Yt[y0 + k] as number);
+        s1 += (V[r1 + k] as number) * (Yt[y0 + k] as number);
+      }
+      P[j * ps + b] = s0;
+      P[(j + 1) * ps + b] = s1;
+    }
+  }
+  for (; j < m; j++) {
+    const r0 = j * n;
+    for (let b = 0; b < B; b++) {
+      const y0 = b * m;
+      let s = 0;
+      for (let k = 0; k < m; k++) s += (V[r0 + k] as number) * (Yt[y0 + k] as number);
+      P[j * ps + b] = s;
+    }
+  }
+}
+
+/** R[j, k] −= Σ_b P[j, b] Yt[b, k] for j, k < m. */
+function subtractProduct(
+  V: Float64Array,
+  n: number,
+  m: number,
+  P: Float64Array,
+  Yt: Float64Array,
+  B: number,
+): void {
+  const ps = ACCUMULATE_BATCH;
+  let j = 0;
+  for (; j + 1 < m; j += 2) {
+    const r0 = j * n;
+    const r1 = r0 + n;
+    const p0 = j * ps;
+    const p1 = p0 + ps;
+    let b = 0;
+    for (; b + 3 < B; b += 4) {
+      const a0 = P[p0 + b] as number;
+      const a1 = P[p0 + b + 1] as number;
+      const a2 = P[p0 + b + 2] as number;
+      const a3 = P[p0 + b + 3] as number;
+      const c0 = P[p1 + b] as number;
+      const c1 = P[p1 + b + 1] as number;
+      const c2 = P[p1 + b + 2] as number;
+      const c3 = P[p1 + b + 3] as number;
+      const y0 = b * m;
+      const y1 = y0 + m;
+      const y2 = y1 + m;
+      const y3 = y2 + m;
+      for (let k = 0; k < m; k++) {
+        const u0 = Yt[y0 + k] as number;
+        const u1 = Yt[y1 + k] as number;
+        const u2 = Yt[y2 + k] as number;
+        const u3 = Yt[y3 + k] as number;
+        V[r0 + k] = (V[r0 + k] as number) - (a0 * u0 + a1 * u1 + (a2 * u2 + a3 * u3));
+        V[r1 + k] = (V[r1 + k] as number) - (c0 * u0 + c1 * u1 + (c2 * u2 + c3 * u3));
+      }
+    }
+    for (; b < B; b++) {
+      const a0 = P[p0 + b] as number;
+      const c0 = P[p1 + b] as number;
+      const y0 = b * m;
+      for (let k = 0; k < m; k++) {
+        const u = Yt[y0 + k] as number;
+        V[r0 + k] = (V[r0 + k] as number) - a0 * u;
+        V[r1 + k] = (V[r1 + k] as number) - c0 * u;
+      }
+    }
+  }
+  for (; j < m; j++) {
+    const r0 = j * n;
+    const p0 = j * ps;
+    for (let b = 0; b < B; b++) {
+      const a0 = P[p0 + b] as number;
+      const y0 = b * m;
+      for (let k = 0; k < m; k++) V[r0 + k] = (V[r0 + k] as number) - a0 * (Yt[y0 + k] as number);
+    }
+  }
 }

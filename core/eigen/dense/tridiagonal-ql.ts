@@ -29,6 +29,7 @@ export function tridiagonalQL(
   e: Float64Array,
   Z: Float64Array | null,
   rows: number,
+  shifts?: Float64Array,
 ): void {
   const n = d.length;
   if (n === 0) return;
@@ -68,11 +69,19 @@ export function tridiagonalQL(
         let p = ((d[l + 1] as number) - g) / (2 * (e[l] as number));
         let r = Math.hypot(p, 1);
         if (p < 0) r = -r;
-        d[l] = (e[l] as number) / (p + r);
-        d[l + 1] = (e[l] as number) * (p + r);
-        const dl1 = d[l + 1] as number;
-        let h = g - (d[l] as number);
+        // Wilkinson's shift: the eigenvalue of the leading 2 × 2 nearest d[l], less the shifts so far
+        let h = g - (e[l] as number) / (p + r);
+        const perfect = shifts !== undefined && iter === 1;
+        if (perfect) {
+          h = nearest(shifts, f + h) - f;
+          d[l] = g - h;
+          d[l + 1] = (d[l + 1] as number) - h;
+        } else {
+          d[l] = (e[l] as number) / (p + r);
+          d[l + 1] = (e[l] as number) * (p + r);
+        }
         for (let i = l + 2; i < n; i++) d[i] = (d[i] as number) - h;
+        const dl1 = d[l + 1] as number;
         f += h;
         p = d[m] as number;
         let c = 1;
@@ -100,7 +109,9 @@ export function tridiagonalQL(
         hi[queued] = m;
         queued++;
         if (queued === BATCH) flush();
-        p = (-s * s2 * c3 * el1 * (e[l] as number)) / dl1;
+        // With Wilkinson's shift the leading 2 × 2 is singular after shifting, which gives the
+        // more accurate form of EISPACK's tql2; any other shift takes the Handbook's form.
+        if (!perfect) p = (-s * s2 * c3 * el1 * (e[l] as number)) / dl1;
         e[l] = s * p;
         d[l] = c * p;
       } while (Math.abs(e[l] as number) > eps * tst1);
@@ -109,6 +120,20 @@ export function tridiagonalQL(
     e[l] = 0;
   }
   flush();
+}
+
+/** The entry of the ascending list `xs` nearest to x. */
+function nearest(xs: Float64Array, x: number): number {
+  let lo = 0;
+  let hi = xs.length - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if ((xs[mid] as number) < x) lo = mid;
+    else hi = mid;
+  }
+  const a = xs[lo] as number;
+  const b = xs[hi] as number;
+  return Math.abs(a - x) <= Math.abs(b - x) ? a : b;
 }
 
 /**
