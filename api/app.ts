@@ -134,7 +134,7 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     api.use('/projects', createProjectsRouter(ctx));
     api.use(createEvaluateRouter(ctx, { run: runner }));
     api.use(createSheetsRouter(ctx, { runner }));
-    api.use(createUploadsRouter(ctx));
+    api.use(createUploadsRouter(ctx, { describeMatrixFile: pool.describeMatrixFile }));
     api.use('/outbox', createOutboxRouter(ctx));
     api.use(createReviewRouter(ctx, { runner }));
     api.use(apiNotFound);

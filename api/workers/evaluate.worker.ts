@@ -1,14 +1,22 @@
 /**
  * The evaluation worker: runs the sheet engine on one sheet and posts progress back on the
- * MessagePort it was handed. Loaded by piscina in a worker thread through tsx.
+ * MessagePort it was handed. Loaded by piscina in a worker thread through tsx. A second task,
+ * `describeMatrixTask`, reads an uploaded matrix file off the API's main thread.
  */
 import type { MessagePort } from 'node:worker_threads';
 import { evaluateSheet, type Sheet, type SheetResults, type SheetUpload } from '../../core/index';
+import { AppError } from '../http/errors';
+import { describeMatrixFile, type MatrixFileShape } from '../modules/uploads/uploads.parse';
+import type { UploadFormat } from '../modules/uploads/uploads.repository';
 
 export interface EvaluateTask {
   sheet: Sheet;
   uploads: SheetUpload[];
   maxMatrixEntries?: number;
+  /** Memory one modes block's solve may use (a share of the worker's limit), bytes. */
+  memoryLimitBytes?: number;
+  /** How to raise it, for the refusal's message. */
+  memoryLimitAdvice?: string;
   /** Progress messages ({ type: 'progress', progress }) go here. */
   port?: MessagePort;
 }
@@ -41,6 +49,8 @@ export default function evaluateTask(task: EvaluateTask): EvaluateReply {
     const results = evaluateSheet(task.sheet, {
       uploads: task.uploads,
       ...(task.maxMatrixEntries ? { maxMatrixEntries: task.maxMatrixEntries } : {}),
+      ...(task.memoryLimitBytes ? { memoryLimitBytes: task.memoryLimitBytes } : {}),
+      ...(task.memoryLimitAdvice ? { memoryLimitAdvice: task.memoryLimitAdvice } : {}),
       ...(port
         ? { onProgress: (progress) => port.postMessage({ type: 'progress', progress }) }
         : {}),
@@ -62,5 +72,47 @@ export default function evaluateTask(task: EvaluateTask): EvaluateReply {
     // Messages on one port keep their order: 'done' tells the pool every progress event is in.
     port?.postMessage({ type: 'done' });
     port?.close();
+  }
+}
+
+/** An uploaded file to describe: its text (decoded on the main thread), format and name. */
+export interface DescribeMatrixTask {
+  text: string;
+  format: UploadFormat;
+  name: string;
+}
+
+/** The shape, or the API error the parse raised (AppError loses its class crossing threads). */
+export type DescribeMatrixReply =
+  | { ok: true; shape: MatrixFileShape }
+  | {
+      ok: false;
+      error: {
+        status: number;
+        code: string;
+        message: string;
+        field?: string;
+        details?: Record<string, unknown>;
+      };
+    };
+
+/** Reads a matrix file with the engine's readers (uploads.parse.ts), in the worker. */
+export function describeMatrixTask(task: DescribeMatrixTask): DescribeMatrixReply {
+  try {
+    return { ok: true, shape: describeMatrixFile(task.text, task.format, task.name) };
+  } catch (err) {
+    if (err instanceof AppError) {
+      return {
+        ok: false,
+        error: {
+          status: err.status,
+          code: err.code,
+          message: err.message,
+          ...(err.field ? { field: err.field } : {}),
+          ...(err.details ? { details: err.details } : {}),
+        },
+      };
+    }
+    throw err;
   }
 }

@@ -10,6 +10,13 @@
  * - Progress: the worker posts SheetProgress on a MessagePort, relayed to `onProgress`.
  * - A bounded queue: when `maxQueue` evaluations wait, `run` rejects with a 429 carrying a retry
  *   hint in seconds.
+ * - A memory budget for the engine: `solveMemoryShare` (default 60 %) of the worker's memory
+ *   limit is handed to each evaluation, so a modes block whose solve would not fit is refused
+ *   with MODEL_TOO_LARGE at its line (estimate and limit in MB) and the worker lives on, instead
+ *   of being killed for running out of memory.
+ * - A second task kind: `describeMatrixFile` reads an uploaded matrix file in a worker, so a
+ *   large upload (seconds of parsing) never blocks the event loop. Same threads, queue and
+ *   limits as the evaluations.
  *
  * The worker file is TypeScript, loaded with `--import tsx` both under `npm start` (the server
  * runs with tsx) and under Vitest.
@@ -19,7 +26,14 @@ import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
 import type { Sheet, SheetProgress, SheetResults, SheetUpload } from '../../core/index';
 import { AppError, RateLimitedError } from '../http/errors';
-import type { EvaluateReply, EvaluateTask } from './evaluate.worker';
+import type { MatrixFileShape } from '../modules/uploads/uploads.parse';
+import type { UploadFormat } from '../modules/uploads/uploads.repository';
+import type {
+  DescribeMatrixReply,
+  DescribeMatrixTask,
+  EvaluateReply,
+  EvaluateTask,
+} from './evaluate.worker';
 
 export interface EvaluationPoolOptions {
   /** Worker threads; default the number of cores. */
@@ -34,6 +48,11 @@ export interface EvaluationPoolOptions {
   maxMatrixEntries?: number;
   /** Start one worker at once (default true); false starts workers on the first evaluation. */
   warm?: boolean;
+  /**
+   * Share of `memoryLimitMb` one modes block's solve may use (default 0.6): the rest is left for
+   * the sheet's own values (matrices with units), the results and the engine's code.
+   */
+  solveMemoryShare?: number;
 }
 
 export interface RunOptions {
@@ -44,12 +63,27 @@ export interface RunOptions {
 export interface EvaluationPool {
   /** Evaluates a sheet in a worker. Same contract as the sheets module's SheetRunner. */
   run(sheet: Sheet, uploads: SheetUpload[], options?: RunOptions): Promise<SheetResults>;
+  /**
+   * Reads an uploaded matrix file in a worker: its shape, or the 422 MATRIX_FILE_INVALID naming
+   * file and line that `describeMatrixFile` (uploads.parse.ts) raises.
+   */
+  describeMatrixFile(text: string, format: UploadFormat, name: string): Promise<MatrixFileShape>;
   stats(): {
     threads: number;
     queued: number;
     running: number;
     completed: number;
-    limits: { threads: number; timeLimitMs: number; memoryLimitMb: number; maxQueue: number };
+    /** Worker threads started since the pool was made (a killed worker is replaced by a new one). */
+    workersStarted: number;
+    /** Matrix files read in the workers, and how many are being read now. */
+    describes: { completed: number; running: number };
+    limits: {
+      threads: number;
+      timeLimitMs: number;
+      memoryLimitMb: number;
+      maxQueue: number;
+      solveMemoryBytes: number;
+    };
   };
   close(): Promise<void>;
 }
@@ -87,6 +121,14 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
   const timeLimitMs = options.timeLimitMs ?? 30_000;
   const memoryLimitMb = options.memoryLimitMb ?? 512;
   const maxQueue = options.maxQueue ?? 16;
+  const share = options.solveMemoryShare ?? 0.6;
+  if (!(share > 0 && share <= 1)) {
+    throw new Error(`solveMemoryShare must lie in (0, 1], got ${share}.`);
+  }
+  const solveMemoryBytes = Math.floor(share * memoryLimitMb * 2 ** 20);
+  const memoryAdvice =
+    `raise MW_EVAL_MEMORY_MB (each evaluation worker has ${memoryLimitMb} MB, of which a ` +
+    `solve may use ${Number((share * 100).toPrecision(3))} %)`;
   const piscina = new Piscina({
     filename: WORKER_FILE,
     minThreads: options.warm === false ? 0 : 1,
@@ -103,7 +145,13 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
   // A worker that is terminated mid-task emits 'error' on the pool; the task's promise already
   // carries it, so the pool event needs no more than a listener.
   piscina.on('error', () => {});
+  let workersStarted = 0;
+  piscina.on('workerCreate', () => {
+    workersStarted++;
+  });
   let running = 0;
+  let describing = 0;
+  let described = 0;
 
   async function run(
     sheet: Sheet,
@@ -137,7 +185,13 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
       else if (msg.type === 'progress') runOptions.onProgress?.(msg.progress);
       else if (msg.type === 'done') markDone();
     });
-    const task: EvaluateTask = { sheet, uploads, port: port2 };
+    const task: EvaluateTask = {
+      sheet,
+      uploads,
+      port: port2,
+      memoryLimitBytes: solveMemoryBytes,
+      memoryLimitAdvice: memoryAdvice,
+    };
     if (options.maxMatrixEntries) task.maxMatrixEntries = options.maxMatrixEntries;
     running++;
     let reply: EvaluateReply;
@@ -162,14 +216,72 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
     throw new AppError(code === 'CANCELLED' ? 499 : 422, code, message, details ? { details } : {});
   }
 
+  async function describeMatrixFile(
+    text: string,
+    format: UploadFormat,
+    name: string,
+  ): Promise<MatrixFileShape> {
+    if (piscina.queueSize >= maxQueue) throw queueFull(timeLimitMs);
+    const controller = new AbortController();
+    let timedOut = false;
+    const timer = setTimeout(() => {
+      timedOut = true;
+      controller.abort();
+    }, timeLimitMs);
+    const task: DescribeMatrixTask = { text, format, name };
+    describing++;
+    let reply: DescribeMatrixReply;
+    try {
+      reply = (await piscina.run(task, {
+        name: 'describeMatrixTask',
+        signal: controller.signal,
+      })) as DescribeMatrixReply;
+    } catch (err) {
+      if (timedOut) {
+        throw new AppError(
+          422,
+          'MATRIX_FILE_INVALID',
+          `${name}: reading the file took longer than the ${timeLimitMs / 1000} s limit and was stopped.`,
+          { field: 'file', details: { line: 0, file: name } },
+        );
+      }
+      const e = err as { code?: string; message?: string };
+      if (
+        e?.code === 'ERR_WORKER_OUT_OF_MEMORY' ||
+        /out of memory|heap limit/i.test(e?.message ?? '')
+      ) {
+        throw new AppError(
+          422,
+          'MATRIX_FILE_INVALID',
+          `${name}: reading the file needed more than the ${memoryLimitMb} MB memory limit of an evaluation worker (MW_EVAL_MEMORY_MB).`,
+          { field: 'file', details: { line: 0, file: name } },
+        );
+      }
+      throw translate(err, null, timeLimitMs, memoryLimitMb);
+    } finally {
+      clearTimeout(timer);
+      describing--;
+    }
+    described++;
+    if (reply.ok) return reply.shape;
+    const { status, code, message, field, details } = reply.error;
+    throw new AppError(status, code, message, {
+      ...(field ? { field } : {}),
+      ...(details ? { details } : {}),
+    });
+  }
+
   return {
     run,
+    describeMatrixFile,
     stats: () => ({
       threads: piscina.threads.length,
       queued: piscina.queueSize,
       running,
       completed: piscina.completed,
-      limits: { threads, timeLimitMs, memoryLimitMb, maxQueue },
+      workersStarted,
+      describes: { completed: described, running: describing },
+      limits: { threads, timeLimitMs, memoryLimitMb, maxQueue, solveMemoryBytes },
     }),
     close: () => piscina.destroy(),
   };

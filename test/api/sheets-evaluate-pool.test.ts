@@ -42,7 +42,14 @@ function mountWithPool(app: TestApp['app']): void {
 
 beforeAll(async () => {
   t = await createTestApp();
-  pool = createEvaluationPool({ threads: 1, timeLimitMs: 60_000, memoryLimitMb: 512 });
+  // A solve may use 0.001 % of the worker's 512 MB (5.4 kB): tiny on purpose, so that a modes
+  // block of 20 DOFs is refused; the calc-only sheet below never solves.
+  pool = createEvaluationPool({
+    threads: 1,
+    timeLimitMs: 60_000,
+    memoryLimitMb: 512,
+    solveMemoryShare: 1e-5,
+  });
   mountWithPool(t.app);
   const team = await createProjectTeam(t.db);
   projectId = team.project.id;
@@ -107,6 +114,60 @@ describe('POST /api/sheets/:sheetId/evaluate/stream on the worker pool', () => {
       expect(Date.now() - hungUpAt).toBeLessThan(10_000);
       await new Promise((r) => setTimeout(r, 50));
     }
+  });
+});
+
+describe('POST /api/sheets/:sheetId/evaluate on the worker pool, under its memory budget', () => {
+  it('answers the modes block refusal with the estimate and limit, and the worker serves the next evaluation', async () => {
+    const sheet = await newSheet('four-storey-frame');
+    const list = (k: number, v: string) => Array.from({ length: k }, () => v).join(', ');
+    const chain = (storeys: number) => [
+      {
+        id: 'model',
+        kind: 'calc',
+        source: `frame = storey_chain([${list(storeys, '20 t')}], [${list(storeys, '30 kN/mm')}])`,
+      },
+      { id: 'solve', kind: 'modes', source: 'stiffness: frame.K\nmass: frame.M\nmethod: dense' },
+    ];
+    // Warm the worker, then count the threads started from here on.
+    const warm = await author.post(`/api/sheets/${sheet.id}/evaluate`, {
+      blocks: [{ id: 'x', kind: 'calc', source: 'x = 1 m' }],
+      settings: { significantFigures: 4 },
+    });
+    expect(warm.status).toBe(200);
+    const started = pool.stats().workersStarted;
+    expect(pool.stats().limits.solveMemoryBytes).toBe(Math.floor(1e-5 * 512 * 2 ** 20));
+
+    const refused = await author.post(`/api/sheets/${sheet.id}/evaluate`, {
+      blocks: chain(20),
+      settings: { significantFigures: 4 },
+    });
+    expect(refused.status).toBe(200);
+    // 8 arrays of 20 × 20 doubles = 25.6 kB against 0.001 % of 512 MB = 5.4 kB.
+    expect(refused.body.results.errors).toEqual([
+      {
+        blockId: 'solve',
+        blockIndex: 1,
+        line: 3,
+        code: 'MODEL_TOO_LARGE',
+        message:
+          'The model is too large for the memory this evaluation may use: the dense solve of 20 ' +
+          'DOFs needs about 25 kB, more than the limit of 5 kB. Use fewer DOFs (a coarser mesh), ' +
+          'a different method (lanczos or subspace, which find the lowest modes without n × n ' +
+          'arrays), or raise MW_EVAL_MEMORY_MB (each evaluation worker has 512 MB, of which a ' +
+          'solve may use 0.001 %).',
+      },
+    ]);
+
+    // Two storeys fit (8 · 8 · 2² bytes = 256 B): the same worker answers.
+    const next = await author.post(`/api/sheets/${sheet.id}/evaluate`, {
+      blocks: chain(2),
+      settings: { significantFigures: 4 },
+    });
+    expect(next.status).toBe(200);
+    expect(next.body.results.errors).toEqual([]);
+    expect(next.body.results.blocks[1].modes).toHaveLength(2);
+    expect(pool.stats().workersStarted).toBe(started);
   });
 });
 

@@ -6,7 +6,7 @@ import type { AppContext } from '../../http/context';
 import { AppError, PayloadTooLargeError, ValidationError } from '../../http/errors';
 import { parse } from '../../http/validate';
 import { sheetParams } from '../sheets/sheets.schemas';
-import { uploadsService, type ReceivedFile } from './uploads.service';
+import { uploadsService, type MatrixFileDescriber, type ReceivedFile } from './uploads.service';
 
 /** Default largest upload: 20 MB (the bytes are stored compressed; see the uploads migration). */
 export const DEFAULT_UPLOAD_LIMIT_BYTES = 20 * 1024 * 1024;
@@ -14,10 +14,15 @@ export const DEFAULT_UPLOAD_LIMIT_BYTES = 20 * 1024 * 1024;
 export interface UploadsRouterOptions {
   /** Largest file accepted, in bytes; larger ones get 413 PAYLOAD_TOO_LARGE. */
   uploadLimitBytes?: number;
+  /**
+   * Reads a file off the event loop: the evaluation pool's `describeMatrixFile`
+   * (api/workers/evaluation-pool.ts), whose parse of a 20 MB file takes seconds.
+   */
+  describeMatrixFile: MatrixFileDescriber;
 }
 
 /** The limit: the router option, else config.uploadLimitBytes when the config has one, else 20 MB. */
-function resolveLimit(ctx: AppContext, options: UploadsRouterOptions): number {
+function resolveLimit(ctx: AppContext, options: { uploadLimitBytes?: number }): number {
   const fromConfig = (ctx.config as { uploadLimitBytes?: unknown }).uploadLimitBytes;
   if (options.uploadLimitBytes !== undefined) return options.uploadLimitBytes;
   if (typeof fromConfig === 'number' && fromConfig > 0) return fromConfig;
@@ -32,7 +37,7 @@ function megabytes(bytes: number): string {
 /**
  * Matrix files uploaded to a sheet: POST (multipart, field `file`) and GET. Mounted at /api.
  */
-export function createUploadsRouter(ctx: AppContext, options: UploadsRouterOptions = {}): Router {
+export function createUploadsRouter(ctx: AppContext, options: UploadsRouterOptions): Router {
   const { db } = ctx;
   const limit = resolveLimit(ctx, options);
   const receive = multer({
@@ -93,7 +98,13 @@ export function createUploadsRouter(ctx: AppContext, options: UploadsRouterOptio
       );
     }
     const file = await receiveFile(req, res);
-    const { upload, created } = await uploadsService.add(db, user, sheetId, file);
+    const { upload, created } = await uploadsService.add(
+      db,
+      user,
+      sheetId,
+      file,
+      options.describeMatrixFile,
+    );
     res.status(created ? 201 : 200).json({ upload });
   });
 

@@ -5,7 +5,7 @@ import { AppError, ConflictError, ValidationError } from '../../http/errors';
 import type { User } from '../users/users.repository';
 import { checkSheetAccess } from '../sheets/sheets.access';
 import { recordSheetActivity } from '../sheets/sheets.activity';
-import { describeMatrixFile, detectFormat } from './uploads.parse';
+import { detectFormat, type MatrixFileShape } from './uploads.parse';
 import {
   findUploadById,
   findUploadByName,
@@ -13,7 +13,19 @@ import {
   listUploadTexts,
   listUploadsBySheet,
   type Upload,
+  type UploadFormat,
 } from './uploads.repository';
+
+/**
+ * Reads a matrix file far enough to describe it (`describeMatrixFile` of uploads.parse.ts), or
+ * refuses it with 422 MATRIX_FILE_INVALID naming file and line. The app hands in the worker
+ * pool's, so a large file is parsed off the event loop.
+ */
+export type MatrixFileDescriber = (
+  text: string,
+  format: UploadFormat,
+  name: string,
+) => Promise<MatrixFileShape>;
 
 /** A file as multer hands it over (memory storage). */
 export interface ReceivedFile {
@@ -63,13 +75,15 @@ export const uploadsService = {
    * Stores a Matrix Market or CSV file on a sheet after reading it with the engine's readers, so
    * a file that is not a matrix is refused now (422 MATRIX_FILE_INVALID with its line), not at
    * the first evaluation. Uploads never change: a different file under a name already taken is
-   * refused (409), the same file again answers with the stored upload.
+   * refused (409), the same file again answers with the stored upload. The file is read by
+   * `describe` (the worker pool's reader in the app).
    */
   async add(
     db: Db,
     user: User,
     sheetId: number,
     file: ReceivedFile | undefined,
+    describe: MatrixFileDescriber,
   ): Promise<UploadResult> {
     const access = await checkSheetAccess(db, user, sheetId, ['author'], 'upload matrix files');
     if (!file) {
@@ -83,7 +97,7 @@ export const uploadsService = {
     const existing = await findUploadByName(db, sheetId, name);
     if (existing) return sameOrConflict(existing, sha256, name);
 
-    const shape = describeMatrixFile(text, format, name);
+    const shape = await describe(text, format, name);
     let id: number;
     try {
       id = await db.transaction(async (trx) => {
