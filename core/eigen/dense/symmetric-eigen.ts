@@ -46,60 +46,8 @@ export function symmetricEigen(A: DenseMatrix): { values: Float64Array; vectors:
 }
 
 export function tred2(n: number, V: Float64Array, d: Float64Array, e: Float64Array): void {
-  for (let j = 0; j < n; j++) d[j] = V[j * n + (n - 1)] as number;
-  for (let i = n - 1; i > 0; i--) {
-    let scale = 0;
-    let h = 0;
-    for (let k = 0; k < i; k++) scale += Math.abs(d[k] as number);
-    if (scale === 0) {
-      e[i] = d[i - 1] as number;
-      for (let j = 0; j < i; j++) {
-        d[j] = V[j * n + (i - 1)] as number;
-        V[j * n + i] = 0;
-        V[i * n + j] = 0;
-      }
-    } else {
-      for (let k = 0; k < i; k++) {
-        d[k] = (d[k] as number) / scale;
-        h += (d[k] as number) ** 2;
-      }
-      let f = d[i - 1] as number;
-      let g = Math.sqrt(h);
-      if (f > 0) g = -g;
-      e[i] = scale * g;
-      h -= f * g;
-      d[i - 1] = f - g;
-      for (let j = 0; j < i; j++) e[j] = 0;
-      for (let j = 0; j < i; j++) {
-        f = d[j] as number;
-        V[i * n + j] = f;
-        g = (e[j] as number) + (V[j * n + j] as number) * f;
-        for (let k = j + 1; k <= i - 1; k++) {
-          const vkj = V[j * n + k] as number;
-          g += vkj * (d[k] as number);
-          e[k] = (e[k] as number) + vkj * f;
-        }
-        e[j] = g;
-      }
-      f = 0;
-      for (let j = 0; j < i; j++) {
-        e[j] = (e[j] as number) / h;
-        f += (e[j] as number) * (d[j] as number);
-      }
-      const hh = f / (h + h);
-      for (let j = 0; j < i; j++) e[j] = (e[j] as number) - hh * (d[j] as number);
-      for (let j = 0; j < i; j++) {
-        f = d[j] as number;
-        g = e[j] as number;
-        for (let k = j; k <= i - 1; k++) {
-          V[j * n + k] = (V[j * n + k] as number) - (f * (e[k] as number) + g * (d[k] as number));
-        }
-        d[j] = V[j * n + (i - 1)] as number;
-        V[j * n + i] = 0;
-      }
-    }
-    d[i] = h;
-  }
+  if (n > 1) reduce(n, V, d, e);
+  else d[0] = V[0] as number;
   accumulate(n, V, d);
   for (let j = 0; j < n; j++) {
     d[j] = V[j * n + (n - 1)] as number;
@@ -107,6 +55,143 @@ export function tred2(n: number, V: Float64Array, d: Float64Array, e: Float64Arr
   }
   V[(n - 1) * n + (n - 1)] = 1;
   e[0] = 0;
+}
+
+/**
+ * The first half of tred2 (Householder reduction, steps i = n − 1 … 1 on the transposed storage),
+ * with the same arithmetic as the Handbook's loops but one pass over the trailing matrix per step
+ * instead of two: row j's share of step i's rank-two update is followed at once by its share of
+ * step i − 1's product A u while the row is in cache. Column i − 1, which step i − 1's reflector
+ * is made from, is updated first.
+ * Leaves, as the Handbook does: e[i] the off-diagonal, d[i] = h of reflector i (stored in row i of
+ * V, entries 0..i − 1), the reduced diagonal in V's diagonal.
+ */
+function reduce(n: number, V: Float64Array, d: Float64Array, e: Float64Array): void {
+  const x = new Float64Array(n); // row i of the reduced matrix, left of the diagonal
+  let u = new Float64Array(n); // reflector of step i, scaled
+  let p = new Float64Array(n); // A u / h, then q = p − K u
+  let u2 = new Float64Array(n);
+  let p2 = new Float64Array(n);
+  for (let j = 0; j < n; j++) x[j] = V[j * n + (n - 1)] as number;
+  let i = n - 1;
+  let h = prologue(n, V, i, x, u, p, e);
+  let active = h > 0;
+  if (active) for (let j = 0; j < i; j++) productRow(n, V, j, i, u, p);
+  for (;;) {
+    if (active) {
+      let f = 0;
+      for (let j = 0; j < i; j++) {
+        p[j] = (p[j] as number) / h;
+        f += (p[j] as number) * (u[j] as number);
+      }
+      const hh = f / (h + h);
+      for (let j = 0; j < i; j++) p[j] = (p[j] as number) - hh * (u[j] as number);
+    }
+    const c = i - 1;
+    const uc = u[c] as number;
+    const pc = p[c] as number;
+    for (let j = 0; j < i; j++) {
+      if (active) {
+        V[j * n + c] = (V[j * n + c] as number) - ((u[j] as number) * pc + (p[j] as number) * uc);
+      }
+      x[j] = V[j * n + c] as number;
+    }
+    d[i] = h;
+    if (c === 0) {
+      V[i] = 0;
+      d[0] = x[0] as number;
+      return;
+    }
+    const hNext = prologue(n, V, c, x, u2, p2, e);
+    const activeNext = hNext > 0;
+    for (let j = 0; j < c; j++) {
+      const o = j * n;
+      if (active) {
+        const f = u[j] as number;
+        const g = p[j] as number;
+        for (let k = j; k < c; k++) {
+          V[o + k] = (V[o + k] as number) - (f * (p[k] as number) + g * (u[k] as number));
+        }
+      }
+      V[o + i] = 0;
+      if (activeNext) productRow(n, V, j, c, u2, p2);
+    }
+    V[c * n + i] = 0;
+    [u, u2] = [u2, u];
+    [p, p2] = [p2, p];
+    i = c;
+    h = hNext;
+    active = activeNext;
+  }
+}
+
+/**
+ * The start of step i: the reflector from x (row i), e[i], row i of V := the reflector; returns
+ * h (0 when the row is already zero and the step is skipped).
+ */
+function prologue(
+  n: number,
+  V: Float64Array,
+  i: number,
+  x: Float64Array,
+  u: Float64Array,
+  p: Float64Array,
+  e: Float64Array,
+): number {
+  let scale = 0;
+  for (let k = 0; k < i; k++) scale += Math.abs(x[k] as number);
+  if (scale === 0) {
+    e[i] = x[i - 1] as number;
+    for (let j = 0; j < i; j++) V[i * n + j] = 0;
+    return 0;
+  }
+  let h = 0;
+  for (let k = 0; k < i; k++) {
+    u[k] = (x[k] as number) / scale;
+    h += (u[k] as number) ** 2;
+  }
+  const f = u[i - 1] as number;
+  let g = Math.sqrt(h);
+  if (f > 0) g = -g;
+  e[i] = scale * g;
+  h -= f * g;
+  u[i - 1] = f - g;
+  for (let j = 0; j < i; j++) {
+    p[j] = 0;
+    V[i * n + j] = u[j] as number;
+  }
+  return h;
+}
+
+/** Row j's share of p = A u over the leading i × i block (upper triangle of the storage). */
+function productRow(
+  n: number,
+  V: Float64Array,
+  j: number,
+  i: number,
+  u: Float64Array,
+  p: Float64Array,
+): void {
+  const o = j * n;
+  const f = u[j] as number;
+  // two partial sums: one running sum would wait on the adder's latency every step
+  let g0 = (p[j] as number) + (V[o + j] as number) * f;
+  let g1 = 0;
+  let k = j + 1;
+  for (; k + 1 < i; k += 2) {
+    const v0 = V[o + k] as number;
+    const v1 = V[o + k + 1] as number;
+    g0 += v0 * (u[k] as number);
+    g1 += v1 * (u[k + 1] as number);
+    p[k] = (p[k] as number) + v0 * f;
+    p[k + 1] = (p[k + 1] as number) + v1 * f;
+  }
+  if (k < i) {
+    const v0 = V[o + k] as number;
+    g0 += v0 * (u[k] as number);
+    p[k] = (p[k] as number) + v0 * f;
+  }
+  p[j] = g0 + g1;
 }
 
 /** Reflectors accumulated together in `accumulate`. */
