@@ -1,0 +1,92 @@
+// Issue 6, browser: Matrix Market files dragged from the desktop and dropped on the sheet are
+// uploaded, each becomes a matrix block that refers to it, and a modes block solves them.
+import { readFile } from 'node:fs/promises';
+import path from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { saveScreenshot } from '../support/browser';
+import {
+  FIXTURES,
+  RUN,
+  addBlock,
+  block,
+  blockCount,
+  column,
+  newSheet,
+  relative,
+  source,
+  uniformChain,
+  waitForResults,
+  waitSaved,
+  useAuthorBrowser,
+} from './editor-helpers';
+
+describe('sheet editor: files dropped on the sheet (browser)', () => {
+  const session = useAuthorBrowser();
+
+  it('uploads a dropped Matrix Market pair and solves it', async () => {
+    const { page } = session();
+    await newSheet(page, `E2E-D${RUN}`, 'Dropped chain');
+    const before = await blockCount(page);
+    const files = await Promise.all(
+      ['chain3-K.mtx', 'chain3-M.mtx'].map(async (name) => ({
+        name,
+        text: await readFile(path.join(FIXTURES, name), 'utf8'),
+      })),
+    );
+
+    // The files arrive as the browser hands them over from the desktop: a DataTransfer holding
+    // File objects, carried by dragenter, dragover and drop on the blocks.
+    const target = page.getByRole('list', { name: 'Blocks' });
+    const transfer = await page.evaluateHandle((list) => {
+      const dt = new DataTransfer();
+      for (const f of list) dt.items.add(new File([f.text], f.name, { type: 'text/plain' }));
+      return dt;
+    }, files);
+    await target.dispatchEvent('dragenter', { dataTransfer: transfer });
+    await target.dispatchEvent('dragover', { dataTransfer: transfer });
+    await page.getByText('Drop to upload as a matrix block').waitFor();
+    await saveScreenshot(page, 'editor-drop-over');
+    await target.dispatchEvent('drop', { dataTransfer: transfer });
+    await expect.poll(() => page.getByText('Drop to upload as a matrix block').count()).toBe(0);
+
+    await block(page, before + 2, 'matrix').waitFor();
+    const sources = [
+      await source(page, before + 1, 'matrix').innerText(),
+      await source(page, before + 2, 'matrix').innerText(),
+    ];
+    // Both uploads finished in the order they were dropped (one at a time).
+    expect(sources[0]).toContain('from: chain3-K.mtx');
+    expect(sources[1]).toContain('from: chain3-M.mtx');
+
+    await addBlock(
+      page,
+      'modes',
+      ['name: dropped', 'stiffness: chain3_K', 'mass: chain3_M', 'count: 3'].join('\n'),
+    );
+    await waitForResults(page);
+    const table = page.getByRole('table', { name: 'Modes of dropped' });
+    // k = 1000 kN/m = 1e6 N/m, m = 1 t = 1000 kg in the fixtures' comments.
+    const expected = uniformChain(3, 1e6, 1e3);
+    const f = await column(table, 'f (Hz)');
+    expect(f).toHaveLength(3);
+    f.forEach((value, i) => expect(relative(value, expected[i]!.f)).toBeLessThan(5e-4));
+    await waitSaved(page);
+  });
+
+  it('leaves the sheet as it was when the drop holds no files', async () => {
+    const { page } = session();
+    await newSheet(page, `E2E-E${RUN}`, 'Dropped text');
+    const before = await blockCount(page);
+    const target = page.getByRole('list', { name: 'Blocks' });
+    const transfer = await page.evaluateHandle(() => {
+      const dt = new DataTransfer();
+      dt.setData('text/plain', '1 2 3');
+      return dt;
+    });
+    await target.dispatchEvent('dragover', { dataTransfer: transfer });
+    expect(await page.getByText('Drop to upload as a matrix block').count()).toBe(0);
+    await target.dispatchEvent('drop', { dataTransfer: transfer });
+    expect(await page.getByRole('status').filter({ hasText: 'Uploading…' }).count()).toBe(0);
+    expect(await blockCount(page)).toBe(before);
+  });
+});
