@@ -7,25 +7,11 @@ import type {
   MatrixBlockResult,
   ModesBlockResult,
 } from '../../../../core/index';
+import { handParts } from './hand-parts';
+import { ModesWarnings } from './modes-warnings';
 import { Tex } from './tex';
 
 export type { BlockResult, SheetResults } from '../../../../core/index';
-
-const squash = (tex: string) => tex.replace(/\\[,;:!]|\s|[{}]/g, '');
-
-/** formula = substitution = result, leaving out a step that only repeats the one before. */
-function handParts(latex: CalcBlockResult['lines'][number]['latex']): string[] {
-  const parts = [latex.formula];
-  let last = latex.formula.includes('=')
-    ? latex.formula.slice(latex.formula.lastIndexOf('=') + 1)
-    : latex.formula;
-  if (latex.substituted && squash(latex.substituted) !== squash(last)) {
-    parts.push(latex.substituted);
-    last = latex.substituted;
-  }
-  if (squash(latex.result) !== squash(last)) parts.push(latex.result);
-  return parts;
-}
 
 function CalcLines({ result }: { result: CalcBlockResult }) {
   if (result.lines.length === 0) return null;
@@ -85,6 +71,10 @@ function Matrix({ result }: { result: MatrixBlockResult }) {
   );
 }
 
+/** A ratio 0–1 as a percentage with one decimal, as the editor shows it. */
+const percent = (x: number | null) =>
+  x === null || !Number.isFinite(x) ? '—' : `${(x * 100).toFixed(1)} %`;
+
 const fmt = (x: number | null, digits = 4) =>
   x === null || !Number.isFinite(x) ? '—' : Number(x.toPrecision(digits)).toString();
 
@@ -97,7 +87,7 @@ function Modes({ result }: { result: ModesBlockResult }) {
             <th className="py-1 pr-3">Mode</th>
             <th className="py-1 pr-3">f (Hz)</th>
             <th className="py-1 pr-3">T (s)</th>
-            <th className="py-1 pr-3">Mass ratio</th>
+            <th className="py-1 pr-3">Eff. mass</th>
             <th className="py-1 pr-3">Cumulative</th>
           </tr>
         </thead>
@@ -107,8 +97,8 @@ function Modes({ result }: { result: ModesBlockResult }) {
               <td className="py-1 pr-3">{m.mode}</td>
               <td className="py-1 pr-3">{fmt(m.frequency)}</td>
               <td className="py-1 pr-3">{fmt(m.period)}</td>
-              <td className="py-1 pr-3">{fmt(m.ratio, 3)}</td>
-              <td className="py-1 pr-3">{fmt(m.cumulative, 3)}</td>
+              <td className="py-1 pr-3">{percent(m.ratio)}</td>
+              <td className="py-1 pr-3">{percent(m.cumulative)}</td>
             </tr>
           ))}
         </tbody>
@@ -122,11 +112,9 @@ function Modes({ result }: { result: ModesBlockResult }) {
             : ''}
         </p>
       ) : null}
-      {result.warnings.map((w) => (
-        <p key={w} className="text-xs text-fail">
-          {w}
-        </p>
-      ))}
+      <div className="mt-1 flex flex-col gap-1">
+        <ModesWarnings result={result} compact />
+      </div>
     </div>
   );
 }

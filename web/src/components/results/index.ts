@@ -1,2 +1,4 @@
 export { BlockResultView, type BlockResult, type SheetResults } from './block-results';
 export { Tex } from './tex';
+export { handParts } from './hand-parts';
+export { ModesWarnings, splitModesWarnings, powerOfTen } from './modes-warnings';

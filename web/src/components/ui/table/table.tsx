@@ -12,11 +12,19 @@ export function Table({ caption, children }: { caption: string; children: ReactN
   );
 }
 
-export function Th({ className = '', ...rest }: ThHTMLAttributes<HTMLTableCellElement>) {
+/**
+ * A column heading in small capitals; `caps={false}` for headings that carry symbols and units
+ * (f (Hz), ω (rad/s)), which capitals would turn into other symbols (Ω) and wrong units (HZ).
+ */
+export function Th({
+  className = '',
+  caps = true,
+  ...rest
+}: ThHTMLAttributes<HTMLTableCellElement> & { caps?: boolean }) {
   return (
     <th
       scope="col"
-      className={`border-b border-ink/70 px-3 py-2 text-xs font-semibold tracking-wide text-ink-soft uppercase ${className}`}
+      className={`border-b border-ink/70 px-3 py-2 text-xs font-semibold text-ink-soft ${caps ? 'tracking-wide uppercase' : ''} ${className}`}
       {...rest}
     />
   );

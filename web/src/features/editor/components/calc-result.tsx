@@ -1,25 +1,6 @@
 import type { CalcBlockResult } from '../api/results';
+import { handParts } from '../../../components/results';
 import { Tex } from './tex';
-
-const squash = (tex: string) => tex.replace(/\\[,;:!]|\s|[{}]/g, '');
-
-/**
- * formula = substitution = result, leaving out a step that repeats the one before it
- * (`h = 3.6 m` needs no `= 3.6 m` after it).
- */
-function handParts(latex: CalcBlockResult['lines'][number]['latex']): string[] {
-  const parts = [latex.formula];
-  const rhs = latex.formula.includes('=')
-    ? latex.formula.slice(latex.formula.lastIndexOf('=') + 1)
-    : latex.formula;
-  let last = rhs;
-  if (latex.substituted && squash(latex.substituted) !== squash(last)) {
-    parts.push(latex.substituted);
-    last = latex.substituted;
-  }
-  if (squash(latex.result) !== squash(last)) parts.push(latex.result);
-  return parts;
-}
 
 /** Each calc line as written by hand: the formula, the values substituted, the result. */
 export function CalcResult({ result }: { result: CalcBlockResult }) {

@@ -36,7 +36,7 @@ export function MatrixResult({ result, digits }: { result: MatrixBlockResult; di
       ) : null}
       {rows.length > 0 ? (
         <table
-          className="w-auto border-collapse font-mono text-xs"
+          className="w-auto self-start border-collapse font-mono text-xs"
           aria-label={`Preview of ${result.name ?? 'matrix'}`}
         >
           <tbody>

@@ -1,9 +1,23 @@
+import { lazy, Suspense } from 'react';
 import type { ModesBlockResult } from '../api/results';
+import { ModesWarnings } from '../../../components/results';
 import { Table, Td, Th } from '../../../components/ui/table';
 import { percent, sig } from '../lib/format';
-import { ConvergencePlot, ModeShapePlot } from './modes-plots';
+import { Spinner } from '../../../components/ui/spinner';
 
-/** The modes table, the Sturm check, warnings and the two plots of one eigen-solve. */
+// The charts library is the largest part of the editor: fetched when the first plot is drawn, so a
+// sheet without modes (or still evaluating) opens without it.
+const ModeShapePlot = lazy(() =>
+  import('./modes-plots').then((m) => ({ default: m.ModeShapePlot })),
+);
+const ConvergencePlot = lazy(() =>
+  import('./modes-plots').then((m) => ({ default: m.ConvergencePlot })),
+);
+
+/**
+ * The modes table, the Sturm check, warnings (and the conditioning note, which is information)
+ * and the two plots of one eigen-solve.
+ */
 export function ModesResult({ result, digits }: { result: ModesBlockResult; digits: number }) {
   const name = result.name ?? 'modes';
   return (
@@ -20,15 +34,33 @@ export function ModesResult({ result, digits }: { result: ModesBlockResult; digi
         <Table caption={`Modes of ${name}`}>
           <thead>
             <tr>
-              <Th className="text-right">Mode</Th>
-              <Th className="text-right">f (Hz)</Th>
-              <Th className="text-right">T (s)</Th>
-              <Th className="text-right">ω (rad/s)</Th>
-              <Th className="text-right">Γ</Th>
-              <Th className="text-right">Eff. mass</Th>
-              <Th className="text-right">Cumulative</Th>
-              <Th className="text-right">Backward error</Th>
-              <Th className="text-right">Iterations</Th>
+              <Th caps={false} className="text-right">
+                Mode
+              </Th>
+              <Th caps={false} className="text-right">
+                f (Hz)
+              </Th>
+              <Th caps={false} className="text-right">
+                T (s)
+              </Th>
+              <Th caps={false} className="text-right">
+                ω (rad/s)
+              </Th>
+              <Th caps={false} className="text-right">
+                Γ
+              </Th>
+              <Th caps={false} className="text-right">
+                Eff. mass
+              </Th>
+              <Th caps={false} className="text-right">
+                Cumulative
+              </Th>
+              <Th caps={false} className="text-right">
+                Backward error
+              </Th>
+              <Th caps={false} className="text-right">
+                Iterations
+              </Th>
             </tr>
           </thead>
           <tbody className="num">
@@ -52,28 +84,31 @@ export function ModesResult({ result, digits }: { result: ModesBlockResult; digi
       ) : null}
       {result.sturm ? (
         <p className={result.sturm.missed ? 'text-fail' : 'text-pass'}>
-          Sturm check at σ = {sig(result.sturm.shift, digits)} 1/s²: {result.sturm.count} eigenvalue
+          Sturm check at σ = {sig(result.sturm.shift, digits)} (rad/s)²
+          {result.sturm.shift > 0
+            ? ` (${sig(Math.sqrt(result.sturm.shift) / (2 * Math.PI), digits)} Hz)`
+            : ''}
+          : {result.sturm.count} eigenvalue
           {result.sturm.count === 1 ? '' : 's'} below the shift, {result.sturm.found} found —{' '}
           {result.sturm.missed ? 'a mode was missed.' : 'no mode missed.'}
         </p>
       ) : null}
       {result.criticalTimeStep !== null ? (
-        <p>Critical time step Δt_cr = 2/ω_max = {sig(result.criticalTimeStep, digits)} s</p>
+        <p>
+          Critical time step Δt<sub>cr</sub> = 2/ω<sub>max</sub> ={' '}
+          <span className="num">{sig(result.criticalTimeStep, digits)}</span> s
+        </p>
       ) : null}
-      {result.warnings.length > 0 ? (
-        <ul className="list-disc pl-5 text-[#8a4b12]" aria-label="Warnings">
-          {result.warnings.map((w, i) => (
-            <li key={i}>{w}</li>
-          ))}
-        </ul>
-      ) : null}
+      <ModesWarnings result={result} />
       {(result.shapes && result.shapes.length > 0) || result.histories.length > 0 ? (
-        <div className="flex flex-col gap-4 md:flex-row">
-          {result.shapes && result.shapes.length > 0 ? (
-            <ModeShapePlot shapes={result.shapes} count={result.modes.length} />
-          ) : null}
-          {result.histories.length > 0 ? <ConvergencePlot histories={result.histories} /> : null}
-        </div>
+        <Suspense fallback={<Spinner label="Drawing the plots…" />}>
+          <div className="flex flex-col gap-4 md:flex-row">
+            {result.shapes && result.shapes.length > 0 ? (
+              <ModeShapePlot shapes={result.shapes} count={result.modes.length} />
+            ) : null}
+            {result.histories.length > 0 ? <ConvergencePlot histories={result.histories} /> : null}
+          </div>
+        </Suspense>
       ) : null}
     </div>
   );
