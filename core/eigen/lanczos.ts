@@ -251,6 +251,7 @@ export function lanczos(input: MethodInput, options: LanczosOptions = {}): Lancz
   // by a new run orthogonal to (locked against) the converged modes, until the count and the
   // modes agree.
   const MAX_LOCKED_RUNS = 8;
+  let cutThrough: { lambda: number; counted: number } | undefined;
   for (let round = 0; ; round++) {
     let above: number;
     let below: number;
@@ -286,6 +287,16 @@ export function lanczos(input: MethodInput, options: LanczosOptions = {}): Lancz
       rand,
       options.basisSize,
     );
+    const lamP = result.lambdas[result.lambdas.length - 1]!;
+    if (
+      result.lambdas.length >= p &&
+      extra.lambdas.every((l) => l >= lamP - 1e-8 * Math.abs(lamP))
+    ) {
+      // Nothing new below λ_p: the uncounted ones are further copies of λ_p itself, so the
+      // count asked for cuts through a repeated eigenvalue. The modes found are right.
+      cutThrough = { lambda: lamP, counted: inside };
+      break;
+    }
     notes.push(
       `${inside - found} repeated or hidden mode${inside - found === 1 ? '' : 's'} ` +
         'found by a second Lanczos run locked against the converged ones (Sturm count).',
@@ -321,7 +332,18 @@ export function lanczos(input: MethodInput, options: LanczosOptions = {}): Lancz
           ? ' — fewer than found: the model is too ill-conditioned for its pivots to be trusted.'
           : '.'),
     );
-    if (inside > sturm.found) {
+    if (cutThrough) {
+      const more = cutThrough.counted - sturm.found;
+      const message =
+        `Sturm check: K − σM at σ = ${sturm.shift.toPrecision(6)} rad²/s² counts ` +
+        `${cutThrough.counted} eigenvalues up to just above λ_${sturm.found} = ` +
+        `${cutThrough.lambda.toPrecision(6)} rad²/s², but ${sturm.found} modes were asked for: ` +
+        `that eigenvalue is repeated past the count, with ${more} more ` +
+        `cop${more === 1 ? 'y' : 'ies'} at it. The modes found are right; ask for at least ` +
+        `${cutThrough.counted} modes to have its whole eigenspace.`;
+      warnings.push({ code: 'REPEATED_BEYOND_COUNT', message });
+      notes.push(message);
+    } else if (inside > sturm.found) {
       const missing = inside - sturm.found;
       const message =
         `Sturm check failed: K − σM at σ = ${sturm.shift.toPrecision(6)} rad²/s² (just above the ` +

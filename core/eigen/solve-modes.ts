@@ -309,10 +309,9 @@ export function solveModes(
               : lanczos(input, limit);
   // Lanczos writes its own warnings into its notes (for callers of the method alone); here they
   // come once, as warnings of the result, so they are not repeated in the method note.
-  const methodWarnings = new Set(
-    ((raw as Partial<LanczosResult>).warnings ?? []).map((w) => w.message),
-  );
-  noteParts.push(...raw.notes.filter((note) => !methodWarnings.has(note)));
+  const methodWarnings = (raw as Partial<LanczosResult>).warnings ?? [];
+  const warned = new Set(methodWarnings.map((w) => w.message));
+  noteParts.push(...raw.notes.filter((note) => !warned.has(note)));
   const result = buildResult(K, M, raw, {
     method,
     opts,
@@ -322,6 +321,7 @@ export function solveModes(
     methodNote: noteParts.join(' '),
     influence: options.influence ?? [],
     massless,
+    methodWarnings,
   });
   return result;
 }
@@ -414,6 +414,8 @@ interface BuildContext {
   methodNote: string;
   influence: { name: string; vector: Float64Array }[];
   massless: number;
+  /** Warnings the method made itself (Lanczos), used in place of the generic ones here. */
+  methodWarnings: { code: string; message: string }[];
 }
 
 function buildResult(
@@ -486,7 +488,13 @@ function buildResult(
       const belowLo = lowest ? 0 : sturmCount(K, M, lo);
       const inside = below - belowLo;
       sturm = { shift: hi, countBelow: below, found, ok: inside === found };
-      if (!sturm.ok) {
+      // Lanczos has made this check already, with locked runs: its verdict, in its words.
+      const own = c.methodWarnings.find(
+        (w) => w.code === 'STURM_MISMATCH' || w.code === 'REPEATED_BEYOND_COUNT',
+      );
+      if (!sturm.ok && own) {
+        warnings.push(own);
+      } else if (!sturm.ok) {
         warnings.push({
           code: 'STURM_MISMATCH',
           message: lowest
