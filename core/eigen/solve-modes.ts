@@ -148,7 +148,8 @@ function tryFactorize(A: SymmetricMatrix): SymmetricFactorization | EngineError 
  * @throws EngineError MATRIX_SIZE_MISMATCH, MATRIX_NOT_SQUARE, MATRIX_NOT_SYMMETRIC,
  *   MATRIX_NOT_FINITE, MASS_NOT_PSD, MASS_SINGULAR (forward), STIFFNESS_NOT_PSD, INVALID_OPTION,
  *   INVALID_MODEL (empty model), CANCELLED, NO_CONVERGENCE (NoConvergenceError with the converged
- *   modes as a RawEigenResult in `partial`).
+ *   modes as a RawEigenResult in `partial`), MODEL_TOO_LARGE (details n, method, estimateBytes,
+ *   limitBytes) when `memoryLimitBytes` is given and the method's arrays would exceed it.
  * @example
  * const { K, M, influence } = storeyChain({ masses: [2e5, 1e5], stiffnesses: [4e7, 2e7] });
  * const r = solveModes(K, M, { count: 2, influence });
