@@ -83,6 +83,11 @@ describe('lanczos conditioning estimate', () => {
     expect(w?.message).toContain(`λ_max/λ₁ ≥ ${ratio.toPrecision(2)}`);
     expect(w?.message).toContain(`λ_max ≥ ${bound.toPrecision(3)} rad²/s²`);
     expect(w?.message).toContain(`≈ ${(ratio * EPS).toPrecision(2)} of its value`);
+    // Against the handbook λ₁ (Blevins): a rounding error of ε·λ_max is larger than λ₁ itself,
+    // and the error of the λ₁ computed stays within it.
+    const rounding = EPS * raw.conditioning.lambdaMax;
+    expect(rounding).toBeGreaterThan(handbook[0]!);
+    expect(Math.abs(raw.lambdas[0]! - handbook[0]!)).toBeLessThanOrEqual(rounding);
     // The notes, which the bench prints, carry it too.
     expect(raw.notes.some((n) => n.includes('not meaningful'))).toBe(true);
   });
