@@ -25,6 +25,12 @@ type Undo = { label: string; blocks: Block[] };
 
 const NO_ISSUES: SheetIssue[] = [];
 
+const FROZEN_WORDS: Record<string, string> = {
+  in_check: 'in check',
+  checked: 'signed off',
+  sealed: 'sealed',
+};
+
 /** The sheet editor on the draft: loads the sheet, then hands it to the editing surface. */
 export function SheetEditor({
   sheetId,
@@ -48,7 +54,10 @@ export function SheetEditor({
 }
 
 function EditorSurface({ sheet, projectHref }: { sheet: SheetDetail; projectHref: string }) {
-  const canEdit = sheet.myRoles.includes('author') && sheet.status !== 'sealed';
+  // The draft is the author's working copy in every state: a sealed or checked revision stays as it
+  // is, and what is typed here becomes the next revision when it is issued (a newer seal
+  // supersedes the older one).
+  const canEdit = sheet.myRoles.includes('author');
   const [blocks, setBlocks] = useState<Block[]>(sheet.draft.blocks);
   const [settings, setSettings] = useState(sheet.draft.settings ?? { significantFigures: 4 });
   const [undo, setUndo] = useState<Undo | null>(null);
@@ -157,6 +166,16 @@ function EditorSurface({ sheet, projectHref }: { sheet: SheetDetail; projectHref
         onRun={() => void evaluation.run()}
         onCancel={evaluation.cancel}
       />
+
+      {canEdit &&
+      sheet.latestRevision &&
+      sheet.status !== 'draft' &&
+      sheet.status !== 'returned' ? (
+        <p className="text-sm text-ink-soft" data-testid="next-revision-note">
+          Rev {sheet.latestRevision.number} is {FROZEN_WORDS[sheet.status] ?? 'issued'} and stays as
+          it is; changes here go into Rev {sheet.latestRevision.number + 1} when it is issued.
+        </p>
+      ) : null}
 
       {undo ? (
         <div
