@@ -105,7 +105,7 @@ describe('review and seal, the whole flow (browser)', () => {
     await form.getByRole('button', { name: 'Add remark' }).click();
     const remarks = page.getByRole('complementary', { name: 'Remarks' });
     await remarks.getByText('State the mass used').waitFor();
-    await page.getByLabel('1 remark(s) on line 3').waitFor();
+    await page.getByLabel('1 remark on line 3').waitFor();
     // Sign off is refused while the remark is open, with the server's reason.
     await page.getByRole('button', { name: 'Sign off' }).click();
     await page
@@ -149,7 +149,7 @@ describe('review and seal, the whole flow (browser)', () => {
   it('the checker sees the carried remark on line 4, closes it and signs off', async () => {
     const { page } = tomasz;
     await page.goto(rev2Url);
-    await page.getByLabel('1 remark(s) on line 4').waitFor();
+    await page.getByLabel('1 remark on line 4').waitFor();
     const remarks = page.getByRole('complementary', { name: 'Remarks' });
     await remarks.getByText('Carried from Rev 1, line 3').waitFor();
     await remarks.getByRole('button', { name: 'Close remark' }).click();

@@ -12,6 +12,8 @@ import {
   type RevisionChoice,
 } from '../api/get-compare';
 
+const count = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
+
 const sideLabel = (side: CompareSide) =>
   side.kind === 'draft' ? `the draft (version ${side.draftVersion})` : `Rev ${side.number}`;
 
@@ -145,9 +147,10 @@ function Result({
   return (
     <>
       <p className="text-sm" role="status">
-        From {sideLabel(from)} to {sideLabel(to)}: {summary.changed} block(s) changed,{' '}
+        From {sideLabel(from)} to {sideLabel(to)}: {count(summary.changed, 'block')} changed,{' '}
         {summary.added} added, {summary.removed} removed, {summary.moved} moved;{' '}
-        {summary.resultsChanged} result(s) changed; {summary.flipped} criterion/criteria flipped.
+        {count(summary.resultsChanged, 'result')} changed;{' '}
+        {summary.flipped === 1 ? '1 criterion' : `${summary.flipped} criteria`} flipped.
       </p>
       {comparison.flipped.length > 0 ? (
         <section aria-label="Criteria that flipped" className="flex flex-col gap-1">

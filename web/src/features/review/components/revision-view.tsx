@@ -23,6 +23,8 @@ import {
 import { RemarkCard } from './remark-card';
 import { RemarkForm } from './remark-form';
 
+const countRemarks = (n: number) => `${n} remark${n === 1 ? '' : 's'}`;
+
 export type RevisionLinks = {
   sheet: (projectId: number, sheetId: number) => string;
   print: (revisionId: number) => string;
@@ -214,7 +216,7 @@ function ReviewActions({
           <p className="text-sm text-ink-soft">
             {unclosed === 0
               ? 'Every remark is closed: the revision can be signed off.'
-              : `${unclosed} remark(s) not closed: sign off needs every remark closed; return the revision for the author to act on them.`}
+              : `${countRemarks(unclosed)} not closed: sign off needs every remark closed; return the revision for the author to act on them.`}
           </p>
           <div className="flex gap-2">
             <Button
@@ -293,7 +295,7 @@ function Blocks({
                   Remark on the block
                 </button>
               ) : null}
-              {whole.length > 0 ? <span>{whole.length} remark(s) on the block</span> : null}
+              {whole.length > 0 ? <span>{countRemarks(whole.length)} on the block</span> : null}
             </header>
             {open && open.blockId === block.id && open.line === 0 ? (
               <div className="px-3">
@@ -319,8 +321,8 @@ function Blocks({
                       <span className="flex w-16 shrink-0 items-start justify-end gap-1 border-r border-rule pr-2 text-xs leading-6 text-ink-faint select-none">
                         {here.length > 0 ? (
                           <span
-                            title={`${here.length} remark(s), ${unclosed} not closed`}
-                            aria-label={`${here.length} remark(s) on line ${line}`}
+                            title={`${countRemarks(here.length)}, ${unclosed} not closed`}
+                            aria-label={`${countRemarks(here.length)} on line ${line}`}
                             className={`inline-block rounded-full px-1 text-[10px] font-bold text-paper-sheet ${unclosed > 0 ? 'bg-fail' : 'bg-pass'}`}
                           >
                             {here.length}
@@ -339,7 +341,7 @@ function Blocks({
                           <span>{line}</span>
                         )}
                       </span>
-                      <span className="min-w-0 flex-1 px-3 leading-6 break-all whitespace-pre-wrap">
+                      <span className="min-w-0 flex-1 px-3 leading-6 whitespace-pre-wrap [overflow-wrap:anywhere]">
                         {text || ' '}
                       </span>
                     </div>

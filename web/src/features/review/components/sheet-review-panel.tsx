@@ -133,12 +133,12 @@ export function RevisionList({
       <tbody>
         {rows.map((r) => (
           <tr key={r.id} className="border-b border-rule/60">
-            <td className="py-1 pr-3">
+            <td className="py-1 pr-3 whitespace-nowrap">
               <Link to={revisionHref(r.id)} className="text-accent-strong hover:underline">
                 Rev {r.number}
               </Link>
             </td>
-            <td className="py-1 pr-3">{REVISION_STATUS_LABELS[r.status]}</td>
+            <td className="py-1 pr-3 whitespace-nowrap">{REVISION_STATUS_LABELS[r.status]}</td>
             <td className="py-1 pr-3">{r.purpose}</td>
             <td className="py-1 pr-3">
               {r.issuedBy.name}, {formatUtc(r.issuedAt)}
