@@ -329,8 +329,9 @@ export function solveModes(
 
 /**
  * n × n arrays of doubles the dense method holds at its peak (K and M densified, the Cholesky
- * factor, the reduced matrix, the tridiagonal solver's copy and its vectors, and the second
- * reduction with K for an ill-conditioned model), counted from core/eigen/dense-eigensolver.ts.
+ * factor, the reduction's result and its two work arrays, the tridiagonal solver's copy and
+ * vectors), counted from core/eigen/dense-eigensolver.ts and core/eigen/dense/ (re-count when
+ * they change).
  */
 export const DENSE_METHOD_ARRAYS = 8;
 /** n × n arrays a dense-storage factorization of K − σM holds (K − σM, its factor, a copy). */
