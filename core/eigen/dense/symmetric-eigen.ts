@@ -106,15 +106,18 @@ function reduce(n: number, V: Float64Array, d: Float64Array, e: Float64Array): v
     const activeNext = hNext > 0;
     for (let j = 0; j < c; j++) {
       const o = j * n;
-      if (active) {
+      if (active && activeNext) {
+        updateAndProductRow(n, V, j, c, u, p, u2, p2);
+      } else if (active) {
         const f = u[j] as number;
         const g = p[j] as number;
         for (let k = j; k < c; k++) {
           V[o + k] = (V[o + k] as number) - (f * (p[k] as number) + g * (u[k] as number));
         }
+      } else if (activeNext) {
+        productRow(n, V, j, c, u2, p2);
       }
       V[o + i] = 0;
-      if (activeNext) productRow(n, V, j, c, u2, p2);
     }
     V[c * n + i] = 0;
     [u, u2] = [u2, u];
@@ -161,6 +164,48 @@ function prologue(
     V[i * n + j] = u[j] as number;
   }
   return h;
+}
+
+/**
+ * Row j's share of step i's rank-two update A −= u qᵀ + q uᵀ (u, q = p) and, in the same loop
+ * over the row, its share of the next step's product p2 = A u2 over the leading c × c block.
+ */
+function updateAndProductRow(
+  n: number,
+  V: Float64Array,
+  j: number,
+  c: number,
+  u: Float64Array,
+  p: Float64Array,
+  u2: Float64Array,
+  p2: Float64Array,
+): void {
+  const o = j * n;
+  const f = u[j] as number;
+  const g = p[j] as number;
+  const f2 = u2[j] as number;
+  const vjj = (V[o + j] as number) - (f * (p[j] as number) + g * (u[j] as number));
+  V[o + j] = vjj;
+  let g0 = (p2[j] as number) + vjj * f2;
+  let g1 = 0;
+  let k = j + 1;
+  for (; k + 1 < c; k += 2) {
+    const v0 = (V[o + k] as number) - (f * (p[k] as number) + g * (u[k] as number));
+    const v1 = (V[o + k + 1] as number) - (f * (p[k + 1] as number) + g * (u[k + 1] as number));
+    V[o + k] = v0;
+    V[o + k + 1] = v1;
+    g0 += v0 * (u2[k] as number);
+    g1 += v1 * (u2[k + 1] as number);
+    p2[k] = (p2[k] as number) + v0 * f2;
+    p2[k + 1] = (p2[k + 1] as number) + v1 * f2;
+  }
+  if (k < c) {
+    const v0 = (V[o + k] as number) - (f * (p[k] as number) + g * (u[k] as number));
+    V[o + k] = v0;
+    g0 += v0 * (u2[k] as number);
+    p2[k] = (p2[k] as number) + v0 * f2;
+  }
+  p2[j] = g0 + g1;
 }
 
 /** Row j's share of p = A u over the leading i × i block (upper triangle of the storage). */
@@ -274,10 +319,13 @@ function multiplyRowsByTransposed(
   P: Float64Array,
 ): void {
   const ps = ACCUMULATE_BATCH;
+  // four rows × two reflectors per pass: eight running sums from six loads per step
   let j = 0;
-  for (; j + 1 < m; j += 2) {
+  for (; j + 3 < m; j += 4) {
     const r0 = j * n;
     const r1 = r0 + n;
+    const r2 = r1 + n;
+    const r3 = r2 + n;
     let b = 0;
     for (; b + 1 < B; b += 2) {
       const y0 = b * m;
@@ -286,31 +334,44 @@ function multiplyRowsByTransposed(
       let s01 = 0;
       let s10 = 0;
       let s11 = 0;
+      let s20 = 0;
+      let s21 = 0;
+      let s30 = 0;
+      let s31 = 0;
       for (let k = 0; k < m; k++) {
-        const a0 = V[r0 + k] as number;
-        const a1 = V[r1 + k] as number;
         const c0 = Yt[y0 + k] as number;
         const c1 = Yt[y1 + k] as number;
+        const a0 = V[r0 + k] as number;
+        const a1 = V[r1 + k] as number;
+        const a2 = V[r2 + k] as number;
+        const a3 = V[r3 + k] as number;
         s00 += a0 * c0;
         s01 += a0 * c1;
         s10 += a1 * c0;
         s11 += a1 * c1;
+        s20 += a2 * c0;
+        s21 += a2 * c1;
+        s30 += a3 * c0;
+        s31 += a3 * c1;
       }
-      P[j * ps + b] = s00;
-      P[j * ps + b + 1] = s01;
-      P[(j + 1) * ps + b] = s10;
-      P[(j + 1) * ps + b + 1] = s11;
+      const o = j * ps + b;
+      P[o] = s00;
+      P[o + 1] = s01;
+      P[o + ps] = s10;
+      P[o + ps + 1] = s11;
+      P[o + 2 * ps] = s20;
+      P[o + 2 * ps + 1] = s21;
+      P[o + 3 * ps] = s30;
+      P[o + 3 * ps + 1] = s31;
     }
     for (; b < B; b++) {
       const y0 = b * m;
-      let s0 = 0;
-      let s1 = 0;
-      for (let k = 0; k < m; k++) {
-        s0 += (V[r0 + k] as number) * (Yt[y0 + k] as number);
-        s1 += (V[r1 + k] as number) * (Yt[y0 + k] as number);
+      for (let r = 0; r < 4; r++) {
+        const ro = (j + r) * n;
+        let s = 0;
+        for (let k = 0; k < m; k++) s += (V[ro + k] as number) * (Yt[y0 + k] as number);
+        P[(j + r) * ps + b] = s;
       }
-      P[j * ps + b] = s0;
-      P[(j + 1) * ps + b] = s1;
     }
   }
   for (; j < m; j++) {

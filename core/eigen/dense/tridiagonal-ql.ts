@@ -67,7 +67,7 @@ export function tridiagonalQL(
         }
         let g = d[l] as number;
         let p = ((d[l + 1] as number) - g) / (2 * (e[l] as number));
-        let r = Math.hypot(p, 1);
+        let r = hypot(p, 1);
         if (p < 0) r = -r;
         // Wilkinson's shift: the eigenvalue of the leading 2 × 2 nearest d[l], less the shifts so far
         let h = g - (e[l] as number) / (p + r);
@@ -96,7 +96,7 @@ export function tridiagonalQL(
           s2 = s;
           g = c * (e[i] as number);
           h = c * p;
-          r = Math.hypot(p, e[i] as number);
+          r = hypot(p, e[i] as number);
           e[i + 1] = s * r;
           s = (e[i] as number) / r;
           c = p / r;
@@ -120,6 +120,16 @@ export function tridiagonalQL(
     e[l] = 0;
   }
   flush();
+}
+
+/**
+ * √(a² + b²) without overflow or underflow: the plain formula where the squares are safe (V8's
+ * Math.hypot is several times slower), Math.hypot outside that range.
+ */
+function hypot(a: number, b: number): number {
+  const s = Math.abs(a) + Math.abs(b);
+  if (s < 1e150 && s > 1e-150) return Math.sqrt(a * a + b * b);
+  return Math.hypot(a, b);
 }
 
 /** The entry of the ascending list `xs` nearest to x. */
