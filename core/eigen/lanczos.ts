@@ -252,6 +252,7 @@ export function lanczos(input: MethodInput, options: LanczosOptions = {}): Lancz
   // modes agree.
   const MAX_LOCKED_RUNS = 8;
   let cutThrough: { lambda: number; counted: number } | undefined;
+  let widened: number | null = null;
   for (let round = 0; ; round++) {
     let above: number;
     let below: number;
@@ -261,14 +262,16 @@ export function lanczos(input: MethodInput, options: LanczosOptions = {}): Lancz
       below = band.belowHi;
       found = result.lambdas.filter((l) => l >= band.lo && l < band.hi).length;
     } else {
-      const lamP = result.lambdas[result.lambdas.length - 1]!;
-      above = lamP + Math.max(1e-8 * Math.abs(lamP), 1e-12 * Math.abs(sigma) + 1e-300);
-      try {
-        below = op.countBelow(above);
-      } catch (e) {
-        if (e instanceof EngineError && e.code === 'ZERO_PIVOT') break;
-        throw e;
-      }
+      const counted = sturmCountAbove(
+        op,
+        result.lambdas,
+        sigma,
+        scale,
+        factorization.negativePivots,
+      );
+      if (!counted) break;
+      ({ above, below } = counted);
+      if (counted.widened !== null) widened = counted.widened;
       found = result.lambdas.filter((l) => l < above).length;
     }
     const before = factorization.negativePivots;
@@ -325,6 +328,14 @@ export function lanczos(input: MethodInput, options: LanczosOptions = {}): Lancz
   }
   if (sturm) {
     const inside = sturm.countBelow - sturm.belowSigma;
+    if (widened !== null) {
+      notes.push(
+        `Sturm check: just above λ_${sturm.found} (δ = 1e-8) the pivots of K − σM counted fewer ` +
+          'eigenvalues than were found, which cannot be in exact arithmetic: rounding of this ' +
+          `ill-conditioned model moves eigenvalues by about ε·λ_max, so the shift was moved to ` +
+          `λ_${sturm.found}·(1 + ${widened.toExponential(0)}).`,
+      );
+    }
     notes.push(
       `Sturm check: ${inside} eigenvalue${inside === 1 ? '' : 's'} between ` +
         `σ = ${sigma.toPrecision(4)} and ${sturm.shift.toPrecision(6)} rad²/s², ${sturm.found} found` +
@@ -356,6 +367,45 @@ export function lanczos(input: MethodInput, options: LanczosOptions = {}): Lancz
     }
   }
   return finish(result, sturm);
+}
+
+/**
+ * The Sturm count just above λ_p: K − σM factored at σ = λ_p(1 + δ), δ = 1e-8. When that counts
+ * fewer eigenvalues than the modes found up to λ_p — impossible in exact arithmetic, so the
+ * pivots are not to be trusted at that margin — δ grows by decades while the margin stays within
+ * 100·ε·λ_max (λ_max ≥ `scale` = max K_ii/M_ii), the size of the rounding of the factorization
+ * (Wilkinson's backward error of LDLᵀ, common practice for the margin). Null when the shift hits
+ * a zero pivot. `widened` is the δ used when it had to grow.
+ */
+function sturmCountAbove(
+  op: ShiftedOperator,
+  lambdas: number[],
+  sigma: number,
+  scale: number,
+  belowSigma: number,
+): { above: number; below: number; widened: number | null } | null {
+  const lamP = lambdas[lambdas.length - 1]!;
+  const floor = 1e-12 * Math.abs(sigma) + 1e-300;
+  const limit = 100 * Number.EPSILON * scale;
+  let delta = 1e-8;
+  let widened: number | null = null;
+  for (;;) {
+    const above = lamP + Math.max(delta * Math.abs(lamP), floor);
+    let below: number;
+    try {
+      below = op.countBelow(above);
+    } catch (e) {
+      if (e instanceof EngineError && e.code === 'ZERO_PIVOT') return null;
+      throw e;
+    }
+    const needed = lambdas.filter((l) => l < above).length;
+    const next = delta * 10;
+    if (below - belowSigma >= needed || next * Math.abs(lamP) > limit) {
+      return { above, below, widened };
+    }
+    delta = next;
+    widened = delta;
+  }
 }
 
 /**
