@@ -20,15 +20,16 @@ import { combine, diagonalOf, factorizeSymmetric, toSparse } from '../linalg/fac
 import { matrixSize } from '../linalg/sparse';
 import type { SymmetricFactorization } from '../linalg/types';
 import {
-  backTransform,
+  backSubstituteColumns,
   bandOrdering,
+  columnInOriginalOrder,
   congruence,
   permutedDense,
   profileCholesky,
   type ProfileFactor,
 } from './dense/reduction';
 import { refineLowModes } from './dense/refine-low-modes';
-import { symmetricEigen } from './dense/symmetric-eigen';
+import { symmetricEigenColumns } from './dense/symmetric-eigen';
 import type { MethodInput, RawEigenResult } from './types';
 
 export { symmetricEigen } from './dense/symmetric-eigen';
@@ -74,12 +75,18 @@ export function denseEigensolver(input: MethodInput): RawEigenResult {
   if (massF) {
     const F = massF;
     const C = congruence(F, permutedDense(input.K, ord));
-    const { values, vectors: Z } = symmetricEigen({ kind: 'dense', rows: n, cols: n, data: C });
+    const { values, Z, order } = symmetricEigenColumns({
+      kind: 'dense',
+      rows: n,
+      cols: n,
+      data: C,
+    });
+    backSubstituteColumns(F, Z);
     lambdas = Array.from(values);
     const kept = Math.min(input.count, n);
-    vectors = Z.slice(0, Math.max(kept, guardCount(lambdas, kept))).map((z) =>
-      backTransform(F, ord, z, 1),
-    );
+    vectors = order
+      .slice(0, Math.max(kept, guardCount(lambdas, kept)))
+      .map((k) => columnInOriginalOrder(ord, Z, k, 1));
     refine(input, lambdas, vectors, notes);
   } else {
     // M singular: reduce with a positive definite A = K − σM.
@@ -108,7 +115,13 @@ export function denseEigensolver(input: MethodInput): RawEigenResult {
     }
     const F = AF;
     const C = congruence(F, Mp);
-    const { values, vectors: Z } = symmetricEigen({ kind: 'dense', rows: n, cols: n, data: C });
+    const { values, Z, order } = symmetricEigenColumns({
+      kind: 'dense',
+      rows: n,
+      cols: n,
+      data: C,
+    });
+    backSubstituteColumns(F, Z);
     const muMax = Math.max(...Array.from(values).map(Math.abs), 0);
     const pairs: { lambda: number; phi: Float64Array }[] = [];
     let dropped = 0;
@@ -121,7 +134,7 @@ export function denseEigensolver(input: MethodInput): RawEigenResult {
       }
       if (pairs.length >= input.count) continue;
       // zᵀz = 1 gives φᵀAφ = 1 and φᵀMφ = μ: rescale to φᵀMφ = 1
-      const phi = backTransform(F, ord, Z[k] as Float64Array, 1 / Math.sqrt(mu));
+      const phi = columnInOriginalOrder(ord, Z, order[k] as number, 1 / Math.sqrt(mu));
       pairs.push({ lambda: sigma + 1 / mu, phi });
     }
     pairs.sort((a, b) => a.lambda - b.lambda);

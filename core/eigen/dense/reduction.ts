@@ -141,25 +141,38 @@ export function congruence(F: ProfileFactor, A: Float64Array): Float64Array {
 }
 
 /**
- * φ = Pᵀ L⁻ᵀ z scaled by `scale`: the vector of the original pencil, in the original numbering.
- * @example const phi = backTransform(F, ord, z, 1);
+ * X = L⁻ᵀ Z in place for every column of Z (row-major n × n): the back-substitution of all
+ * eigenvectors at once, as row operations over contiguous memory.
+ * @example backSubstituteColumns(F, Z);
  */
-export function backTransform(
-  F: ProfileFactor,
-  ord: BandOrdering,
-  z: Float64Array,
-  scale: number,
-): Float64Array {
+export function backSubstituteColumns(F: ProfileFactor, Z: Float64Array): void {
   const { n, L, first } = F;
-  const x = Float64Array.from(z);
   for (let i = n - 1; i >= 0; i--) {
     const li = i * n;
-    const xi = (x[i] as number) / (L[li + i] as number);
-    x[i] = xi;
-    for (let k = first[i] as number; k < i; k++)
-      x[k] = (x[k] as number) - (L[li + k] as number) * xi;
+    const zi = i * n;
+    const r = 1 / (L[li + i] as number);
+    for (let j = 0; j < n; j++) Z[zi + j] = (Z[zi + j] as number) * r;
+    for (let k = first[i] as number; k < i; k++) {
+      const lik = L[li + k] as number;
+      if (lik === 0) continue;
+      const zk = k * n;
+      for (let j = 0; j < n; j++) Z[zk + j] = (Z[zk + j] as number) - lik * (Z[zi + j] as number);
+    }
   }
+}
+
+/**
+ * Column `col` of X scaled by `scale`, in the original numbering (undoes the band ordering).
+ * @example const phi = columnInOriginalOrder(ord, X, order[0], 1);
+ */
+export function columnInOriginalOrder(
+  ord: BandOrdering,
+  X: Float64Array,
+  col: number,
+  scale: number,
+): Float64Array {
+  const n = ord.n;
   const phi = new Float64Array(n);
-  for (let k = 0; k < n; k++) phi[ord.perm[k] as number] = (x[k] as number) * scale;
+  for (let k = 0; k < n; k++) phi[ord.perm[k] as number] = (X[k * n + col] as number) * scale;
   return phi;
 }

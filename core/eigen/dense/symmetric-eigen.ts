@@ -14,10 +14,32 @@ import { tridiagonalQL } from './tridiagonal-ql';
  */
 export function symmetricEigen(A: DenseMatrix): { values: Float64Array; vectors: Float64Array[] } {
   const n = A.rows;
+  const { values, Z, order } = symmetricEigenColumns(A);
+  const vectors: Float64Array[] = [];
+  order.forEach((k) => {
+    const v = new Float64Array(n);
+    for (let i = 0; i < n; i++) v[i] = Z[i * n + k] as number;
+    vectors.push(v);
+  });
+  return { values, vectors };
+}
+
+/**
+ * `symmetricEigen` without the copying out: `values` ascending, Z (n × n, row-major) with the
+ * eigenvector of `values[r]` in column `order[r]`.
+ * @throws NoConvergenceError as `symmetricEigen`.
+ * @example const { values, Z, order } = symmetricEigenColumns(A);
+ */
+export function symmetricEigenColumns(A: DenseMatrix): {
+  values: Float64Array;
+  Z: Float64Array;
+  order: number[];
+} {
+  const n = A.rows;
   const V = Float64Array.from(A.data); // A is symmetric: its transpose is itself
   const d = new Float64Array(n);
   const e = new Float64Array(n);
-  if (n === 0) return { values: d, vectors: [] };
+  if (n === 0) return { values: d, Z: new Float64Array(0), order: [] };
   tred2(n, V, d, e);
   // tred2 works on the transpose (contiguous inner loops) and leaves Qᵀ in V; the QL sweeps want
   // Q row-major with one column per eigenvector.
@@ -35,14 +57,8 @@ export function symmetricEigen(A: DenseMatrix): { values: Float64Array; vectors:
     (a, b) => (d[a] as number) - (d[b] as number),
   );
   const values = new Float64Array(n);
-  const vectors: Float64Array[] = [];
-  order.forEach((k, r) => {
-    values[r] = d[k] as number;
-    const v = new Float64Array(n);
-    for (let i = 0; i < n; i++) v[i] = Z[i * n + k] as number;
-    vectors.push(v);
-  });
-  return { values, vectors };
+  order.forEach((k, r) => (values[r] = d[k] as number));
+  return { values, Z, order };
 }
 
 export function tred2(n: number, V: Float64Array, d: Float64Array, e: Float64Array): void {
