@@ -26,6 +26,8 @@ import { getMatrixEntryLimit, registerSheetFunctions, sheetMath } from './math';
 
 /** Engine matrices (SI) behind the mathjs matrices generators return, for exact hand-over. */
 export const ENGINE_MATRICES = new WeakMap<object, SymmetricMatrix>();
+/** The DOF labels of a generated model's K and M ("w3", "θ3", "N2 ux", "u4"), for the plots. */
+export const MATRIX_DOFS = new WeakMap<object, readonly string[]>();
 
 function asList(v: unknown, what: string, fn: string): unknown[] {
   const { math } = sheetMath();
@@ -76,11 +78,11 @@ function toSheetMatrix(A: SymmetricMatrix, unit: string): Matrix {
 
 function modelObject(model: ModelMatrices): Record<string, unknown> {
   const { math } = sheetMath();
-  const out: Record<string, unknown> = {
-    K: toSheetMatrix(model.K, 'N/m'),
-    M: toSheetMatrix(model.M, 'kg'),
-    n: model.dofs.length,
-  };
+  const K = toSheetMatrix(model.K, 'N/m');
+  const M = toSheetMatrix(model.M, 'kg');
+  MATRIX_DOFS.set(K, model.dofs);
+  MATRIX_DOFS.set(M, model.dofs);
+  const out: Record<string, unknown> = { K, M, n: model.dofs.length };
   const first = model.influence[0];
   if (first) out.r = math.matrix(Array.from(first.vector));
   const influence: Record<string, unknown> = {};

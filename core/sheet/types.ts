@@ -177,6 +177,11 @@ export interface ModesBlockResult extends BlockResultBase {
   modes: ModeRow[];
   /** Mode shapes, columns = modes, in the normalization asked for; null above the display limit. */
   shapes: number[][] | null;
+  /**
+   * The DOF of each row of `shapes` when K came from a model generator ("w3" and "θ3" of a beam,
+   * "N2 ux" of a plane frame, "u4" of a storey chain); null for typed or uploaded matrices.
+   */
+  dofLabels: string[] | null;
   sturm: { shift: number; count: number; found: number; missed: boolean } | null;
   criticalTimeStep: number | null;
   warnings: string[];

@@ -29,7 +29,7 @@ import { denseFromRows } from '../../linalg/sparse';
 import type { SymmetricMatrix } from '../../linalg/types';
 import { evaluateNode, parseExpression, report, type EvalContext } from '../context';
 import { RESULT_MATRIX_LIMIT } from '../format';
-import { ENGINE_MATRICES } from '../generators';
+import { ENGINE_MATRICES, MATRIX_DOFS } from '../generators';
 import { blockLines, splitComment } from '../source';
 import type { ModeRow, ModesBlockResult, SheetBlock } from '../types';
 
@@ -62,6 +62,8 @@ interface SideMatrix {
   /** A unit entry of the matrix (null when plain numbers). */
   unit: Unit | null;
   n: number;
+  /** DOF labels when the matrix came from a model generator. */
+  dofs: readonly string[] | null;
 }
 
 function fail(message: string, code: 'SHEET_PARSE' | 'SHEET_EVAL' = 'SHEET_EVAL'): never {
@@ -114,7 +116,8 @@ function sideMatrix(ctx: EvalContext, v: unknown, role: 'K' | 'M', expr: string)
     fail(`${role} has entries with a unit and entries without; give every entry the same unit.`);
   }
   const engine = ENGINE_MATRICES.get(m) ?? denseFromRows(data);
-  return { engine, unit, n };
+  const dofs = MATRIX_DOFS.get(m);
+  return { engine, unit, n, dofs: dofs && dofs.length === n ? dofs : null };
 }
 
 /** The unit check: K/M must reduce to 1/s². Returns a warning for plain-number matrices. */
@@ -175,6 +178,7 @@ function emptyResult(block: SheetBlock, blockIndex: number): ModesBlockResult {
     size: null,
     modes: [],
     shapes: null,
+    dofLabels: null,
     sturm: null,
     criticalTimeStep: null,
     warnings: [],
@@ -550,6 +554,8 @@ export function evaluateModesBlock(
     r.n * r.modes.length <= RESULT_MATRIX_LIMIT
       ? Array.from({ length: r.n }, (_, i) => r.modes.map((m) => m.shape[i]!))
       : null;
+  result.dofLabels = result.shapes ? [...(K.dofs ?? M.dofs ?? [])] : null;
+  if (result.dofLabels?.length === 0) result.dofLabels = null;
   result.histories = r.modes.map((m) => m.history);
   result.sturm = r.sturm
     ? { shift: r.sturm.shift, count: r.sturm.countBelow, found: r.sturm.found, missed: !r.sturm.ok }

@@ -138,6 +138,33 @@ describe('modes blocks: shear buildings', () => {
     expect((r.blocks[2] as CriteriaBlockResult).criteria[0]!.pass).toBe(
       omega(1) / (2 * Math.PI) >= 3,
     );
+    // The shapes name their DOFs, so a plot can draw the deflection w without the rotations:
+    // pinned ends keep their rotations θ1 and θ21 and lose w1 and w21.
+    const block = r.blocks[1] as ModesBlockResult;
+    expect(block.dofLabels).toHaveLength(block.shapes!.length);
+    expect(block.dofLabels!.slice(0, 3)).toEqual(['θ1', 'w2', 'θ2']);
+    expect(block.dofLabels!.at(-1)).toBe('θ21');
+    // The first mode of a pinned–pinned beam is a half sine: all w of one sign, largest mid-span.
+    const w = block.dofLabels!.flatMap((l, i) =>
+      l.startsWith('w') ? [block.shapes![i]![0]!] : [],
+    );
+    expect(w).toHaveLength(19);
+    expect(w.every((x) => Math.sign(x) === Math.sign(w[0]!))).toBe(true);
+    expect(Math.abs(w[9]!)).toBeCloseTo(Math.max(...w.map(Math.abs)), 12);
+  });
+
+  it('gives no DOF labels for a typed matrix', () => {
+    const r = evaluateSheet({
+      blocks: [
+        { id: 'k', kind: 'matrix', source: 'name: K\nunit: kN/m\n\n2000, -1000\n-1000, 1000' },
+        { id: 'm', kind: 'matrix', source: 'name: M\nunit: t\n\n10, 0\n0, 10' },
+        { id: 'x', kind: 'modes', source: 'stiffness: K\nmass: M\ncount: 2\nname: s' },
+      ],
+    });
+    expect(r.errors).toEqual([]);
+    const block = r.blocks[2] as ModesBlockResult;
+    expect(block.shapes).toHaveLength(2);
+    expect(block.dofLabels).toBeNull();
   });
 
   it('finds the modes nearest a shift given as a machine speed', () => {

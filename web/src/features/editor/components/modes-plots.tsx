@@ -14,57 +14,166 @@ import { sig } from '../lib/format';
 export const SERIES_COLOURS = ['#1f6b5c', '#8a4b12', '#5b3f8c', '#a3261b', '#4a4f57', '#2d6a2f'];
 const MAX_SHAPES = 6;
 
+/** One DOF label read as node and component: "w3" → (3, w), "N2 ux" → (2, ux), "u4" → (4, u). */
+function parseDof(label: string): { node: number; component: string } | null {
+  const frame = /^N(\d+)\s+(\S+)$/.exec(label);
+  if (frame) return { node: Number(frame[1]), component: frame[2]! };
+  const plain = /^([^\d\s]+)(\d+)$/.exec(label);
+  return plain ? { node: Number(plain[2]), component: plain[1]! } : null;
+}
+
+const ROTATIONS = new Set(['θ', 'rz', 'rx', 'ry']);
+
+export interface ShapeLayout {
+  /** The components a model has, translations first ("w", "θ"; "ux", "uy", "rz"; "u"). */
+  components: string[];
+  /** Every node of the model, ascending (restrained DOFs included, drawn at zero). */
+  nodes: number[];
+  /** Row of `shapes` for (component, node), absent where the DOF is restrained. */
+  row: Map<string, number>;
+}
+
+/** The nodes and components behind a model's DOF labels; null when a label cannot be read. */
+export function shapeLayout(labels: readonly string[] | null | undefined): ShapeLayout | null {
+  if (!labels || labels.length === 0) return null;
+  const row = new Map<string, number>();
+  const nodes = new Set<number>();
+  const components: string[] = [];
+  for (const [i, label] of labels.entries()) {
+    const dof = parseDof(label);
+    if (!dof) return null;
+    nodes.add(dof.node);
+    if (!components.includes(dof.component)) components.push(dof.component);
+    row.set(`${dof.component} ${dof.node}`, i);
+  }
+  components.sort((a, b) => Number(ROTATIONS.has(a)) - Number(ROTATIONS.has(b)));
+  return { components, nodes: [...nodes].sort((a, b) => a - b), row };
+}
+
 /**
- * Mode shapes against the degree of freedom, drawn upwards (DOF 1 at the bottom) so a storey
- * chain reads like the building. Only the first six modes are drawn.
+ * Mode shapes. A generated model (its DOF labels known) is drawn per node for one component at a
+ * time — a beam's deflection w along the span, left to right, with its restrained ends at zero; a
+ * storey chain or frame upwards from node 1 — and rotations are one choice away. Typed or
+ * uploaded matrices are drawn against the DOF number, upwards. Only the first six modes are drawn.
  */
-export function ModeShapePlot({ shapes, count }: { shapes: number[][]; count: number }) {
+export function ModeShapePlot({
+  shapes,
+  count,
+  dofLabels,
+  dofs,
+}: {
+  shapes: number[][];
+  count: number;
+  /** The model's DOF labels (from the engine), when K came from a generator. */
+  dofLabels?: readonly string[] | null;
+  /** Without labels: the 0-based DOFs to draw (null: all). */
+  dofs?: readonly number[] | null;
+}) {
+  const layout = shapeLayout(dofLabels);
+  const [picked, setPicked] = useState<string | null>(null);
+  const component = layout ? (picked ?? layout.components[0]!) : null;
   const modes = Math.min(count, MAX_SHAPES, shapes[0]?.length ?? 0);
-  // Each shape scaled to a largest component of 1 for the drawing (the table keeps the
+  const rows: { at: number; row: number | null }[] =
+    layout && component
+      ? layout.nodes.map((node) => ({
+          at: node,
+          row: layout.row.get(`${component} ${node}`) ?? null,
+        }))
+      : dofs && dofs.length > 0
+        ? dofs.map((i) => ({ at: i + 1, row: i }))
+        : shapes.map((_, i) => ({ at: i + 1, row: i }));
+  // Each shape scaled to a largest component of 1 in what is drawn (the table keeps the
   // normalization asked for).
   const scale = Array.from({ length: modes }, (_, j) => {
-    const max = Math.max(...shapes.map((row) => Math.abs(row[j] ?? 0)));
+    const max = Math.max(
+      ...rows.map((r) => (r.row === null ? 0 : Math.abs(shapes[r.row]?.[j] ?? 0))),
+    );
     return max > 0 ? 1 / max : 1;
   });
-  const data = shapes.map((row, i) => {
-    const point: Record<string, number> = { dof: i + 1 };
-    for (let j = 0; j < modes; j++) point[`m${j + 1}`] = (row[j] ?? 0) * (scale[j] ?? 1);
+  const data = rows.map((r) => {
+    const point: Record<string, number> = { at: r.at };
+    for (let j = 0; j < modes; j++) {
+      point[`m${j + 1}`] = r.row === null ? 0 : (shapes[r.row]?.[j] ?? 0) * (scale[j] ?? 1);
+    }
     return point;
   });
+  // A beam's deflection reads along the span; chains and frames read like the building.
+  const alongSpan = component === 'w';
+  const axisName = layout ? 'Node' : 'DOF';
+  const lo = data[0]?.at ?? 1;
+  const hi = Math.max(lo, data[data.length - 1]?.at ?? 1);
+  const positionAxis = {
+    type: 'number' as const,
+    dataKey: 'at',
+    domain: [lo, hi],
+    allowDecimals: false,
+    tick: { fontSize: 11 },
+  };
+  const valueAxis = {
+    type: 'number' as const,
+    domain: [-1, 1],
+    ticks: [-1, -0.5, 0, 0.5, 1],
+    tick: { fontSize: 11 },
+    tickFormatter: (v: number) => sig(v, 2),
+  };
   return (
     <figure className="min-w-0 flex-1" aria-label="Mode shapes">
-      <figcaption className="mb-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">
-        Mode shapes{' '}
-        <span className="font-normal normal-case">(each scaled to a largest value of 1)</span>
+      <figcaption className="mb-1 flex items-center justify-between gap-2 text-xs font-semibold tracking-wide text-ink-soft uppercase">
+        <span>
+          Mode shapes{' '}
+          <span className="font-normal normal-case">
+            ({layout && component ? `${component} at each node, ` : ''}each scaled to a largest
+            value of 1)
+          </span>
+        </span>
+        {layout && layout.components.length > 1 ? (
+          <label className="flex items-center gap-1 font-normal normal-case">
+            Component
+            <select
+              className="rounded-sm border border-rule-strong bg-paper-sheet px-1 py-0.5 text-xs"
+              value={component ?? ''}
+              onChange={(e) => setPicked(e.target.value)}
+            >
+              {layout.components.map((c) => (
+                <option key={c} value={c}>
+                  {c}
+                  {ROTATIONS.has(c) ? ' (rotation)' : ''}
+                </option>
+              ))}
+            </select>
+          </label>
+        ) : null}
       </figcaption>
       <div style={{ height: 240 }}>
         <ResponsiveContainer width="100%" height="100%">
           <LineChart
             data={data}
-            layout="vertical"
-            margin={{ top: 4, right: 12, bottom: 4, left: 0 }}
+            layout={alongSpan ? 'horizontal' : 'vertical'}
+            margin={{ top: 4, right: 12, bottom: alongSpan ? 14 : 4, left: 0 }}
           >
             <CartesianGrid stroke="#d6cfbf" strokeDasharray="2 3" />
-            <XAxis
-              type="number"
-              domain={[-1, 1]}
-              ticks={[-1, -0.5, 0, 0.5, 1]}
-              tick={{ fontSize: 11 }}
-              tickFormatter={(v: number) => sig(v, 2)}
-            />
-            <YAxis
-              type="number"
-              dataKey="dof"
-              domain={[1, Math.max(1, data.length)]}
-              allowDecimals={false}
-              reversed
-              tick={{ fontSize: 11 }}
-              width={32}
-              label={{ value: 'DOF', angle: -90, position: 'insideLeft', fontSize: 11 }}
-            />
+            {alongSpan ? (
+              <>
+                <XAxis
+                  {...positionAxis}
+                  label={{ value: axisName, position: 'insideBottom', offset: -8, fontSize: 11 }}
+                />
+                <YAxis {...valueAxis} width={36} />
+              </>
+            ) : (
+              <>
+                <XAxis {...valueAxis} />
+                <YAxis
+                  {...positionAxis}
+                  reversed
+                  width={32}
+                  label={{ value: axisName, angle: -90, position: 'insideLeft', fontSize: 11 }}
+                />
+              </>
+            )}
             <Tooltip
               formatter={(v) => sig(Number(v), 4)}
-              labelFormatter={(l) => `DOF ${String(l)}`}
+              labelFormatter={(l) => `${axisName} ${String(l)}`}
             />
             <Legend wrapperStyle={{ fontSize: 11 }} />
             {Array.from({ length: modes }, (_, j) => (
