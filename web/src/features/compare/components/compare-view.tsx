@@ -9,6 +9,7 @@ import {
   type BlockChange,
   type CompareSide,
   type Comparison,
+  type ResultChange,
   type RevisionChoice,
 } from '../api/get-compare';
 
@@ -144,6 +145,13 @@ function Result({
 }) {
   const { from, to, summary } = comparison;
   const changedBlocks = comparison.blocks.filter((b) => b.status !== 'unchanged');
+  // A re-run of the same model differs in the last binary digits; those are not changes to check.
+  // So does a mass ratio of a mode that does not move in the direction (zero but for rounding).
+  const isRounding = (r: ResultChange) =>
+    (r.relativeChange !== null && Math.abs(r.relativeChange) < ROUNDING) ||
+    (r.key.endsWith(' ratio') && tiny(r.old) && tiny(r.new));
+  const real = comparison.results.filter((r) => !isRounding(r));
+  const rounding = comparison.results.filter(isRounding);
   return (
     <>
       <p className="text-sm" role="status">
@@ -170,32 +178,18 @@ function Result({
         {comparison.results.length === 0 ? (
           <p className="text-sm text-ink-soft">No result changed.</p>
         ) : (
-          <table className="w-full border-collapse text-sm">
-            <thead>
-              <tr className="border-b border-rule text-left text-xs text-ink-soft">
-                <th className="py-1 pr-3">Block</th>
-                <th className="py-1 pr-3">Result</th>
-                <th className="py-1 pr-3">Was</th>
-                <th className="py-1 pr-3">Now</th>
-                <th className="py-1 pr-3">Change</th>
-              </tr>
-            </thead>
-            <tbody>
-              {comparison.results.map((r) => (
-                <tr key={`${r.blockId}-${r.key}`} className="border-b border-rule/60">
-                  <td className="py-1 pr-3 font-mono text-xs">{r.blockId}</td>
-                  <td className="py-1 pr-3">{r.key}</td>
-                  <td className="py-1 pr-3 font-mono text-xs">{r.old ?? '—'}</td>
-                  <td className="py-1 pr-3 font-mono text-xs">{r.new ?? '—'}</td>
-                  <td className="py-1 pr-3 font-mono text-xs">
-                    {r.relativeChange === null
-                      ? '—'
-                      : `${r.relativeChange >= 0 ? '+' : ''}${(r.relativeChange * 100).toPrecision(3)} %`}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <>
+            {real.length > 0 ? <ResultTable rows={real} /> : null}
+            {rounding.length > 0 ? (
+              <details className="text-sm text-ink-soft">
+                <summary className="cursor-pointer">
+                  {count(rounding.length, 'result')} differ only by rounding (less than 1 part in
+                  10⁹)
+                </summary>
+                <ResultTable rows={rounding} />
+              </details>
+            ) : null}
+          </>
         )}
       </section>
       <section aria-label="Source changes" className="flex flex-col gap-2">
@@ -273,9 +267,61 @@ function BlockDiff({ change, comparison }: { change: BlockChange; comparison: Co
       ))}
       {remarksHere.length > 0 ? (
         <p className="px-3 py-1 text-xs text-ink-soft">
-          {remarksHere.length} remark(s) on this block (listed below).
+          {count(remarksHere.length, 'remark')} on this block (listed below).
         </p>
       ) : null}
     </article>
+  );
+}
+
+const ROUNDING = 1e-9;
+
+const tiny = (value: string | null) => value !== null && Math.abs(Number(value)) < ROUNDING;
+
+/** A result as shown in the comparison: its number to six significant figures, then its unit. */
+function shownValue(value: string | null): string {
+  if (value === null) return '—';
+  const match = /^(-?\d+(?:\.\d+)?(?:e[+-]?\d+)?)(\s.*)?$/i.exec(value.trim());
+  if (!match) return value;
+  const n = Number(match[1]);
+  if (!Number.isFinite(n)) return value;
+  const abs = Math.abs(n);
+  const digits =
+    abs !== 0 && (abs >= 1e6 || abs < 1e-4) ? n.toExponential(5) : String(Number(n.toPrecision(6)));
+  return `${digits.replace('-', '−')}${match[2] ?? ''}`;
+}
+
+function ResultTable({ rows }: { rows: ResultChange[] }) {
+  return (
+    <table className="w-full border-collapse text-sm">
+      <thead>
+        <tr className="border-b border-rule text-left text-xs text-ink-soft">
+          <th className="py-1 pr-3">Block</th>
+          <th className="py-1 pr-3">Result</th>
+          <th className="py-1 pr-3">Was</th>
+          <th className="py-1 pr-3">Now</th>
+          <th className="py-1 pr-3">Change</th>
+        </tr>
+      </thead>
+      <tbody>
+        {rows.map((r) => (
+          <tr key={`${r.blockId}-${r.key}`} className="border-b border-rule/60">
+            <td className="py-1 pr-3 font-mono text-xs">{r.blockId}</td>
+            <td className="py-1 pr-3">{r.key}</td>
+            <td className="py-1 pr-3 font-mono text-xs" title={r.old ?? undefined}>
+              {shownValue(r.old)}
+            </td>
+            <td className="py-1 pr-3 font-mono text-xs" title={r.new ?? undefined}>
+              {shownValue(r.new)}
+            </td>
+            <td className="py-1 pr-3 font-mono text-xs">
+              {r.relativeChange === null
+                ? '—'
+                : `${r.relativeChange >= 0 ? '+' : '−'}${Math.abs(r.relativeChange * 100).toPrecision(3)} %`}
+            </td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
   );
 }
