@@ -412,6 +412,54 @@ function subtractProduct(
 ): void {
   const ps = ACCUMULATE_BATCH;
   let j = 0;
+  // four rows × four reflectors per pass: sixteen products from eight loads and four stores
+  for (; j + 3 < m; j += 4) {
+    const r0 = j * n;
+    const p0 = j * ps;
+    let b = 0;
+    for (; b + 3 < B; b += 4) {
+      const y0 = b * m;
+      const y1 = y0 + m;
+      const y2 = y1 + m;
+      const y3 = y2 + m;
+      const a00 = P[p0 + b] as number;
+      const a01 = P[p0 + b + 1] as number;
+      const a02 = P[p0 + b + 2] as number;
+      const a03 = P[p0 + b + 3] as number;
+      const a10 = P[p0 + ps + b] as number;
+      const a11 = P[p0 + ps + b + 1] as number;
+      const a12 = P[p0 + ps + b + 2] as number;
+      const a13 = P[p0 + ps + b + 3] as number;
+      const a20 = P[p0 + 2 * ps + b] as number;
+      const a21 = P[p0 + 2 * ps + b + 1] as number;
+      const a22 = P[p0 + 2 * ps + b + 2] as number;
+      const a23 = P[p0 + 2 * ps + b + 3] as number;
+      const a30 = P[p0 + 3 * ps + b] as number;
+      const a31 = P[p0 + 3 * ps + b + 1] as number;
+      const a32 = P[p0 + 3 * ps + b + 2] as number;
+      const a33 = P[p0 + 3 * ps + b + 3] as number;
+      for (let k = 0; k < m; k++) {
+        const u0 = Yt[y0 + k] as number;
+        const u1 = Yt[y1 + k] as number;
+        const u2 = Yt[y2 + k] as number;
+        const u3 = Yt[y3 + k] as number;
+        V[r0 + k] = (V[r0 + k] as number) - (a00 * u0 + a01 * u1 + (a02 * u2 + a03 * u3));
+        V[r0 + n + k] = (V[r0 + n + k] as number) - (a10 * u0 + a11 * u1 + (a12 * u2 + a13 * u3));
+        V[r0 + 2 * n + k] =
+          (V[r0 + 2 * n + k] as number) - (a20 * u0 + a21 * u1 + (a22 * u2 + a23 * u3));
+        V[r0 + 3 * n + k] =
+          (V[r0 + 3 * n + k] as number) - (a30 * u0 + a31 * u1 + (a32 * u2 + a33 * u3));
+      }
+    }
+    for (; b < B; b++) {
+      const y0 = b * m;
+      for (let r = 0; r < 4; r++) {
+        const ro = r0 + r * n;
+        const a = P[p0 + r * ps + b] as number;
+        for (let k = 0; k < m; k++) V[ro + k] = (V[ro + k] as number) - a * (Yt[y0 + k] as number);
+      }
+    }
+  }
   for (; j + 1 < m; j += 2) {
     const r0 = j * n;
     const r1 = r0 + n;
