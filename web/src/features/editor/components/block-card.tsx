@@ -1,7 +1,7 @@
 import { useMemo, type DragEvent } from 'react';
 import type { BlockResult, SheetIssue } from '../api/results';
 import type { Block } from '../api/types';
-import { renderMarkdown } from '../lib/markdown';
+import { renderMarkdown } from '../../../components/results/markdown';
 import type { ScopeName } from '../lib/scope';
 import { BlockSource } from './block-source';
 import { CalcResult } from './calc-result';

@@ -1,11 +1,21 @@
 import { Link } from 'react-router-dom';
 import { BlockResultView } from '../../../components/results';
+import { renderMarkdown } from '../../../components/results/markdown';
 import { QueryError } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { Spinner } from '../../../components/ui/spinner';
 import { formatUtc } from '../../../lib/format';
 import { usePrint, type PrintPackage } from '../api/get-print';
 import './print.css';
+
+// Markdown's own elements at print sizes (the base styles reset them).
+const PRINTED_MARKDOWN = [
+  'text-[9pt] leading-snug',
+  '[&_h1]:text-[11pt] [&_h1]:font-semibold [&_h2]:text-[10pt] [&_h2]:font-semibold',
+  '[&_h3]:text-[9pt] [&_h3]:font-semibold [&_p]:my-1 [&_ul]:my-1 [&_ul]:list-disc [&_ul]:pl-5',
+  '[&_ol]:my-1 [&_ol]:list-decimal [&_ol]:pl-5 [&_code]:font-mono [&_code]:text-[8pt]',
+  '[&_td]:border [&_td]:border-black/30 [&_td]:px-1 [&_th]:border [&_th]:border-black/30 [&_th]:px-1',
+].join(' ');
 
 const STATUS: Record<string, string> = {
   in_check: 'In check',
@@ -17,6 +27,16 @@ const STATUS: Record<string, string> = {
 
 const who = (p: { name: string } | null, at: string | null) =>
   p && at ? `${p.name}, ${formatUtc(at).slice(0, 10)}` : '—';
+
+/** A name and a date in a narrow column: the date never breaks at its hyphens. */
+function WhoWhen({ person, at }: { person: { name: string } | null; at: string | null }) {
+  if (!person || !at) return <>—</>;
+  return (
+    <>
+      {person.name}, <span className="whitespace-nowrap">{formatUtc(at).slice(0, 10)}</span>
+    </>
+  );
+}
 
 function TitleBlock({ pkg }: { pkg: PrintPackage }) {
   const r = pkg.revision;
@@ -127,10 +147,16 @@ export function PrintView({
                         <td className="pr-2">{h.number}</td>
                         <td className="pr-2">{STATUS[h.status] ?? h.status}</td>
                         <td className="pr-2">{h.purpose}</td>
-                        <td className="pr-2">{who(h.issuedBy, h.issuedAt)}</td>
-                        <td className="pr-2">{who(h.checkedBy, h.checkedAt)}</td>
-                        <td className="pr-2">{who(h.sealedBy, h.sealedAt)}</td>
-                        <td className="pr-2 font-mono">{h.sealCode ?? '—'}</td>
+                        <td className="pr-2">
+                          <WhoWhen person={h.issuedBy} at={h.issuedAt} />
+                        </td>
+                        <td className="pr-2">
+                          <WhoWhen person={h.checkedBy} at={h.checkedAt} />
+                        </td>
+                        <td className="pr-2">
+                          <WhoWhen person={h.sealedBy} at={h.sealedAt} />
+                        </td>
+                        <td className="pr-2 font-mono whitespace-nowrap">{h.sealCode ?? '—'}</td>
                       </tr>
                     ))}
                 </tbody>
@@ -148,12 +174,21 @@ export function PrintView({
                     <p className="text-[7.5pt] text-black/60">
                       Block {i + 1} ({block.kind})
                     </p>
-                    <pre className="font-mono text-[8pt] leading-snug whitespace-pre-wrap">
-                      {block.source
-                        .split('\n')
-                        .map((l, n) => `${String(n + 1).padStart(3)}  ${l}`)
-                        .join('\n')}
-                    </pre>
+                    {block.kind === 'text' ? (
+                      // Narrative reads as written, headings and formulas rendered; its source
+                      // lines, for remarks, are on the revision.
+                      <div
+                        className={PRINTED_MARKDOWN}
+                        dangerouslySetInnerHTML={{ __html: renderMarkdown(block.source) }}
+                      />
+                    ) : (
+                      <pre className="font-mono text-[8pt] leading-snug whitespace-pre-wrap">
+                        {block.source
+                          .split('\n')
+                          .map((l, n) => `${String(n + 1).padStart(3)}  ${l}`)
+                          .join('\n')}
+                      </pre>
+                    )}
                     {result && result.kind !== 'text' ? (
                       <div className="mt-1">
                         <BlockResultView result={result} />
