@@ -104,7 +104,11 @@ export function ModesResult({ result, digits }: { result: ModesBlockResult; digi
         <Suspense fallback={<Spinner label="Drawing the plots…" />}>
           <div className="flex flex-col gap-4 md:flex-row">
             {result.shapes && result.shapes.length > 0 ? (
-              <ModeShapePlot shapes={result.shapes} count={result.modes.length} />
+              <ModeShapePlot
+                shapes={result.shapes}
+                count={result.modes.length}
+                dofLabels={result.dofLabels}
+              />
             ) : null}
             {result.histories.length > 0 ? <ConvergencePlot histories={result.histories} /> : null}
           </div>
