@@ -104,11 +104,11 @@ export function SheetHeader({
               ) : null}
             </>
           ) : evaluation.phase === 'cancelled' ? (
-            <span className="text-[#8a4b12]">Evaluation cancelled — results are stale</span>
+            <span className="font-medium text-ink">Evaluation cancelled — results are stale</span>
           ) : evaluation.phase === 'failed' ? (
             <span className="text-fail">{evaluation.message}</span>
           ) : stale ? (
-            <span className="text-[#8a4b12]">Results are stale</span>
+            <span className="font-medium text-ink">Results are stale</span>
           ) : results ? (
             <span className="text-ink-faint">Results up to date</span>
           ) : null}
