@@ -53,7 +53,7 @@ export default defineConfig({
             },
             // Its script only: the stylesheet and fonts are imported by main.tsx and stay with the entry.
             { name: 'katex', test: /node_modules[\\/]katex[\\/].*\.m?js$/, priority: 20 },
-            { name: 'markdown', test: /node_modules[\\/]marked[\\/]/, priority: 20 },
+            { name: 'marked', test: /node_modules[\\/]marked[\\/]/, priority: 20 },
             // recharts and what it is built on (d3 scales and shapes, its redux store)
             {
               name: 'charts',
