@@ -149,7 +149,7 @@ export function ModeShapePlot({
           <LineChart
             data={data}
             layout={alongSpan ? 'horizontal' : 'vertical'}
-            margin={{ top: 4, right: 12, bottom: alongSpan ? 14 : 4, left: 0 }}
+            margin={{ top: 4, right: 12, bottom: alongSpan ? 12 : 4, left: 0 }}
           >
             <CartesianGrid stroke="#d6cfbf" strokeDasharray="2 3" />
             {alongSpan ? (
@@ -175,7 +175,7 @@ export function ModeShapePlot({
               formatter={(v) => sig(Number(v), 4)}
               labelFormatter={(l) => `${axisName} ${String(l)}`}
             />
-            <Legend wrapperStyle={{ fontSize: 11 }} />
+            <Legend wrapperStyle={{ fontSize: 11, paddingTop: alongSpan ? 14 : 0 }} />
             {Array.from({ length: modes }, (_, j) => (
               <Line
                 key={j}
