@@ -190,7 +190,20 @@ function refine(
   }
   if (!F || F.negativePivots > 0) return;
   const lmax = lambdas[n - 1] as number;
-  const res = refineLowModes(input.M, F, vectors.slice(0, q), p, 4);
+  let res: ReturnType<typeof refineLowModes>;
+  try {
+    res = refineLowModes(input.M, F, vectors.slice(0, q), p, 4);
+  } catch (e) {
+    // the projected K is not positive definite in floating point (start vectors nearly
+    // dependent): keep the reduction's values rather than fail the solve
+    if (!(e instanceof EngineError) || e.code !== 'ZERO_PIVOT') throw e;
+    notes.push(refineSkipped(p));
+    return;
+  }
+  if (!res.lambdas.every((l) => Number.isFinite(l) && l > 0)) {
+    notes.push(refineSkipped(p));
+    return;
+  }
   for (let r = 0; r < p; r++) {
     lambdas[r] = res.lambdas[r] as number;
     vectors[r] = res.vectors[r] as Float64Array;
@@ -198,4 +211,8 @@ function refine(
   notes.push(
     `Dense: λ_max/λ₁ ≈ ${(lmax / (lambdas[0] as number)).toPrecision(2)}, so the ${p} lowest mode${p === 1 ? '' : 's'} (λ < ${REFINE_BELOW}·λ_max) were refined by ${res.iterations} steps of subspace iteration with K's factorization (accurate relative to λ); the rest come from the reduction with M.`,
   );
+}
+
+function refineSkipped(p: number): string {
+  return `Dense: the refinement of the ${p} lowest mode${p === 1 ? '' : 's'} with K's factorization broke down (nearly dependent start vectors); they come from the reduction with M and may carry only eps·λ_max/λ accuracy.`;
 }
