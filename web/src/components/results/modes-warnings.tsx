@@ -17,7 +17,7 @@ const EPS = 2 ** -52;
 export type ModesMessage = string | { code?: string; message: string };
 
 export type Conditioning = {
-  /** λ_max/λ₁ as the engine estimated it. */
+  /** λ_max/λ₁ as the engine estimated it (a lower bound: λ_max ≥ max K_ii/M_ii). */
   estimate: number;
   /** log10 of the estimate: decimal digits of 16 that the model's conditioning costs. */
   digitsLost: number;
@@ -105,8 +105,8 @@ export function ConditioningNote({
     >
       <p>
         <span className="font-semibold text-ink">Conditioning (information).</span> λ<sub>max</sub>
-        /λ<sub>1</sub> ≈ {powerOfTen(estimate)}: about {digitsLost.toFixed(1)} of 16 digits are lost
-        to the model, leaving about {kept.toFixed(0)} for the lowest modes
+        /λ<sub>1</sub> ≥ {powerOfTen(estimate)}: at least {digitsLost.toFixed(1)} of 16 digits are
+        lost to the model, leaving at most {kept.toFixed(0)} for the lowest modes
         {tolerance !== null ? (
           <>
             , so their last digits and backward errors cannot reach the tolerance{' '}
