@@ -82,6 +82,9 @@ export function ModeShapePlot({
       : dofs && dofs.length > 0
         ? dofs.map((i) => ({ at: i + 1, row: i }))
         : shapes.map((_, i) => ({ at: i + 1, row: i }));
+  // A storey chain's floors are levels 1…n above a fixed base: draw the base at level 0.
+  const storeys = component === 'u' && rows[0]?.at === 1;
+  if (storeys) rows.unshift({ at: 0, row: null });
   // Each shape scaled to a largest component of 1 in what is drawn (the table keeps the
   // normalization asked for).
   const scale = Array.from({ length: modes }, (_, j) => {
@@ -99,7 +102,7 @@ export function ModeShapePlot({
   });
   // A beam's deflection reads along the span; chains and frames read like the building.
   const alongSpan = component === 'w';
-  const axisName = layout ? 'Node' : 'DOF';
+  const axisName = storeys ? 'Level' : layout ? 'Node' : 'DOF';
   const lo = data[0]?.at ?? 1;
   const hi = Math.max(lo, data[data.length - 1]?.at ?? 1);
   const positionAxis = {
