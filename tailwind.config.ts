@@ -30,6 +30,11 @@ export default {
           DEFAULT: '#2d6a2f',
           soft: '#e1eedb',
         },
+        // Work under way that needs attention but is not wrong: "in check", units in the editor.
+        caution: {
+          DEFAULT: '#8a4b12',
+          soft: '#f3e7d8',
+        },
         fail: {
           DEFAULT: '#a3261b',
           soft: '#f6e0dc',

@@ -189,7 +189,7 @@ const modesLanguage = StreamLanguage.define<State>({
 const highlight = HighlightStyle.define([
   { tag: t.comment, color: '#6f7379', fontStyle: 'italic' },
   { tag: t.number, color: '#1d2126' },
-  { tag: t.unit, color: '#8a4b12' },
+  { tag: t.unit, color: '#8a4b12' }, // the palette's caution (tailwind.config.ts)
   { tag: t.definition(t.variableName), color: '#154d42', fontWeight: '600' },
   { tag: t.variableName, color: '#1d2126' },
   { tag: t.standard(t.function(t.variableName)), color: '#1f6b5c' },

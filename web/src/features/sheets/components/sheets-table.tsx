@@ -38,7 +38,7 @@ const helper = createColumnHelper<typeof features, SheetSummary>();
 
 const STATUS_TONE: Record<SheetStatus, string> = {
   draft: 'border-rule-strong text-ink-soft',
-  in_check: 'border-[#8a4b12] text-[#8a4b12]',
+  in_check: 'border-caution text-caution',
   returned: 'border-fail text-fail',
   checked: 'border-accent text-accent-strong',
   sealed: 'border-pass bg-pass-soft text-pass',
