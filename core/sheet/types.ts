@@ -167,6 +167,12 @@ export interface MatrixBlockResult extends BlockResultBase {
   value: SheetValue | null;
 }
 
+/** One warning of a modes block: its code (for the screen to classify) and its words. */
+export interface ModesWarning {
+  code: string;
+  message: string;
+}
+
 export interface ModesBlockResult extends BlockResultBase {
   kind: 'modes';
   name: string | null;
@@ -184,7 +190,11 @@ export interface ModesBlockResult extends BlockResultBase {
   dofLabels: string[] | null;
   sturm: { shift: number; count: number; found: number; missed: boolean } | null;
   criticalTimeStep: number | null;
-  warnings: string[];
+  /**
+   * What the reader should know about the solve, each with an UPPER_SNAKE code: the engine's
+   * (ILL_CONDITIONED, STURM_MISMATCH, REPEATED_BEYOND_COUNT, …) and the sheet's (UNITS_ASSUMED_SI).
+   */
+  warnings: ModesWarning[];
   /** ρ per iteration for each mode, for the convergence plot. */
   histories: number[][];
   /** The remaining fields of the engine's result, as JSON. */

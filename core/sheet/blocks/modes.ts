@@ -31,7 +31,7 @@ import { evaluateNode, parseExpression, report, type EvalContext } from '../cont
 import { RESULT_MATRIX_LIMIT } from '../format';
 import { ENGINE_MATRICES, MATRIX_DOFS } from '../generators';
 import { blockLines, splitComment } from '../source';
-import type { ModeRow, ModesBlockResult, SheetBlock } from '../types';
+import type { ModeRow, ModesBlockResult, ModesWarning, SheetBlock } from '../types';
 
 export const MODES_KEYS = [
   'stiffness',
@@ -365,7 +365,7 @@ export function evaluateModesBlock(
 
   // Each key is read at its own line so errors point there.
   const options: SolveOptions = {};
-  const warnings: string[] = [];
+  const warnings: ModesWarning[] = [];
   let K: SideMatrix | null = null;
   let M: SideMatrix | null = null;
   let base: Record<string, unknown> | null = null;
@@ -471,7 +471,7 @@ export function evaluateModesBlock(
 
   const unitsOk = step(K.unit ? 'mass' : 'stiffness', () => checkPencilUnits(ctx, K, M));
   if (unitsOk === undefined && bad) return markFailed();
-  if (unitsOk) warnings.push(unitsOk);
+  if (unitsOk) warnings.push({ code: 'UNITS_ASSUMED_SI', message: unitsOk });
   if (K.n !== M.n) {
     report(
       ctx,
@@ -561,7 +561,7 @@ export function evaluateModesBlock(
     ? { shift: r.sturm.shift, count: r.sturm.countBelow, found: r.sturm.found, missed: !r.sturm.ok }
     : null;
   result.criticalTimeStep = r.criticalTimeStep?.dtCr ?? null;
-  result.warnings = [...warnings, ...r.warnings.map((w) => w.message)];
+  result.warnings = [...warnings, ...r.warnings.map((w) => ({ code: w.code, message: w.message }))];
   result.engine = {
     methodNote: r.methodNote,
     options: { ...r.options, shift: r.options.shift },

@@ -153,6 +153,27 @@ describe('modes blocks: shear buildings', () => {
     expect(Math.abs(w[9]!)).toBeCloseTo(Math.max(...w.map(Math.abs)), 12);
   });
 
+  it('warns, with a code, when K and M have no units', () => {
+    const r = evaluateSheet({
+      blocks: [
+        { id: 'k', kind: 'matrix', source: 'name: K\n\n2000, -1000\n-1000, 1000' },
+        { id: 'm', kind: 'matrix', source: 'name: M\n\n10, 0\n0, 10' },
+        { id: 'x', kind: 'modes', source: 'stiffness: K\nmass: M\ncount: 2\nname: s' },
+      ],
+    });
+    expect(r.errors).toEqual([]);
+    const block = r.blocks[2] as ModesBlockResult;
+    expect(block.warnings).toContainEqual({
+      code: 'UNITS_ASSUMED_SI',
+      message: expect.stringMatching(/no units: their entries are taken as consistent SI units/),
+    });
+    // The 2 × 2 pencil in SI (N/m and kg): det(K − λM) = 100 λ² − 30000 λ + 1e6 = 0, so
+    // λ = 150 ± √(150² − 10⁴) (closed form of the quadratic).
+    const lambdas = block.modes.map((m) => m.lambda);
+    expect(lambdas[0]).toBeCloseTo(150 - Math.sqrt(150 ** 2 - 1e4), 9);
+    expect(lambdas[1]).toBeCloseTo(150 + Math.sqrt(150 ** 2 - 1e4), 9);
+  });
+
   it('gives no DOF labels for a typed matrix', () => {
     const r = evaluateSheet({
       blocks: [
