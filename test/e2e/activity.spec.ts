@@ -33,7 +33,6 @@ describe('project activity (browser)', () => {
     expect(text).toMatch(/Priya Anand sealed DYN-01 Rev 2\s+seal code [0-9A-Z]{5}-[0-9A-Z]{5}/);
     expect(text).toMatch(/Ines Marlow issued DYN-01 Rev 2 for check/);
     expect(text).toMatch(/Tomasz Reyes returned DYN-01 Rev 1 to the author/);
-    expect(text).toContain('Ines Marlow started sheet DYN-03');
     expect(text).not.toMatch(/sheet id|revision id|reply id|\bsuperseded:/);
     await saveScreenshot(page, 'project-activity');
   });

@@ -68,7 +68,10 @@ describe('admin members (browser)', () => {
     });
     await row.waitFor();
     expect(await row.getByText('Checker', { exact: true }).count()).toBe(1);
-    await page.getByRole('list', { name: 'Activity' }).getByText('added a member').waitFor();
+    await page
+      .getByRole('list', { name: 'Activity' })
+      .getByText(`added ${demoPeople.tomasz.name} as checker`)
+      .waitFor();
     await saveScreenshot(page, 'project-admin');
   });
 
@@ -105,7 +108,7 @@ describe('admin members (browser)', () => {
     expect(await row.getByText('Checker', { exact: true }).count()).toBe(1);
     await page
       .getByRole('list', { name: 'Activity' })
-      .getByText('changed the roles of a member')
+      .getByText(`changed the roles of ${demoPeople.tomasz.name}`)
       .waitFor();
 
     await page.getByRole('button', { name: `Remove ${demoPeople.tomasz.name}` }).click();
@@ -114,6 +117,9 @@ describe('admin members (browser)', () => {
       .and(page.locator('.text-fail'))
       .click();
     await page.getByText('No members yet').waitFor();
-    await page.getByRole('list', { name: 'Activity' }).getByText('removed a member').waitFor();
+    await page
+      .getByRole('list', { name: 'Activity' })
+      .getByText(`removed ${demoPeople.tomasz.name} from the project`)
+      .waitFor();
   });
 });

@@ -86,7 +86,7 @@ export const membersService = {
           action: 'member.roles_changed',
           objectType: 'user',
           objectId: userId,
-          details: { email: member.email, from: before, to: member.roles },
+          details: { email: member.email, name: member.name, from: before, to: member.roles },
         });
       }
       return member;
