@@ -68,10 +68,13 @@ export function RemarkCard({
           Carried from Rev {remark.carriedFrom.revisionNumber}, line {remark.carriedFrom.line}
         </p>
       ) : null}
-      {remark.lineChanged ? (
+      {remark.lineChanged && remark.state !== 'closed' ? (
         <p className="rounded-sm bg-fail-soft px-1.5 py-0.5 text-xs font-semibold text-fail">
           Line changed — the line this remark was on was edited; look again.
         </p>
+      ) : remark.lineChanged ? (
+        // Closed: the checker has looked again already; the edit is history, not an alarm.
+        <p className="text-xs text-ink-soft">The line was edited in this revision.</p>
       ) : null}
       <p className="whitespace-pre-wrap text-ink">{remark.text}</p>
       <p className="text-xs text-ink-faint">
