@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # npm test: every check, on a fresh clone. Installs what is missing (npm packages, MariaDB,
-# Chromium), starts the project's MariaDB, migrates the test database, then typecheck, lint, the
+# Chromium), starts the project's MariaDB, re-creates the test database, then typecheck, lint, the
 # client build and all Vitest projects (engine, API against MariaDB, browser tests in Chromium).
 set -euo pipefail
 source "$(dirname "$0")/lib.sh"
@@ -9,9 +9,9 @@ cd "$ROOT"
 ensure_npm_packages
 ensure_debian_packages with-chromium
 bash scripts/db.sh start
-log "migrating the test database"
-MW_DB_NAME=modewright_test npx tsx node_modules/knex/bin/cli.js --knexfile knexfile.ts \
-  migrate:latest >/dev/null
+# A new, empty test database every run: no test depends on what an earlier run left behind.
+log "re-creating the test database"
+MW_DB_NAME=modewright_test MW_DB_SEED=0 bash scripts/db-reset.sh >/dev/null
 log "typecheck"
 npx tsc --noEmit -p tsconfig.json
 log "lint"
