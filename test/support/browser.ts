@@ -92,6 +92,21 @@ export async function signInAs(
   password: string = DEMO_PASSWORD,
 ): Promise<void> {
   await page.goto('/sign-in');
+  const email = page.getByLabel('E-mail');
+  try {
+    await email.waitFor({ timeout: 10_000 });
+  } catch {
+    // The form waits for the session check (GET /api/auth/me). Seen once in a full run: the
+    // form never came. Load the page once more, and if the form is still missing say where the
+    // browser is and what it shows, so a failure can be told apart from a slow server.
+    await page.reload();
+    try {
+      await email.waitFor({ timeout: 15_000 });
+    } catch {
+      const text = (await page.locator('body').innerText()).slice(0, 300);
+      throw new Error(`No sign-in form at ${page.url()} after a reload; the page shows: ${text}`);
+    }
+  }
   await fillSignIn(page, person.email, password);
   await page.getByText(`Signed in as ${person.name}`).waitFor();
 }
