@@ -1,7 +1,7 @@
 import katex from 'katex';
 import { useMemo } from 'react';
 
-/** Read-only LaTeX for revisions, comparisons and prints; unreadable LaTeX shows as its source. */
+/** One piece of LaTeX rendered by KaTeX (editor, revisions, comparisons, prints); LaTeX it cannot read shows as its source. */
 export function Tex({ tex, display = false }: { tex: string; display?: boolean }) {
   const html = useMemo(
     () =>
