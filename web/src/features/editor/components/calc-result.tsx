@@ -1,6 +1,5 @@
 import type { CalcBlockResult } from '../api/results';
-import { handParts } from '../../../components/results';
-import { Tex } from '../../../components/results';
+import { handParts, Tex } from '../../../components/results';
 
 /** Each calc line as written by hand: the formula, the values substituted, the result. */
 export function CalcResult({ result }: { result: CalcBlockResult }) {
