@@ -4,7 +4,7 @@
 import { mkdir } from 'node:fs/promises';
 import path from 'node:path';
 import type { Locator, Page } from 'playwright-core';
-import { afterAll, afterEach, beforeAll } from 'vitest';
+import { afterAll, afterEach, beforeAll, expect } from 'vitest';
 import {
   demoPeople,
   demoProjects,
@@ -132,6 +132,36 @@ export function uniformChain(N: number, k: number, m: number) {
 }
 
 export const relative = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
+
+/**
+ * After the fixture pair chain3-K.mtx and chain3-M.mtx was uploaded behind the last of `before`
+ * blocks: checks that it became two matrix blocks in that order, then solves them in a modes
+ * block named `name` (extra header lines in `extra`) and compares the frequencies with the
+ * closed form of the uniform chain (k = 1000 kN/m = 1e6 N/m, m = 1 t = 1000 kg, the fixtures'
+ * comments). Returns the modes table.
+ */
+export async function solveUploadedChain(
+  page: Page,
+  before: number,
+  name: string,
+  extra: string[] = [],
+): Promise<Locator> {
+  await block(page, before + 2, 'matrix').waitFor();
+  expect(await source(page, before + 1, 'matrix').innerText()).toContain('from: chain3-K.mtx');
+  expect(await source(page, before + 2, 'matrix').innerText()).toContain('from: chain3-M.mtx');
+  await addBlock(
+    page,
+    'modes',
+    [`name: ${name}`, 'stiffness: chain3_K', 'mass: chain3_M', ...extra, 'count: 3'].join('\n'),
+  );
+  await waitForResults(page);
+  const table = page.getByRole('table', { name: `Modes of ${name}` });
+  const expected = uniformChain(3, 1e6, 1e3);
+  const f = await column(table, 'f (Hz)');
+  expect(f).toHaveLength(3);
+  f.forEach((value, i) => expect(relative(value, expected[i]!.f)).toBeLessThan(5e-4));
+  return table;
+}
 
 export async function shotPath(name: string): Promise<string> {
   const dir = path.resolve(import.meta.dirname, '..', '..', 'test-results', 'screenshots');
