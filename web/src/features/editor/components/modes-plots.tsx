@@ -60,14 +60,11 @@ export function ModeShapePlot({
   shapes,
   count,
   dofLabels,
-  dofs,
 }: {
   shapes: number[][];
   count: number;
   /** The model's DOF labels (from the engine), when K came from a generator. */
   dofLabels?: readonly string[] | null;
-  /** Without labels: the 0-based DOFs to draw (null: all). */
-  dofs?: readonly number[] | null;
 }) {
   const layout = shapeLayout(dofLabels);
   const [picked, setPicked] = useState<string | null>(null);
@@ -79,9 +76,7 @@ export function ModeShapePlot({
           at: node,
           row: layout.row.get(`${component} ${node}`) ?? null,
         }))
-      : dofs && dofs.length > 0
-        ? dofs.map((i) => ({ at: i + 1, row: i }))
-        : shapes.map((_, i) => ({ at: i + 1, row: i }));
+      : shapes.map((_, i) => ({ at: i + 1, row: i }));
   // A storey chain's floors are levels 1…n above a fixed base: draw the base at level 0.
   const storeys = component === 'u' && rows[0]?.at === 1;
   if (storeys) rows.unshift({ at: 0, row: null });
