@@ -163,7 +163,7 @@ describe('tridiagonalQL (implicit QL with batched sweeps)', () => {
   });
 });
 
-describe('symmetricEigen (fused Householder reduction, WY accumulation, QL)', () => {
+describe('symmetricEigen (blocked Householder reduction, inverse iteration, WY back-transformation)', () => {
   it('gives the identity one repeated eigenvalue and an orthonormal basis (full deflation)', () => {
     const n = 70;
     const A = dense(n, (i, j) => (i === j ? 1 : 0));

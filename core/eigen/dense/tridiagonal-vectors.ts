@@ -1,0 +1,296 @@
+/**
+ * Every eigenvector of a symmetric tridiagonal matrix by inverse iteration, after its eigenvalues
+ * (LAPACK's `dstein`: Jessup & Ipsen, "Improving the accuracy of inverse iteration", SIAM J. Sci.
+ * Stat. Comput. 13, 1992; Wilkinson, *The Algebraic Eigenvalue Problem*, 1965, ch. 9 §47–54).
+ *
+ * T first splits where an off-diagonal is negligible (|e_k| ≤ ε‖T‖, the test of the QL
+ * iteration). In each unreduced block the eigenvalues come from the QL iteration without vectors,
+ * O(m²), and each eigenvector from a few solves with the pivoted LU factorization of T − λI, O(m)
+ * each. A vector is orthogonalized (modified Gram–Schmidt, in every iteration) against the
+ * vectors already found whose eigenvalues lie within 10⁻³‖T‖ of its own: farther ones are already
+ * orthogonal to it to about ε‖T‖ / 10⁻³‖T‖ ≈ 2·10⁻¹³, the bound `dstein` works to. `dstein`
+ * chains such neighbourhoods into one cluster; the window used here keeps the cost O(n²) when the
+ * spectrum is evenly dense, as a finite-element model's is.
+ *
+ * The whole costs O(n²) against the 6n³ of accumulating the QL rotations. When a vector does not
+ * converge within five solves the function returns null and the caller takes the QL route.
+ */
+import { seededRandom } from '../random';
+import { tridiagonalQL } from './tridiagonal-ql';
+
+const EPS = 2 ** -52;
+/** Solves allowed for one vector (dstein's MAXITS). */
+const MAX_SOLVES = 5;
+/** Solves made after the growth test first passes (dstein's EXTRA). */
+const EXTRA = 2;
+/** Neighbours closer than this fraction of ‖T‖ are orthogonalized against (dstein's ODM3). */
+const ORTHOGONALIZE_WITHIN = 1e-3;
+
+/** Eigenvalues ascending and Z (n × n, row-major) with the eigenvector of `values[k]` in column k. */
+export interface TridiagonalEigensystem {
+  readonly values: Float64Array;
+  readonly Z: Float64Array;
+}
+
+/**
+ * Eigenvalues and orthonormal eigenvectors of the tridiagonal matrix with diagonal d and
+ * off-diagonal e (`e[k]` couples k and k + 1), or null when inverse iteration fails to converge
+ * for some vector. d and e are not changed.
+ * @example const sys = tridiagonalEigenvectors(d, e); // sys.Z[i * n + k]: component i of vector k
+ */
+export function tridiagonalEigenvectors(
+  d: Float64Array,
+  e: Float64Array,
+): TridiagonalEigensystem | null {
+  const n = d.length;
+  let tnorm = 0;
+  for (let i = 0; i < n; i++) {
+    const left = i > 0 ? Math.abs(e[i - 1] as number) : 0;
+    const right = i < n - 1 ? Math.abs(e[i] as number) : 0;
+    tnorm = Math.max(tnorm, Math.abs(d[i] as number) + left + right);
+  }
+  // blocks, each with its eigenvalues and local vectors
+  const found: { value: number; start: number; size: number; vec: Float64Array; at: number }[] = [];
+  let start = 0;
+  for (let i = 0; i < n; i++) {
+    const last = i === n - 1 || Math.abs(e[i] as number) <= EPS * tnorm;
+    if (!last) continue;
+    const size = i - start + 1;
+    const db = d.slice(start, i + 1);
+    const eb = new Float64Array(size);
+    for (let k = 0; k < size - 1; k++) eb[k] = e[start + k] as number;
+    const vals = db.slice();
+    tridiagonalQL(vals, eb.slice(), null, 0);
+    vals.sort();
+    const vecs = blockVectors(db, eb, vals);
+    if (!vecs) return null;
+    for (let k = 0; k < size; k++) {
+      found.push({ value: vals[k] as number, start, size, vec: vecs, at: k * size });
+    }
+    start = i + 1;
+  }
+  found.sort((a, b) => a.value - b.value);
+  const values = new Float64Array(n);
+  const Zt = new Float64Array(n * n); // row k: vector k
+  found.forEach((f, k) => {
+    values[k] = f.value;
+    Zt.set(f.vec.subarray(f.at, f.at + f.size), k * n + f.start);
+  });
+  const Z = new Float64Array(n * n);
+  // transposed in 32 × 32 tiles: a column-by-column copy would miss the cache on every entry
+  const TILE = 32;
+  for (let i0 = 0; i0 < n; i0 += TILE) {
+    const i1 = Math.min(n, i0 + TILE);
+    for (let k0 = 0; k0 < n; k0 += TILE) {
+      const k1 = Math.min(n, k0 + TILE);
+      for (let i = i0; i < i1; i++)
+        for (let k = k0; k < k1; k++) Z[i * n + k] = Zt[k * n + i] as number;
+    }
+  }
+  return { values, Z };
+}
+
+/**
+ * The eigenvectors of one unreduced block (row k of the result: the vector of `vals[k]`, unit
+ * length), or null when one does not converge.
+ */
+function blockVectors(d: Float64Array, e: Float64Array, vals: Float64Array): Float64Array | null {
+  const m = d.length;
+  const out = new Float64Array(m * m);
+  if (m === 1) {
+    out[0] = 1;
+    return out;
+  }
+  let onenrm = 0;
+  for (let i = 0; i < m; i++) {
+    const left = i > 0 ? Math.abs(e[i - 1] as number) : 0;
+    const right = i < m - 1 ? Math.abs(e[i] as number) : 0;
+    onenrm = Math.max(onenrm, Math.abs(d[i] as number) + left + right);
+  }
+  const ortol = ORTHOGONALIZE_WITHIN * onenrm;
+  const growth = Math.sqrt(0.1 / m); // dstein's DTPCRT
+  const tiny = EPS * onenrm;
+  const lu = new LU(m);
+  const shifts = new Float64Array(m);
+  const x = new Float64Array(m);
+  const rand = seededRandom(7); // the same start vectors every run
+  let window = 0;
+  for (let j = 0; j < m; j++) {
+    let xj = vals[j] as number;
+    if (j > 0) {
+      // equal or nearly equal eigenvalues get shifts apart, as dstein does
+      const pertol = 10 * Math.abs(EPS * xj);
+      const prev = shifts[j - 1] as number;
+      if (xj - prev < pertol) xj = prev + pertol;
+    }
+    shifts[j] = xj;
+    while (window < j && xj - (shifts[window] as number) > ortol) window++;
+    lu.factor(d, e, xj, tiny);
+    for (let i = 0; i < m; i++) x[i] = 2 * rand() - 1;
+    const target = m * onenrm * Math.max(EPS, Math.abs(lu.lastPivot()));
+    if (!iterate(lu, x, out, window, j, target, growth)) return null;
+    store(x, out, j * m);
+  }
+  return out;
+}
+
+/**
+ * Inverse iteration from x for vector j, orthogonalized against vectors window … j − 1 of `out`
+ * (rows of length m); false when it does not converge.
+ */
+function iterate(
+  lu: LU,
+  x: Float64Array,
+  out: Float64Array,
+  window: number,
+  j: number,
+  target: number,
+  growth: number,
+): boolean {
+  const m = x.length;
+  let checks = 0;
+  let big = maxAbs(x);
+  for (let its = 0; its < MAX_SOLVES && big > 0; its++) {
+    big = lu.solve(x, target / big);
+    if (window < j) {
+      for (let q = window; q < j; q++) orthogonalize(x, out, q * m);
+      big = maxAbs(x);
+    }
+    if (!(big < Infinity)) return false;
+    if (big < growth) continue;
+    checks++;
+    if (checks === EXTRA + 1) return true;
+  }
+  return false;
+}
+
+/** x −= (xᵀy) y for the unit vector y = out[o …]. */
+function orthogonalize(x: Float64Array, out: Float64Array, o: number): void {
+  const m = x.length;
+  let s = 0;
+  for (let i = 0; i < m; i++) s += (x[i] as number) * (out[o + i] as number);
+  for (let i = 0; i < m; i++) x[i] = (x[i] as number) - s * (out[o + i] as number);
+}
+
+function maxAbs(x: Float64Array): number {
+  let big = 0;
+  for (let i = 0; i < x.length; i++) {
+    const a = Math.abs(x[i] as number);
+    if (a > big) big = a;
+  }
+  return big;
+}
+
+/** out[o …] = x / ‖x‖, signed so that its largest entry is positive (as dstein does). */
+function store(x: Float64Array, out: Float64Array, o: number): void {
+  const m = x.length;
+  let nrm = 0;
+  let jmax = 0;
+  let big = 0;
+  for (let i = 0; i < m; i++) {
+    const v = x[i] as number;
+    nrm += v * v;
+    if (Math.abs(v) > big) {
+      big = Math.abs(v);
+      jmax = i;
+    }
+  }
+  let scl = 1 / Math.sqrt(nrm);
+  if ((x[jmax] as number) < 0) scl = -scl;
+  for (let i = 0; i < m; i++) out[o + i] = (x[i] as number) * scl;
+}
+
+/**
+ * LU factorization with partial pivoting of a tridiagonal T − σI (LAPACK's `dgttrf`), pivots
+ * smaller than `tiny` raised to it so that the solve amplifies the eigenvector instead of failing.
+ */
+class LU {
+  private readonly dl: Float64Array;
+  private readonly dd: Float64Array; // U's diagonal, then its reciprocals
+  private readonly du: Float64Array;
+  private readonly du2: Float64Array;
+  private readonly swap: Uint8Array;
+
+  constructor(private readonly m: number) {
+    this.dl = new Float64Array(m);
+    this.dd = new Float64Array(m);
+    this.du = new Float64Array(m);
+    this.du2 = new Float64Array(m);
+    this.swap = new Uint8Array(m);
+  }
+
+  factor(d: Float64Array, e: Float64Array, sigma: number, tiny: number): void {
+    const { m, dl, dd, du, du2, swap } = this;
+    for (let i = 0; i < m; i++) {
+      dd[i] = (d[i] as number) - sigma;
+      dl[i] = i < m - 1 ? (e[i] as number) : 0;
+      du[i] = dl[i] as number;
+      du2[i] = 0;
+      swap[i] = 0;
+    }
+    for (let i = 0; i < m - 1; i++) {
+      const a = dd[i] as number;
+      const b = dl[i] as number;
+      if (Math.abs(a) >= Math.abs(b)) {
+        const f = a !== 0 ? b / a : 0;
+        dl[i] = f;
+        dd[i + 1] = (dd[i + 1] as number) - f * (du[i] as number);
+      } else {
+        const f = a / b;
+        dd[i] = b;
+        dl[i] = f;
+        const t = du[i] as number;
+        du[i] = dd[i + 1] as number;
+        dd[i + 1] = t - f * (dd[i + 1] as number);
+        if (i < m - 2) {
+          du2[i] = du[i + 1] as number;
+          du[i + 1] = -f * (du[i + 1] as number);
+        }
+        swap[i] = 1;
+      }
+    }
+    // the back-substitution multiplies by the reciprocals (a division costs several multiplies)
+    for (let i = 0; i < m; i++) {
+      let p = dd[i] as number;
+      if (Math.abs(p) < tiny) p = p < 0 ? -tiny : tiny;
+      dd[i] = 1 / p;
+    }
+  }
+
+  /** U's last pivot, which is small when σ is close to an eigenvalue. */
+  lastPivot(): number {
+    return 1 / (this.dd[this.m - 1] as number);
+  }
+
+  /** x ← (T − σI)⁻¹ (scale · x); returns max |x|. */
+  solve(x: Float64Array, scale: number): number {
+    const { m, dl, dd, du, du2, swap } = this;
+    let xi = (x[0] as number) * scale;
+    for (let i = 0; i < m - 1; i++) {
+      const next = (x[i + 1] as number) * scale;
+      if (swap[i] === 0) {
+        x[i] = xi;
+        xi = next - (dl[i] as number) * xi;
+      } else {
+        x[i] = next;
+        xi = xi - (dl[i] as number) * next;
+      }
+    }
+    let x2 = xi * (dd[m - 1] as number);
+    x[m - 1] = x2;
+    let big = Math.abs(x2);
+    if (m === 1) return big;
+    let x1 = ((x[m - 2] as number) - (du[m - 2] as number) * x2) * (dd[m - 2] as number);
+    x[m - 2] = x1;
+    big = Math.max(big, Math.abs(x1));
+    for (let i = m - 3; i >= 0; i--) {
+      const x0 =
+        ((x[i] as number) - (du[i] as number) * x1 - (du2[i] as number) * x2) * (dd[i] as number);
+      x[i] = x0;
+      if (Math.abs(x0) > big) big = Math.abs(x0);
+      x2 = x1;
+      x1 = x0;
+    }
+    return big;
+  }
+}
