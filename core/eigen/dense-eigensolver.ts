@@ -4,11 +4,11 @@
  * 1. Band ordering and reduction to standard form with the Cholesky factor M = L Lᵀ:
  *    C = L⁻¹ K L⁻ᵀ, φ = L⁻ᵀ z (Golub & Van Loan, *Matrix Computations*, 4th ed., §8.7.2), in
  *    O(n² b) for a band width b (`./dense/reduction`).
- * 2. Householder tridiagonalization and the implicit QL iteration with accumulated
- *    transformations (`./dense/symmetric-eigen`, `./dense/tridiagonal-ql`; Wilkinson & Reinsch,
- *    *Handbook for Automatic Computation* vol. II, 1971).
+ * 2. Blocked Householder tridiagonalization, the tridiagonal eigenvectors by inverse iteration
+ *    and their back-transformation in compact WY blocks (`./dense/symmetric-eigen`; the QL
+ *    iteration with accumulated rotations is the fallback). See `./dense/README.md`.
  * 3. The lowest modes, which step 1 resolves only to eps·λ_max, are refined by subspace iteration
- *    with K's sparse factorization when K is positive definite (`./dense/refine-low-modes`).
+ *    with K's Cholesky factor when K is positive definite (`./dense/refine-low-modes`).
  *
  * When M is singular (massless DOFs) the reduction uses A = K − σM instead (σ = 0 when K is
  * positive definite, else a stated negative σ): L⁻¹ M L⁻ᵀ z = μ z with λ = σ + 1/μ; the μ = 0
@@ -16,16 +16,17 @@
  * resolves the lowest modes relative to λ.
  */
 import { EngineError } from '../errors';
-import { combine, diagonalOf, factorizeSymmetric, toSparse } from '../linalg/factorize';
+import { combine, diagonalOf, toSparse } from '../linalg/factorize';
 import { matrixSize } from '../linalg/sparse';
-import type { SymmetricFactorization } from '../linalg/types';
 import {
   backSubstituteColumns,
   bandOrdering,
+  type BandOrdering,
   columnInOriginalOrder,
   congruence,
   permutedDense,
   profileCholesky,
+  profileSolver,
   type ProfileFactor,
 } from './dense/reduction';
 import { refineLowModes } from './dense/refine-low-modes';
@@ -54,40 +55,18 @@ export function denseEigensolver(input: MethodInput): RawEigenResult {
     );
   }
   const ord = bandOrdering(input.K, input.M);
-  const Mp = permutedDense(input.M, ord);
   const notes: string[] = [];
-  let massF: ProfileFactor | null = null;
-  try {
-    massF = profileCholesky(Mp, ord);
-  } catch (e) {
-    if (!(e instanceof EngineError) || e.code !== 'ZERO_PIVOT') throw e;
-    const det = e.details ?? {};
-    if (det.negative === true) {
-      throw new EngineError(
-        'MASS_NOT_PSD',
-        `M is not positive semi-definite: the Cholesky factorization met a negative pivot at DOF ${String(det.dof)}. A mass matrix must have xᵀMx ≥ 0 for every x.`,
-        { dof: det.dof },
-      );
-    }
-  }
+  const massF = massFactor(input, ord);
   let lambdas: number[];
   let vectors: Float64Array[];
   if (massF) {
-    const F = massF;
-    const C = congruence(F, permutedDense(input.K, ord));
-    const { values, Z, order } = symmetricEigenColumns({
-      kind: 'dense',
-      rows: n,
-      cols: n,
-      data: C,
-    });
-    backSubstituteColumns(F, Z);
+    const { values, Z, order } = solveStandardForm(massF, permutedDense(input.K, ord));
     lambdas = Array.from(values);
     const kept = Math.min(input.count, n);
     vectors = order
       .slice(0, Math.max(kept, guardCount(lambdas, kept)))
       .map((k) => columnInOriginalOrder(ord, Z, k, 1));
-    refine(input, lambdas, vectors, notes);
+    refine(input, ord, lambdas, vectors, notes);
   } else {
     // M singular: reduce with a positive definite A = K − σM.
     const dg = diagonalOf(input.M);
@@ -114,14 +93,7 @@ export function denseEigensolver(input: MethodInput): RawEigenResult {
       );
     }
     const F = AF;
-    const C = congruence(F, Mp);
-    const { values, Z, order } = symmetricEigenColumns({
-      kind: 'dense',
-      rows: n,
-      cols: n,
-      data: C,
-    });
-    backSubstituteColumns(F, Z);
+    const { values, Z, order } = solveStandardForm(F, permutedDense(input.M, ord));
     const muMax = Math.max(...Array.from(values).map(Math.abs), 0);
     const pairs: { lambda: number; phi: Float64Array }[] = [];
     let dropped = 0;
@@ -154,6 +126,46 @@ export function denseEigensolver(input: MethodInput): RawEigenResult {
   };
 }
 
+/**
+ * The Cholesky factor of the permuted M, or null when M is singular (a zero pivot).
+ * @throws EngineError MASS_NOT_PSD on a negative pivot.
+ */
+function massFactor(input: MethodInput, ord: BandOrdering): ProfileFactor | null {
+  try {
+    return profileCholesky(permutedDense(input.M, ord), ord);
+  } catch (e) {
+    if (!(e instanceof EngineError) || e.code !== 'ZERO_PIVOT') throw e;
+    const det = e.details ?? {};
+    if (det.negative === true) {
+      throw new EngineError(
+        'MASS_NOT_PSD',
+        `M is not positive semi-definite: the Cholesky factorization met a negative pivot at DOF ${String(det.dof)}. A mass matrix must have xᵀMx ≥ 0 for every x.`,
+        { dof: det.dof },
+      );
+    }
+    return null;
+  }
+}
+
+/**
+ * Every eigenpair of L⁻¹ A L⁻ᵀ for the permuted A (overwritten), transformed back to x = L⁻ᵀ z:
+ * Z (n × n) holds the vector of `values[r]` in column `order[r]`, in the band ordering. The n × n
+ * work arrays live only in here, which keeps the solver's peak at DENSE_METHOD_ARRAYS of them.
+ */
+function solveStandardForm(
+  F: ProfileFactor,
+  A: Float64Array,
+): { values: Float64Array; Z: Float64Array; order: number[] } {
+  const n = F.n;
+  const C = congruence(F, A);
+  const eig = symmetricEigenColumns(
+    { kind: 'dense', rows: n, cols: n, data: C },
+    { overwrite: true },
+  );
+  backSubstituteColumns(F, eig.Z);
+  return eig;
+}
+
 /** How many of the lowest modes are refined (λ < REFINE_BELOW·λ_max), with guard vectors. */
 function lowModeCounts(lambdas: number[], kept: number): { refine: number; block: number } {
   const n = lambdas.length;
@@ -174,6 +186,7 @@ function guardCount(lambdas: number[], kept: number): number {
  */
 function refine(
   input: MethodInput,
+  ord: BandOrdering,
   lambdas: number[],
   vectors: Float64Array[],
   notes: string[],
@@ -182,13 +195,15 @@ function refine(
   const kept = Math.min(input.count, n);
   const { refine: p, block: q } = lowModeCounts(lambdas, kept);
   if (p === 0 || !((lambdas[0] as number) > 0)) return;
-  let F: SymmetricFactorization | null = null;
+  // K's Cholesky factor in the same band ordering, O(n b²); a zero or negative pivot means K is
+  // not positive definite and the reduction's values stand
+  let F: ReturnType<typeof profileSolver> | null = null;
   try {
-    F = factorizeSymmetric(toSparse(input.K));
+    F = profileSolver(profileCholesky(permutedDense(input.K, ord), ord), ord);
   } catch (e) {
     if (!(e instanceof EngineError) || e.code !== 'ZERO_PIVOT') throw e;
   }
-  if (!F || F.negativePivots > 0) return;
+  if (!F) return;
   const lmax = lambdas[n - 1] as number;
   let res: ReturnType<typeof refineLowModes>;
   try {

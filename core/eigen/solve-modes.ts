@@ -328,12 +328,13 @@ export function solveModes(
 }
 
 /**
- * n × n arrays of doubles the dense method holds at its peak (K and M densified, the Cholesky
- * factor, the reduction's result and its two work arrays, the tridiagonal solver's copy and
- * vectors), counted from core/eigen/dense-eigensolver.ts and core/eigen/dense/ (re-count when
- * they change).
+ * n × n arrays of doubles the dense method holds at its peak: M's Cholesky factor, K densified
+ * (the congruence works in it), the standard form C (the tridiagonalization works in it), and the
+ * tridiagonal eigenvectors with their transpose; counted from core/eigen/dense-eigensolver.ts and
+ * core/eigen/dense/ (re-count when they change). The refinement of the low modes afterwards holds
+ * the same number: the factor, the vectors, the transformed ones, K densified and its factor.
  */
-export const DENSE_METHOD_ARRAYS = 8;
+export const DENSE_METHOD_ARRAYS = 5;
 /** n × n arrays a dense-storage factorization of K − σM holds (K − σM, its factor, a copy). */
 const DENSE_FACTOR_ARRAYS = 3;
 

@@ -143,7 +143,7 @@ describe('POST /api/sheets/:sheetId/evaluate on the worker pool, under its memor
       settings: { significantFigures: 4 },
     });
     expect(refused.status).toBe(200);
-    // 8 arrays of 20 × 20 doubles = 25.6 kB against 0.001 % of 512 MB = 5.4 kB.
+    // 5 arrays of 20 × 20 doubles = 16 kB against 0.001 % of 512 MB = 5.4 kB.
     expect(refused.body.results.errors).toEqual([
       {
         blockId: 'solve',

@@ -103,41 +103,70 @@ export function profileCholesky(B: Float64Array, ord: BandOrdering): ProfileFact
   return { n, L, first };
 }
 
-/** Solves L X = X in place for all n columns of X (row-major), using the profile of L. */
-function forwardProfile(F: ProfileFactor, X: Float64Array): void {
-  const { n, L, first } = F;
-  for (let i = 0; i < n; i++) {
-    const xi = i * n;
-    const li = i * n;
-    for (let k = first[i] as number; k < i; k++) {
-      const lik = L[li + k] as number;
-      if (lik === 0) continue;
-      const xk = k * n;
-      for (let j = 0; j < n; j++) X[xi + j] = (X[xi + j] as number) - lik * (X[xk + j] as number);
-    }
-    const r = 1 / (L[li + i] as number);
-    for (let j = 0; j < n; j++) X[xi + j] = (X[xi + j] as number) * r;
-  }
-}
-
 /**
- * C = L⁻¹ A L⁻ᵀ (row-major, symmetrized) for the permuted symmetric A.
+ * C = L⁻¹ A L⁻ᵀ for the permuted symmetric A (row-major; A is overwritten). Only the upper triangle of C (columns ≥
+ * row) is computed; the lower one is left zero, and `symmetricEigenColumns` reads only the upper.
+ *
+ * Two triangular solves with L's profile, each limited to where its result can be nonzero:
+ * X = L⁻¹ A has X(i, j) = 0 for j beyond the last column A reaches in rows 0 … i, and of
+ * C = L⁻¹ Xᵀ only the upper triangle is wanted (row i needs rows k < i of C from column i on,
+ * which they have). Each costs about n² b for a band width b, half of the full solves.
  * @example const C = congruence(F, Kp);
  */
 export function congruence(F: ProfileFactor, A: Float64Array): Float64Array {
-  const n = F.n;
-  const X = Float64Array.from(A);
-  forwardProfile(F, X); // X = L⁻¹ A
-  const Y = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) Y[j * n + i] = X[i * n + j] as number;
-  forwardProfile(F, Y); // Y = L⁻¹ Xᵀ = L⁻¹ A L⁻ᵀ
-  for (let i = 0; i < n; i++)
-    for (let j = 0; j < i; j++) {
-      const v = 0.5 * ((Y[i * n + j] as number) + (Y[j * n + i] as number));
-      Y[i * n + j] = v;
-      Y[j * n + i] = v;
+  const { n, L, first } = F;
+  const X = A;
+  // reach[i]: one past the last column any of rows 0 … i of A has a nonzero in
+  const reach = new Int32Array(n);
+  let r = 0;
+  for (let i = 0; i < n; i++) {
+    const o = i * n;
+    let last = n - 1;
+    while (last >= r && (X[o + last] as number) === 0) last--;
+    r = Math.max(r, last + 1, i + 1);
+    reach[i] = r;
+  }
+  for (let i = 0; i < n; i++) {
+    const xi = i * n;
+    const end = reach[i] as number;
+    for (let k = first[i] as number; k < i; k++) {
+      const lik = L[xi + k] as number;
+      if (lik === 0) continue;
+      const xk = k * n;
+      // row k is zero from reach[k] ≤ end on
+      const stop = reach[k] as number;
+      for (let j = 0; j < stop; j++)
+        X[xi + j] = (X[xi + j] as number) - lik * (X[xk + j] as number);
     }
-  return Y;
+    const inv = 1 / (L[xi + i] as number);
+    for (let j = 0; j < end; j++) X[xi + j] = (X[xi + j] as number) * inv;
+  }
+  // C(i, j ≥ i) starts as Xᵀ(i, j) = X(j, i), copied in tiles (a plain column walk misses the
+  // cache on every entry)
+  const C = new Float64Array(n * n);
+  const TILE = 32;
+  for (let i0 = 0; i0 < n; i0 += TILE) {
+    const i1 = Math.min(n, i0 + TILE);
+    for (let j0 = i0; j0 < n; j0 += TILE) {
+      const j1 = Math.min(n, j0 + TILE);
+      for (let j = j0; j < j1; j++) {
+        const xj = j * n;
+        for (let i = i0; i < i1 && i <= j; i++) C[i * n + j] = X[xj + i] as number;
+      }
+    }
+  }
+  for (let i = 0; i < n; i++) {
+    const ci = i * n;
+    for (let k = first[i] as number; k < i; k++) {
+      const lik = L[ci + k] as number;
+      if (lik === 0) continue;
+      const ck = k * n;
+      for (let j = i; j < n; j++) C[ci + j] = (C[ci + j] as number) - lik * (C[ck + j] as number);
+    }
+    const inv = 1 / (L[ci + i] as number);
+    for (let j = i; j < n; j++) C[ci + j] = (C[ci + j] as number) * inv;
+  }
+  return C;
 }
 
 /**
@@ -159,6 +188,41 @@ export function backSubstituteColumns(F: ProfileFactor, Z: Float64Array): void {
       for (let j = 0; j < n; j++) Z[zk + j] = (Z[zk + j] as number) - lik * (Z[zi + j] as number);
     }
   }
+}
+
+/**
+ * A solver for the original (unpermuted) A from the profile Cholesky factor of its permuted copy:
+ * x = A⁻¹ b by L y = P b, Lᵀ z = y, x = Pᵀ z, each in O(n b).
+ * @example const K = profileSolver(profileCholesky(permutedDense(K, ord), ord), ord); K.solve(b)
+ */
+export function profileSolver(
+  F: ProfileFactor,
+  ord: BandOrdering,
+): { n: number; solve(b: Float64Array): Float64Array } {
+  const { n, L, first } = F;
+  const { perm } = ord;
+  return {
+    n,
+    solve(b: Float64Array): Float64Array {
+      const z = new Float64Array(n);
+      for (let i = 0; i < n; i++) {
+        const li = i * n;
+        let s = b[perm[i] as number] as number;
+        for (let k = first[i] as number; k < i; k++) s -= (L[li + k] as number) * (z[k] as number);
+        z[i] = s / (L[li + i] as number);
+      }
+      for (let i = n - 1; i >= 0; i--) {
+        const li = i * n;
+        const zi = (z[i] as number) / (L[li + i] as number);
+        z[i] = zi;
+        for (let k = first[i] as number; k < i; k++)
+          z[k] = (z[k] as number) - (L[li + k] as number) * zi;
+      }
+      const x = new Float64Array(n);
+      for (let i = 0; i < n; i++) x[perm[i] as number] = z[i] as number;
+      return x;
+    },
+  };
 }
 
 /**

@@ -30,7 +30,7 @@ export interface RefinedModes {
  */
 export function refineLowModes(
   M: SymmetricMatrix,
-  F: SymmetricFactorization,
+  F: Pick<SymmetricFactorization, 'n' | 'solve'>,
   start: Float64Array[],
   count: number,
   maxIterations: number,

@@ -31,13 +31,14 @@ export function symmetricEigen(A: DenseMatrix): { values: Float64Array; vectors:
 /**
  * `symmetricEigen` without the copying out: `values` ascending, Z (n × n, row-major) with the
  * eigenvector of `values[r]` in column `order[r]`. Only A's upper triangle is read.
- * `tridiagonalVectors: 'ql'` takes the fallback route from the start (for tests and comparisons).
+ * `tridiagonalVectors: 'ql'` takes the fallback route from the start (for tests and comparisons);
+ * `overwrite: true` lets it work in A's own storage instead of a copy.
  * @throws NoConvergenceError as `symmetricEigen`.
  * @example const { values, Z, order } = symmetricEigenColumns(A);
  */
 export function symmetricEigenColumns(
   A: DenseMatrix,
-  tridiagonalVectors: 'inverse-iteration' | 'ql' = 'inverse-iteration',
+  options: { tridiagonalVectors?: 'inverse-iteration' | 'ql'; overwrite?: boolean } = {},
 ): {
   values: Float64Array;
   Z: Float64Array;
@@ -45,9 +46,9 @@ export function symmetricEigenColumns(
 } {
   const n = A.rows;
   if (n === 0) return { values: new Float64Array(0), Z: new Float64Array(0), order: [] };
-  const R = Float64Array.from(A.data);
+  const R = options.overwrite === true ? A.data : Float64Array.from(A.data);
   const { d, e, tau } = tridiagonalize(n, R);
-  const sys = tridiagonalVectors === 'ql' ? null : tridiagonalEigenvectors(d, e);
+  const sys = options.tridiagonalVectors === 'ql' ? null : tridiagonalEigenvectors(d, e);
   let values: Float64Array;
   let Z: Float64Array;
   let order: number[];

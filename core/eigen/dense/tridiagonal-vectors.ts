@@ -16,6 +16,7 @@
  * converge within five solves the function returns null and the caller takes the QL route.
  */
 import { seededRandom } from '../random';
+import type { Block } from './kernels';
 import { tridiagonalQL } from './tridiagonal-ql';
 
 const EPS = 2 ** -52;
@@ -49,8 +50,9 @@ export function tridiagonalEigenvectors(
     const right = i < n - 1 ? Math.abs(e[i] as number) : 0;
     tnorm = Math.max(tnorm, Math.abs(d[i] as number) + left + right);
   }
-  // blocks, each with its eigenvalues and local vectors
-  const found: { value: number; start: number; size: number; vec: Float64Array; at: number }[] = [];
+  // Zt row r: the r-th vector found, block by block, zero outside its block
+  const Zt = new Float64Array(n * n);
+  const found: { value: number; row: number }[] = [];
   let start = 0;
   for (let i = 0; i < n; i++) {
     const last = i === n - 1 || Math.abs(e[i] as number) <= EPS * tnorm;
@@ -62,44 +64,44 @@ export function tridiagonalEigenvectors(
     const vals = db.slice();
     tridiagonalQL(vals, eb.slice(), null, 0);
     vals.sort();
-    const vecs = blockVectors(db, eb, vals);
-    if (!vecs) return null;
-    for (let k = 0; k < size; k++) {
-      found.push({ value: vals[k] as number, start, size, vec: vecs, at: k * size });
-    }
+    const row0 = found.length;
+    if (!blockVectors(db, eb, vals, { data: Zt, offset: row0 * n + start, stride: n })) return null;
+    vals.forEach((value, k) => found.push({ value, row: row0 + k }));
     start = i + 1;
   }
   found.sort((a, b) => a.value - b.value);
   const values = new Float64Array(n);
-  const Zt = new Float64Array(n * n); // row k: vector k
+  const rowOf = new Int32Array(n);
   found.forEach((f, k) => {
     values[k] = f.value;
-    Zt.set(f.vec.subarray(f.at, f.at + f.size), k * n + f.start);
+    rowOf[k] = f.row;
   });
+  // Z(i, k) = Zt(rowOf[k], i), transposed in 32 × 32 tiles: a column-by-column copy would miss
+  // the cache on every entry
   const Z = new Float64Array(n * n);
-  // transposed in 32 × 32 tiles: a column-by-column copy would miss the cache on every entry
   const TILE = 32;
-  for (let i0 = 0; i0 < n; i0 += TILE) {
-    const i1 = Math.min(n, i0 + TILE);
-    for (let k0 = 0; k0 < n; k0 += TILE) {
-      const k1 = Math.min(n, k0 + TILE);
-      for (let i = i0; i < i1; i++)
-        for (let k = k0; k < k1; k++) Z[i * n + k] = Zt[k * n + i] as number;
+  for (let k0 = 0; k0 < n; k0 += TILE) {
+    const k1 = Math.min(n, k0 + TILE);
+    for (let i0 = 0; i0 < n; i0 += TILE) {
+      const i1 = Math.min(n, i0 + TILE);
+      for (let k = k0; k < k1; k++) {
+        const src = (rowOf[k] as number) * n;
+        for (let i = i0; i < i1; i++) Z[i * n + k] = Zt[src + i] as number;
+      }
     }
   }
   return { values, Z };
 }
 
 /**
- * The eigenvectors of one unreduced block (row k of the result: the vector of `vals[k]`, unit
- * length), or null when one does not converge.
+ * The eigenvectors of one unreduced block, unit length, written to row k of `out` for `vals[k]`;
+ * false when one does not converge.
  */
-function blockVectors(d: Float64Array, e: Float64Array, vals: Float64Array): Float64Array | null {
+function blockVectors(d: Float64Array, e: Float64Array, vals: Float64Array, out: Block): boolean {
   const m = d.length;
-  const out = new Float64Array(m * m);
   if (m === 1) {
-    out[0] = 1;
-    return out;
+    out.data[out.offset] = 1;
+    return true;
   }
   let onenrm = 0;
   for (let i = 0; i < m; i++) {
@@ -128,32 +130,31 @@ function blockVectors(d: Float64Array, e: Float64Array, vals: Float64Array): Flo
     lu.factor(d, e, xj, tiny);
     for (let i = 0; i < m; i++) x[i] = 2 * rand() - 1;
     const target = m * onenrm * Math.max(EPS, Math.abs(lu.lastPivot()));
-    if (!iterate(lu, x, out, window, j, target, growth)) return null;
-    store(x, out, j * m);
+    if (!iterate(lu, x, out, window, j, target, growth)) return false;
+    store(x, out.data, out.offset + j * out.stride);
   }
-  return out;
+  return true;
 }
 
 /**
- * Inverse iteration from x for vector j, orthogonalized against vectors window … j − 1 of `out`
- * (rows of length m); false when it does not converge.
+ * Inverse iteration from x for vector j, orthogonalized against vectors window … j − 1 of `out`;
+ * false when it does not converge.
  */
 function iterate(
   lu: LU,
   x: Float64Array,
-  out: Float64Array,
+  out: Block,
   window: number,
   j: number,
   target: number,
   growth: number,
 ): boolean {
-  const m = x.length;
   let checks = 0;
   let big = maxAbs(x);
   for (let its = 0; its < MAX_SOLVES && big > 0; its++) {
     big = lu.solve(x, target / big);
     if (window < j) {
-      for (let q = window; q < j; q++) orthogonalize(x, out, q * m);
+      for (let q = window; q < j; q++) orthogonalize(x, out.data, out.offset + q * out.stride);
       big = maxAbs(x);
     }
     if (!(big < Infinity)) return false;

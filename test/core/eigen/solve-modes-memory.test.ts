@@ -48,7 +48,8 @@ describe('solveModes memory limit', () => {
       estimateBytes: DENSE_METHOD_ARRAYS * 8 * 4000 * 4000,
       limitBytes: limit,
     });
-    expect(e.message).toContain('4000-DOF model needs about 977 MB');
+    // 5 · 8 · 4000² bytes = 640 000 000 B = 610 MB (MiB)
+    expect(e.message).toContain('4000-DOF model needs about 610 MB');
     expect(e.message).toContain('more than the 100 MB this evaluation may use');
   });
 

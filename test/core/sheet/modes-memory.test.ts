@@ -24,7 +24,7 @@ describe('modes blocks under a memory limit', () => {
       beamSheet('stiffness: deck.K\nmass: deck.M\nmethod: dense\ncount: 3\nname: deck_modes'),
       { memoryLimitBytes: 0.5 * 2 ** 20, memoryLimitAdvice: 'raise MW_EVAL_MEMORY_MB' },
     );
-    // 8 arrays of 120 × 120 doubles: 8 · 8 · 120² bytes = 900 kB (core/eigen/solve-modes.ts).
+    // 5 arrays of 120 × 120 doubles: 5 · 8 · 120² bytes = 563 kB (core/eigen/solve-modes.ts).
     expect(r.errors).toEqual([
       {
         blockId: 'solve',
@@ -33,7 +33,7 @@ describe('modes blocks under a memory limit', () => {
         code: 'MODEL_TOO_LARGE',
         message:
           'The model is too large for the memory this evaluation may use: the dense solve of 120 ' +
-          'DOFs needs about 900 kB, more than the limit of 512 kB. Use fewer DOFs (a coarser ' +
+          'DOFs needs about 563 kB, more than the limit of 512 kB. Use fewer DOFs (a coarser ' +
           'mesh), a different method (lanczos or subspace, which find the lowest modes without ' +
           'n × n arrays), or raise MW_EVAL_MEMORY_MB.',
       },
