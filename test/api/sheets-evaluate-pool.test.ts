@@ -152,7 +152,7 @@ describe('POST /api/sheets/:sheetId/evaluate on the worker pool, under its memor
         code: 'MODEL_TOO_LARGE',
         message:
           'The model is too large for the memory this evaluation may use: the dense solve of 20 ' +
-          'DOFs needs about 25 kB, more than the limit of 5 kB. Use fewer DOFs (a coarser mesh), ' +
+          'DOFs needs about 16 kB, more than the limit of 5 kB. Use fewer DOFs (a coarser mesh), ' +
           'a different method (lanczos or subspace, which find the lowest modes without n × n ' +
           'arrays), or raise MW_EVAL_MEMORY_MB (each evaluation worker has 512 MB, of which a ' +
           'solve may use 0.001 %).',

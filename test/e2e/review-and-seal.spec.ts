@@ -106,12 +106,14 @@ describe('review and seal, the whole flow (browser)', () => {
     const remarks = page.getByRole('complementary', { name: 'Remarks' });
     await remarks.getByText('State the mass used').waitFor();
     await page.getByLabel('1 remark on line 3').waitFor();
-    // Sign off is refused while the remark is open, with the server's reason.
-    await page.getByRole('button', { name: 'Sign off' }).click();
-    await page
-      .getByRole('alert')
-      .filter({ hasText: /remark/i })
-      .waitFor();
+    // Sign off waits while the remark is open, and says why (the server refuses it too:
+    // test/api/revisions.test.ts).
+    const signOff = page.getByRole('button', { name: 'Sign off' });
+    await expect.poll(() => signOff.isDisabled()).toBe(true);
+    const help = await signOff.getAttribute('aria-describedby');
+    expect(await page.locator(`[id="${help}"]`).innerText()).toBe(
+      '1 remark not closed: sign off needs every remark closed; return the revision for the author to act on them.',
+    );
     await saveScreenshot(page, 'review-2-remark');
     await page.getByRole('button', { name: 'Return to author' }).click();
     await expect.poll(() => status(page).innerText()).toBe('Returned');

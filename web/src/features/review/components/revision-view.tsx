@@ -213,7 +213,7 @@ function ReviewActions({
     >
       {isChecker && rev.status === 'in_check' ? (
         <>
-          <p className="text-sm text-ink-soft">
+          <p id={`sign-off-help-${rev.id}`} className="text-sm text-ink-soft">
             {unclosed === 0
               ? 'Every remark is closed: the revision can be signed off.'
               : `${countRemarks(unclosed)} not closed: sign off needs every remark closed; return the revision for the author to act on them.`}
@@ -231,6 +231,8 @@ function ReviewActions({
             </Button>
             <Button
               busy={signOff.isPending}
+              disabled={unclosed > 0}
+              aria-describedby={`sign-off-help-${rev.id}`}
               onClick={() => {
                 returnMutation.reset();
                 signOff.mutate();
