@@ -188,10 +188,14 @@ export function denseLDLT(A: DenseMatrix): SymmetricFactorization {
   };
 }
 
-/** A dense Cholesky factor A = L Lᵀ, L lower triangular row-major. */
+/**
+ * A dense Cholesky factor A = L Lᵀ, L lower triangular row-major, with its profile: row i of L is
+ * zero left of column `first[i]`.
+ */
 export interface CholeskyFactor {
   readonly n: number;
   readonly L: Float64Array;
+  readonly first: Int32Array;
 }
 
 /**
@@ -242,7 +246,7 @@ export function denseCholesky(A: DenseMatrix): CholeskyFactor {
       L[li + j] = t / d;
     }
   }
-  return { n, L };
+  return { n, L, first };
 }
 
 /**
@@ -251,7 +255,7 @@ export function denseCholesky(A: DenseMatrix): CholeskyFactor {
  * @example denseCholeskyFactorization(M).solve(b)
  */
 export function denseCholeskyFactorization(A: DenseMatrix): SymmetricFactorization {
-  const { n, L } = denseCholesky(A);
+  const { n, L, first } = denseCholesky(A);
   return {
     n,
     method: 'dense-cholesky',
@@ -260,29 +264,46 @@ export function denseCholeskyFactorization(A: DenseMatrix): SymmetricFactorizati
     solve(b: Float64Array, out?: Float64Array): Float64Array {
       const x = out ?? new Float64Array(n);
       if (x !== b) x.set(b);
-      solveLowerInPlace(L, n, x);
-      solveLowerTransposeInPlace(L, n, x);
+      solveLowerInPlace(L, n, x, first);
+      solveLowerTransposeInPlace(L, n, x, first);
       return x;
     },
   };
 }
 
-/** Solves L x = b in place (L lower triangular, row-major n × n). */
-export function solveLowerInPlace(L: Float64Array, n: number, x: Float64Array): void {
+/**
+ * Solves L x = b in place (L lower triangular, row-major n × n); with `first`, row i's sum starts
+ * at its profile, so a band width b costs O(n b).
+ */
+export function solveLowerInPlace(
+  L: Float64Array,
+  n: number,
+  x: Float64Array,
+  first?: Int32Array,
+): void {
   for (let i = 0; i < n; i++) {
     let s = x[i] as number;
     const li = i * n;
-    for (let k = 0; k < i; k++) s -= (L[li + k] as number) * (x[k] as number);
+    for (let k = first ? (first[i] as number) : 0; k < i; k++) {
+      s -= (L[li + k] as number) * (x[k] as number);
+    }
     x[i] = s / (L[li + i] as number);
   }
 }
 
-/** Solves Lᵀ x = b in place (L lower triangular, row-major n × n). */
-export function solveLowerTransposeInPlace(L: Float64Array, n: number, x: Float64Array): void {
+/** Solves Lᵀ x = b in place (L lower triangular, row-major n × n; `first` as above). */
+export function solveLowerTransposeInPlace(
+  L: Float64Array,
+  n: number,
+  x: Float64Array,
+  first?: Int32Array,
+): void {
   for (let i = n - 1; i >= 0; i--) {
     const li = i * n;
     const xi = (x[i] as number) / (L[li + i] as number);
     x[i] = xi;
-    for (let k = 0; k < i; k++) x[k] = (x[k] as number) - (L[li + k] as number) * xi;
+    for (let k = first ? (first[i] as number) : 0; k < i; k++) {
+      x[k] = (x[k] as number) - (L[li + k] as number) * xi;
+    }
   }
 }

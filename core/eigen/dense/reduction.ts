@@ -9,7 +9,12 @@
  * congruence and the back-substitution φ = L⁻ᵀ z then touch only those.
  */
 import { EngineError } from '../../errors';
-import { denseCholesky } from '../../linalg/dense';
+import {
+  type CholeskyFactor,
+  denseCholesky,
+  solveLowerInPlace,
+  solveLowerTransposeInPlace,
+} from '../../linalg/dense';
 import { combine, toSparse } from '../../linalg/factorize';
 import { reverseCuthillMcKee } from '../../linalg/ordering';
 import type { SymmetricMatrix } from '../../linalg/types';
@@ -61,11 +66,7 @@ export function permutedDense(A: SymmetricMatrix, ord: BandOrdering): Float64Arr
 }
 
 /** The Cholesky factor of a permuted matrix with the column of its first nonzero in each row. */
-export interface ProfileFactor {
-  readonly n: number;
-  readonly L: Float64Array;
-  readonly first: Int32Array;
-}
+export type ProfileFactor = CholeskyFactor;
 
 /**
  * Cholesky of the permuted matrix B (row-major n × n). A zero or negative pivot is rethrown with
@@ -75,9 +76,8 @@ export interface ProfileFactor {
  */
 export function profileCholesky(B: Float64Array, ord: BandOrdering): ProfileFactor {
   const n = ord.n;
-  let L: Float64Array;
   try {
-    L = denseCholesky({ kind: 'dense', rows: n, cols: n, data: B }).L;
+    return denseCholesky({ kind: 'dense', rows: n, cols: n, data: B });
   } catch (e) {
     if (!(e instanceof EngineError) || e.code !== 'ZERO_PIVOT') throw e;
     const det = e.details ?? {};
@@ -89,18 +89,6 @@ export function profileCholesky(B: Float64Array, ord: BandOrdering): ProfileFact
       { dof, pivot, negative: det.negative === true },
     );
   }
-  const first = new Int32Array(n);
-  for (let i = 0; i < n; i++) {
-    let f = i;
-    for (let j = 0; j < i; j++) {
-      if ((L[i * n + j] as number) !== 0) {
-        f = j;
-        break;
-      }
-    }
-    first[i] = f;
-  }
-  return { n, L, first };
 }
 
 /**
@@ -205,19 +193,9 @@ export function profileSolver(
     n,
     solve(b: Float64Array): Float64Array {
       const z = new Float64Array(n);
-      for (let i = 0; i < n; i++) {
-        const li = i * n;
-        let s = b[perm[i] as number] as number;
-        for (let k = first[i] as number; k < i; k++) s -= (L[li + k] as number) * (z[k] as number);
-        z[i] = s / (L[li + i] as number);
-      }
-      for (let i = n - 1; i >= 0; i--) {
-        const li = i * n;
-        const zi = (z[i] as number) / (L[li + i] as number);
-        z[i] = zi;
-        for (let k = first[i] as number; k < i; k++)
-          z[k] = (z[k] as number) - (L[li + k] as number) * zi;
-      }
+      for (let i = 0; i < n; i++) z[i] = b[perm[i] as number] as number;
+      solveLowerInPlace(L, n, z, first);
+      solveLowerTransposeInPlace(L, n, z, first);
       const x = new Float64Array(n);
       for (let i = 0; i < n; i++) x[perm[i] as number] = z[i] as number;
       return x;

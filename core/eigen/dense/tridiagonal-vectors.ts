@@ -44,12 +44,7 @@ export function tridiagonalEigenvectors(
   e: Float64Array,
 ): TridiagonalEigensystem | null {
   const n = d.length;
-  let tnorm = 0;
-  for (let i = 0; i < n; i++) {
-    const left = i > 0 ? Math.abs(e[i - 1] as number) : 0;
-    const right = i < n - 1 ? Math.abs(e[i] as number) : 0;
-    tnorm = Math.max(tnorm, Math.abs(d[i] as number) + left + right);
-  }
+  const tnorm = oneNorm(d, e);
   // Zt row r: the r-th vector found, block by block, zero outside its block
   const Zt = new Float64Array(n * n);
   const found: { value: number; row: number }[] = [];
@@ -93,6 +88,18 @@ export function tridiagonalEigenvectors(
   return { values, Z };
 }
 
+/** ‖T‖₁ of the tridiagonal (d, e), `e[k]` coupling k and k + 1. */
+function oneNorm(d: Float64Array, e: Float64Array): number {
+  const n = d.length;
+  let norm = 0;
+  for (let i = 0; i < n; i++) {
+    const left = i > 0 ? Math.abs(e[i - 1] as number) : 0;
+    const right = i < n - 1 ? Math.abs(e[i] as number) : 0;
+    norm = Math.max(norm, Math.abs(d[i] as number) + left + right);
+  }
+  return norm;
+}
+
 /**
  * The eigenvectors of one unreduced block, unit length, written to row k of `out` for `vals[k]`;
  * false when one does not converge.
@@ -103,12 +110,7 @@ function blockVectors(d: Float64Array, e: Float64Array, vals: Float64Array, out:
     out.data[out.offset] = 1;
     return true;
   }
-  let onenrm = 0;
-  for (let i = 0; i < m; i++) {
-    const left = i > 0 ? Math.abs(e[i - 1] as number) : 0;
-    const right = i < m - 1 ? Math.abs(e[i] as number) : 0;
-    onenrm = Math.max(onenrm, Math.abs(d[i] as number) + left + right);
-  }
+  const onenrm = oneNorm(d, e);
   const ortol = ORTHOGONALIZE_WITHIN * onenrm;
   const growth = Math.sqrt(0.1 / m); // dstein's DTPCRT
   const tiny = EPS * onenrm;
