@@ -1,12 +1,10 @@
-import express from 'express';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { csrfProtection } from '../../api/http/csrf';
-import { loadSessionUser } from '../../api/http/auth';
 import { createEvaluateRouter } from '../../api/modules/evaluate/evaluate.routes';
 import { createEvaluationPool, type EvaluationPool } from '../../api/workers/evaluation-pool';
 import {
   anonymous,
   createTestApp,
+  mountBeforeApi,
   signedIn,
   type ApiClient,
   type TestApp,
@@ -16,26 +14,6 @@ import { createUser } from '../support/factories';
 let t: TestApp;
 let pool: EvaluationPool;
 let client: ApiClient;
-
-/**
- * Mounts the evaluate router on the foundation's app if api/app.ts does not mount it yet: placed
- * just before the app's /api router (after the session middleware), with the CSRF check and the
- * session user the /api router would apply.
- */
-function mountEvaluate(app: TestApp['app'], db: TestApp['db'], p: EvaluationPool): void {
-  const router = express.Router();
-  router.use(csrfProtection);
-  router.use(loadSessionUser(db));
-  router.use(createEvaluateRouter({ db, config: t.config, log: console } as never, { run: p.run }));
-  app.use('/api', router);
-  const stack = (app as unknown as { router: { stack: { handle: unknown }[] } }).router.stack;
-  const mine = stack.pop()!;
-  // The app's own /api router is the layer whose handle has a stack and ends in the 404 handler.
-  const apiIndex = stack.findIndex(
-    (l, i) => i > 0 && typeof l.handle === 'function' && 'stack' in (l.handle as object),
-  );
-  stack.splice(apiIndex >= 0 ? apiIndex : stack.length, 0, mine);
-}
 
 // A sheet with all five kinds of block: two-storey shear frame of REFERENCES.md item 3
 // (masses 2m and m, stiffnesses 2k and k; ω₁ = √(k/2m), Chopra ch. 10, from memory).
@@ -90,7 +68,10 @@ const hungry = {
 beforeAll(async () => {
   t = await createTestApp();
   pool = createEvaluationPool({ threads: 1, timeLimitMs: 5000, memoryLimitMb: 64, maxQueue: 1 });
-  mountEvaluate(t.app, t.db, pool);
+  mountBeforeApi(
+    t,
+    createEvaluateRouter({ db: t.db, config: t.config, log: console } as never, { run: pool.run }),
+  );
   client = await signedIn(t.app, await createUser(t.db));
 });
 

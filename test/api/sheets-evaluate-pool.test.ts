@@ -1,12 +1,15 @@
 import type { AddressInfo } from 'node:net';
 import type { Server } from 'node:http';
-import express from 'express';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { loadSessionUser } from '../../api/http/auth';
-import { csrfProtection } from '../../api/http/csrf';
 import { createSheetsRouter } from '../../api/modules/sheets/sheets.routes';
 import { createEvaluationPool, type EvaluationPool } from '../../api/workers/evaluation-pool';
-import { createTestApp, signedIn, type ApiClient, type TestApp } from '../support/api-app';
+import {
+  createTestApp,
+  mountBeforeApi,
+  signedIn,
+  type ApiClient,
+  type TestApp,
+} from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
 // Sheet evaluation through the worker pool: a client that disconnects from the event stream
@@ -19,27 +22,6 @@ let base: string;
 let author: ApiClient;
 let projectId: number;
 
-/**
- * Puts a sheets router running on the pool in front of the app's own /api router (which runs
- * the engine in-process until createApp hands it the pool), with the CSRF check and session user
- * that router applies.
- */
-function mountWithPool(app: TestApp['app']): void {
-  const router = express.Router();
-  router.use(csrfProtection);
-  router.use(loadSessionUser(t.db));
-  router.use(
-    createSheetsRouter({ db: t.db, config: t.config, log: console } as never, { runner: pool.run }),
-  );
-  app.use('/api', router);
-  const stack = (app as unknown as { router: { stack: { handle: unknown }[] } }).router.stack;
-  const mine = stack.pop()!;
-  const apiIndex = stack.findIndex(
-    (l, i) => i > 0 && typeof l.handle === 'function' && 'stack' in (l.handle as object),
-  );
-  stack.splice(apiIndex >= 0 ? apiIndex : stack.length, 0, mine);
-}
-
 beforeAll(async () => {
   t = await createTestApp();
   // A solve may use 0.001 % of the worker's 512 MB (5.4 kB): tiny on purpose, so that a modes
@@ -50,7 +32,11 @@ beforeAll(async () => {
     memoryLimitMb: 512,
     solveMemoryShare: 1e-5,
   });
-  mountWithPool(t.app);
+  // the app's own sheets router runs the engine in-process until createApp hands it the pool
+  mountBeforeApi(
+    t,
+    createSheetsRouter({ db: t.db, config: t.config, log: console } as never, { runner: pool.run }),
+  );
   const team = await createProjectTeam(t.db);
   projectId = team.project.id;
   author = await signedIn(t.app, team.author);

@@ -1,10 +1,7 @@
-import express from 'express';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { loadSessionUser } from '../../api/http/auth';
-import { csrfProtection } from '../../api/http/csrf';
 import { createUploadsRouter } from '../../api/modules/uploads/uploads.routes';
 import { createEvaluationPool, type EvaluationPool } from '../../api/workers/evaluation-pool';
-import { createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
+import { createTeamApp, mountBeforeApi, type ApiClient, type TestApp } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
 // Uploaded matrix files are read in the worker pool, not on the API's event loop: while a large
@@ -16,28 +13,6 @@ let team: Awaited<ReturnType<typeof createProjectTeam>>;
 let author: ApiClient;
 let sheetId: number;
 
-/**
- * Puts an uploads router reading files with this test's own pool in front of the app's /api
- * router, with the CSRF check and session user the app applies, so the test can watch the pool.
- */
-function mountWithPool(app: TestApp['app']): void {
-  const router = express.Router();
-  router.use(csrfProtection);
-  router.use(loadSessionUser(t.db));
-  router.use(
-    createUploadsRouter({ db: t.db, config: t.config, log: console } as never, {
-      describeMatrixFile: pool.describeMatrixFile,
-    }),
-  );
-  app.use('/api', router);
-  const stack = (app as unknown as { router: { stack: { handle: unknown }[] } }).router.stack;
-  const mine = stack.pop()!;
-  const apiIndex = stack.findIndex(
-    (l, i) => i > 0 && typeof l.handle === 'function' && 'stack' in (l.handle as object),
-  );
-  stack.splice(apiIndex >= 0 ? apiIndex : stack.length, 0, mine);
-}
-
 beforeAll(async () => {
   ({
     t,
@@ -45,7 +20,12 @@ beforeAll(async () => {
     clients: { author },
   } = await createTeamApp(['author']));
   pool = createEvaluationPool({ threads: 1, timeLimitMs: 60_000, memoryLimitMb: 512 });
-  mountWithPool(t.app);
+  mountBeforeApi(
+    t,
+    createUploadsRouter({ db: t.db, config: t.config, log: console } as never, {
+      describeMatrixFile: pool.describeMatrixFile,
+    }),
+  );
   const res = await author.post(`/api/projects/${team.project.id}/sheets`, {
     number: `UPW-${unique()}`,
     title: 'Uploads in workers',

@@ -4,20 +4,14 @@
 // that differ only in the last binary digits.
 import { describe, expect, it } from 'vitest';
 import { saveScreenshot } from '../support/browser';
-import { projectHref, useAuthorBrowser } from './editor-helpers';
+import { openDemoRevision, useAuthorBrowser } from './editor-helpers';
 
 describe('compare two revisions (browser)', () => {
   const session = useAuthorBrowser();
 
   it('shows what changed from Rev 1 to Rev 2 and folds rounding differences away', async () => {
     const { page } = session();
-    await page.goto(await projectHref(page));
-    await page.getByRole('link', { name: 'DYN-01' }).first().click();
-    await page
-      .getByRole('region', { name: 'Review' })
-      .getByRole('link', { name: /^Rev 2/ })
-      .click();
-    await page.getByRole('heading', { name: /Rev 2$/ }).waitFor();
+    await openDemoRevision(page, 'DYN-01', 2);
     await page
       .getByRole('link', { name: /^Compare/ })
       .first()

@@ -38,6 +38,17 @@ export async function projectHref(page: Page): Promise<string> {
   return href;
 }
 
+/** Opens a revision of a demo sheet from the project page, as a person would ("DYN-01", 2). */
+export async function openDemoRevision(page: Page, sheet: string, rev: number): Promise<void> {
+  await page.goto(await projectHref(page));
+  await page.getByRole('link', { name: sheet }).first().click();
+  await page
+    .getByRole('region', { name: 'Review' })
+    .getByRole('link', { name: new RegExp(`^Rev ${rev}`) })
+    .click();
+  await page.getByRole('heading', { name: new RegExp(`Rev ${rev}$`) }).waitFor();
+}
+
 /** Starts an empty sheet from the project page and waits for the editor. */
 export async function newSheet(page: Page, number: string, title: string): Promise<string> {
   await page.goto(await projectHref(page));

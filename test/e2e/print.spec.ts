@@ -3,20 +3,14 @@
 // criteria blocks keep their numbered source lines above their results.
 import { describe, expect, it } from 'vitest';
 import { saveScreenshot } from '../support/browser';
-import { projectHref, useAuthorBrowser } from './editor-helpers';
+import { openDemoRevision, useAuthorBrowser } from './editor-helpers';
 
 describe('print view (browser)', () => {
   const session = useAuthorBrowser();
 
   it('prints a text block as set text and a calc block as numbered lines', async () => {
     const { page } = session();
-    await page.goto(await projectHref(page));
-    await page.getByRole('link', { name: 'DYN-01' }).first().click();
-    await page
-      .getByRole('region', { name: 'Review' })
-      .getByRole('link', { name: /^Rev 2/ })
-      .click();
-    await page.getByRole('heading', { name: /Rev 2$/ }).waitFor();
+    await openDemoRevision(page, 'DYN-01', 2);
     await page.getByRole('link', { name: 'Print' }).first().click();
 
     // The demo sheet's first block (seeds/02_demo_sheets.ts) opens "## Deck natural frequencies".

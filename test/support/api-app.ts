@@ -1,8 +1,11 @@
 // The real app in-process for supertest, against the test database, plus clients that carry the
 // session cookie and the CSRF token the way the web client does.
+import express, { type Router } from 'express';
 import request from 'supertest';
 import type { Knex } from 'knex';
 import { createApp, type AppOptions, type CreatedApp } from '../../api/app';
+import { loadSessionUser } from '../../api/http/auth';
+import { csrfProtection } from '../../api/http/csrf';
 import { createProjectTeam } from './factories';
 
 export const TEST_SESSION_SECRET = 'test-session-secret-that-is-long-enough-0123456789';
@@ -26,6 +29,26 @@ export async function createTestApp(options: AppOptions = {}): Promise<TestApp> 
     ...options,
   });
   return created;
+}
+
+/**
+ * Puts `routes` in front of the app's own /api router (after the session middleware), with the
+ * CSRF check and the session user that router applies: a test can serve a module on its own
+ * worker pool and watch it.
+ */
+export function mountBeforeApi(t: TestApp, routes: Router): void {
+  const router = express.Router();
+  router.use(csrfProtection);
+  router.use(loadSessionUser(t.db));
+  router.use(routes);
+  t.app.use('/api', router);
+  const stack = (t.app as unknown as { router: { stack: { handle: unknown }[] } }).router.stack;
+  const mine = stack.pop()!;
+  // The app's own /api router is the layer whose handle has a stack of its own.
+  const apiIndex = stack.findIndex(
+    (l, i) => i > 0 && typeof l.handle === 'function' && 'stack' in (l.handle as object),
+  );
+  stack.splice(apiIndex >= 0 ? apiIndex : stack.length, 0, mine);
 }
 
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';

@@ -8,7 +8,7 @@ import {
 import { seededRandom } from '../../../core/eigen/random';
 import { EngineError } from '../../../core/errors';
 import type { DenseMatrix, SparseSymmetricMatrix } from '../../../core/linalg/types';
-import { chain, chainLambda, input, lowerFromEntries } from './pencils';
+import { addEntry, chain, chainLambda, input, lowerFromEntries } from './pencils';
 import { checkPairs, mlMatrixEigenvalues } from './reference-pencils';
 
 function dense(n: number, at: (i: number, j: number) => number): DenseMatrix {
@@ -231,10 +231,8 @@ function scatteredPencil(
   const r = seededRandom(seed);
   const k = new Map<number, number>();
   const m = new Map<number, number>();
-  const add = (map: Map<number, number>, i: number, j: number, v: number): void => {
-    const key = i >= j ? i * n + j : j * n + i;
-    map.set(key, (map.get(key) ?? 0) + v);
-  };
+  const add = (map: Map<number, number>, i: number, j: number, v: number): void =>
+    addEntry(map, n, i, j, v);
   // a ring of springs visited in a shuffled order, plus a few long links: a banded graph whose
   // natural numbering is scattered
   const order = Array.from({ length: n }, (_, i) => i);
@@ -337,10 +335,8 @@ describe('denseEigensolver (band-ordered reduction, low modes refined)', () => {
     const n = 2 * N;
     const k = new Map<number, number>();
     const m = new Map<number, number>();
-    const add = (map: Map<number, number>, i: number, j: number, v: number): void => {
-      const key = i >= j ? i * n + j : j * n + i;
-      map.set(key, (map.get(key) ?? 0) + v);
-    };
+    const add = (map: Map<number, number>, i: number, j: number, v: number): void =>
+      addEntry(map, n, i, j, v);
     for (let i = 0; i < n; i++) {
       add(k, i, i, 1);
       if (i > 0) {

@@ -14,6 +14,18 @@ export function rng(seed: number): () => number {
   };
 }
 
+/** Adds v at (i, j) of a symmetric matrix kept as entries of its lower triangle (key i·n + j, i ≥ j). */
+export function addEntry(
+  map: Map<number, number>,
+  n: number,
+  i: number,
+  j: number,
+  v: number,
+): void {
+  const key = i >= j ? i * n + j : j * n + i;
+  map.set(key, (map.get(key) ?? 0) + v);
+}
+
 export function lowerFromEntries(n: number, entries: Map<number, number>): SparseSymmetricMatrix {
   // key = i * n + j with i ≥ j
   const cols: { i: number; v: number }[][] = Array.from({ length: n }, () => []);
@@ -46,10 +58,8 @@ export function randomPencil(
   const r = rng(seed);
   const k = new Map<number, number>();
   const m = new Map<number, number>();
-  const add = (map: Map<number, number>, i: number, j: number, v: number): void => {
-    const key = i >= j ? i * n + j : j * n + i;
-    map.set(key, (map.get(key) ?? 0) + v);
-  };
+  const add = (map: Map<number, number>, i: number, j: number, v: number): void =>
+    addEntry(map, n, i, j, v);
   for (let i = 0; i < n; i++) {
     add(k, i, i, 0.1 + r());
     add(m, i, i, 1 + r());
