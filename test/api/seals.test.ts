@@ -176,6 +176,41 @@ describe('POST /api/revisions/:revisionId/seal', () => {
     expect(res.body.error).toMatchObject({ code: 'NO_LICENCE', field: 'licenceNumber' });
   });
 
+  it('refuses a revision evaluated by an earlier engine, and says the upgrade is the cause and what to do', async () => {
+    const revId = await signedOff(await newSheet());
+    const row = await t.db('revisions').where({ id: revId }).first();
+    const results = JSON.parse(row.results);
+    const current = results.engineVersion as string;
+    results.engineVersion = 'modewright-sheet 0.0.1 (mathjs 15.2.0)';
+    await contentTriggerDown(t.db);
+    try {
+      await t
+        .db('revisions')
+        .where({ id: revId })
+        .update({ results: JSON.stringify(results), engine_version: results.engineVersion });
+    } finally {
+      await contentTriggerUp(t.db);
+    }
+    const res = await principal.post(`/api/revisions/${revId}/seal`, {
+      password: team.principal.password,
+    });
+    expect(res.status).toBe(409);
+    expect(res.body.error.code).toBe('RESULTS_DO_NOT_REPRODUCE');
+    expect(res.body.error.details).toMatchObject({
+      storedEngineVersion: 'modewright-sheet 0.0.1 (mathjs 15.2.0)',
+      freshEngineVersion: current,
+    });
+    expect(res.body.error.message).toMatch(
+      new RegExp(
+        `^Rev \\d+ was evaluated with modewright-sheet 0\\.0\\.1 \\(mathjs 15\\.2\\.0\\); this server runs `,
+      ),
+    );
+    expect(res.body.error.message).toContain(
+      'issue a new revision (it is evaluated with the current engine)',
+    );
+    expect(await t.db('seals').where({ revision_id: revId })).toHaveLength(0);
+  });
+
   it('refuses when the stored results no longer reproduce, naming the value that moved', async () => {
     const revId = await signedOff(await newSheet());
     const row = await t.db('revisions').where({ id: revId }).first();

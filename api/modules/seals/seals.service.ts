@@ -142,12 +142,17 @@ export const sealsService = {
           (m) => `${m.where}: stored ${JSON.stringify(m.stored)}, now ${JSON.stringify(m.fresh)}`,
         )
         .join('; ');
+      // After an upgrade of the engine the cause is the upgrade, not the revision: say so first.
+      const upgraded =
+        rev.engineVersion !== fresh.engineVersion
+          ? `Rev ${rev.number} was evaluated with ${rev.engineVersion}; this server runs ${fresh.engineVersion}. A seal rests only on results the engine that seals them reproduces: issue a new revision (it is evaluated with the current engine), have it checked, and seal that. `
+          : '';
       throw new AppError(
         409,
         'RESULTS_DO_NOT_REPRODUCE',
         textChanged && total === 0
-          ? `A fresh evaluation of Rev ${rev.number} does not give the stored canonical text, so it cannot be sealed.`
-          : `A fresh evaluation of Rev ${rev.number} does not reproduce its stored results (tolerance: relative ${REPRODUCE_RELATIVE_TOLERANCE} on every number); ${total} value(s) moved: ${list}${total > 5 ? '; …' : ''}. It cannot be sealed; issue a new revision.`,
+          ? `${upgraded}A fresh evaluation of Rev ${rev.number} does not give the stored canonical text, so it cannot be sealed.`
+          : `${upgraded}A fresh evaluation of Rev ${rev.number} does not reproduce its stored results (tolerance: relative ${REPRODUCE_RELATIVE_TOLERANCE} on every number); ${total} value(s) moved: ${list}${total > 5 ? '; …' : ''}. It cannot be sealed; issue a new revision.`,
         {
           details: {
             tolerance: REPRODUCE_RELATIVE_TOLERANCE,
