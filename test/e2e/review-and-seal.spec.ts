@@ -158,6 +158,8 @@ describe('review and seal, the whole flow (browser)', () => {
     await remarks.getByTestId('remark-state').getByText('Closed', { exact: true }).waitFor();
     await page.getByRole('button', { name: 'Sign off' }).click();
     await expect.poll(() => status(page).innerText()).toBe('Checked');
+    // nothing is left for the checker to do on it: no empty actions panel either
+    await expect.poll(() => page.getByRole('region', { name: 'Review actions' }).count()).toBe(0);
     await saveScreenshot(page, 'review-5-signed-off');
   });
 

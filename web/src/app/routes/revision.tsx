@@ -22,14 +22,12 @@ export function RevisionRoute() {
       revisionId={revisionId}
       user={user}
       links={{ sheet: paths.sheet.href, print: paths.print.href, compare: paths.compare.href }}
-      sealAction={(rev) => (
-        <SealDialog
-          key={rev.id}
-          revisionId={rev.id}
-          revisionNumber={rev.number}
-          canSeal={rev.myRoles.includes('principal')}
-        />
-      )}
+      // only a principal of the project has a seal action; for everyone else the panel stays away
+      sealAction={(rev) =>
+        rev.myRoles.includes('principal') ? (
+          <SealDialog key={rev.id} revisionId={rev.id} revisionNumber={rev.number} />
+        ) : null
+      }
     />
   );
 }

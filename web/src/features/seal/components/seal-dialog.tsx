@@ -24,18 +24,15 @@ const REASONS: Record<string, string> = {
 export function SealDialog({
   revisionId,
   revisionNumber,
-  canSeal,
 }: {
   revisionId: number;
   revisionNumber: number;
-  canSeal: boolean;
 }) {
   const [open, setOpen] = useState(false);
   const [password, setPassword] = useState('');
   const seal = useSealRevision(revisionId);
   const { fieldErrors, formError } = splitFormError(seal.error, ['password']);
 
-  if (!canSeal) return null;
   if (seal.data) {
     return (
       <Alert tone="success" title={`Rev ${revisionNumber} is sealed.`}>
