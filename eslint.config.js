@@ -56,8 +56,8 @@ export default tseslint.config(
             {
               target: ['./api', './web', './scripts', './seeds'],
               from: './core',
-              except: ['./index.ts'],
-              message: 'Import core/ only through core/index.ts.',
+              except: ['./index.ts', './threads.ts'],
+              message: 'Import core/ only through core/index.ts (helper threads: core/threads.ts).',
             },
             {
               target: './web',

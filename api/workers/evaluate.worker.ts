@@ -1,11 +1,21 @@
 /**
  * The evaluation worker: runs the sheet engine on one sheet and posts progress back on the
- * MessagePort it was handed. Loaded by piscina in a worker thread through tsx. A second task,
+ * MessagePort it was handed, sharing dense eigensolves with its own helper threads (a
+ * DenseTeam). Loaded by piscina in a worker thread through tsx. A second task,
  * `describeMatrixTask`, reads an uploaded matrix file off the API's main thread.
  */
+import { availableParallelism } from 'node:os';
 import type { MessagePort } from 'node:worker_threads';
-import { evaluateSheet, type Sheet, type SheetResults, type SheetUpload } from '../../core/index';
+import {
+  DENSE_PARTS,
+  evaluateSheet,
+  type Sheet,
+  type SheetResults,
+  type SheetUpload,
+} from '../../core/index';
+import { createDenseTeam, type ThreadTeam } from './dense-team';
 import { AppError } from '../http/errors';
+import { createLogger } from '../http/logger';
 import { describeMatrixFile, type MatrixFileShape } from '../modules/uploads/uploads.parse';
 import type { UploadFormat } from '../modules/uploads/uploads.repository';
 
@@ -41,12 +51,26 @@ function isEngineError(e: unknown): e is EngineErrorLike {
   );
 }
 
-export default function evaluateTask(task: EvaluateTask): EvaluateReply {
+/**
+ * This worker's threads for the dense eigensolver (./dense-team.ts): one per core up to the
+ * solver's parts, started with the worker. Null when they cannot start: solves then run on this
+ * thread alone, with the same results.
+ */
+const denseTeam: Promise<ThreadTeam | null> = createDenseTeam(
+  Math.min(availableParallelism(), DENSE_PARTS) - 1,
+).catch((err: unknown) => {
+  createLogger(true).error('dense solver threads unavailable; solving on one thread', err);
+  return null;
+});
+
+export default async function evaluateTask(task: EvaluateTask): Promise<EvaluateReply> {
   const { port } = task;
+  const team = await denseTeam;
   // The time limit starts when the evaluation does, not while the worker was still loading.
   port?.postMessage({ type: 'start' });
   try {
     const results = evaluateSheet(task.sheet, {
+      ...(team ? { denseTeam: team } : {}),
       uploads: task.uploads,
       ...(task.maxMatrixEntries ? { maxMatrixEntries: task.maxMatrixEntries } : {}),
       ...(task.memoryLimitBytes ? { memoryLimitBytes: task.memoryLimitBytes } : {}),

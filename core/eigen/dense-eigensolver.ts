@@ -23,6 +23,7 @@ import {
   bandOrdering,
   type BandOrdering,
   columnInOriginalOrder,
+  columnsInOriginalOrder,
   congruence,
   permutedDense,
   profileCholesky,
@@ -31,6 +32,7 @@ import {
 } from './dense/reduction';
 import { refineLowModes } from './dense/refine-low-modes';
 import { symmetricEigenColumns } from './dense/symmetric-eigen';
+import { type DenseTeam, SERIAL_TEAM } from './dense/team';
 import type { MethodInput, RawEigenResult } from './types';
 
 export { symmetricEigen } from './dense/symmetric-eigen';
@@ -54,19 +56,31 @@ export function denseEigensolver(input: MethodInput): RawEigenResult {
       { n },
     );
   }
+  const team = input.team ?? SERIAL_TEAM;
+  try {
+    return solveDense(input, n, team);
+  } finally {
+    team.release();
+  }
+}
+
+function solveDense(input: MethodInput, n: number, team: DenseTeam): RawEigenResult {
   const ord = bandOrdering(input.K, input.M);
   const notes: string[] = [];
-  const massF = massFactor(input, ord);
+  const massF = massFactor(input, ord, team);
   let lambdas: number[];
   let vectors: Float64Array[];
   if (massF) {
-    const { values, Z, order } = solveStandardForm(massF, permutedDense(input.K, ord));
+    const { values, Z, order } = solveStandardForm(massF, permutedDense(input.K, ord, team), team);
     lambdas = Array.from(values);
     const kept = Math.min(input.count, n);
-    vectors = order
-      .slice(0, Math.max(kept, guardCount(lambdas, kept)))
-      .map((k) => columnInOriginalOrder(ord, Z, k, 1));
-    refine(input, ord, lambdas, vectors, notes);
+    vectors = columnsInOriginalOrder(
+      ord,
+      Z,
+      order.slice(0, Math.max(kept, guardCount(lambdas, kept))),
+      1,
+    );
+    refine(input, ord, lambdas, vectors, notes, team);
   } else {
     // M singular: reduce with a positive definite A = K − σM.
     const dg = diagonalOf(input.M);
@@ -79,7 +93,7 @@ export function denseEigensolver(input: MethodInput): RawEigenResult {
     for (const trial of [0, -1e-10 * s, -1e-8 * s, -1e-6 * s]) {
       try {
         const A = trial === 0 ? input.K : combine(toSparse(input.K), 1, toSparse(input.M), -trial);
-        AF = profileCholesky(permutedDense(A, ord), ord);
+        AF = profileCholesky(permutedDense(A, ord, team), ord, team);
         sigma = trial;
         break;
       } catch (e) {
@@ -93,7 +107,7 @@ export function denseEigensolver(input: MethodInput): RawEigenResult {
       );
     }
     const F = AF;
-    const { values, Z, order } = solveStandardForm(F, permutedDense(input.M, ord));
+    const { values, Z, order } = solveStandardForm(F, permutedDense(input.M, ord, team), team);
     const muMax = Math.max(...Array.from(values).map(Math.abs), 0);
     const pairs: { lambda: number; phi: Float64Array }[] = [];
     let dropped = 0;
@@ -130,9 +144,9 @@ export function denseEigensolver(input: MethodInput): RawEigenResult {
  * The Cholesky factor of the permuted M, or null when M is singular (a zero pivot).
  * @throws EngineError MASS_NOT_PSD on a negative pivot.
  */
-function massFactor(input: MethodInput, ord: BandOrdering): ProfileFactor | null {
+function massFactor(input: MethodInput, ord: BandOrdering, team: DenseTeam): ProfileFactor | null {
   try {
-    return profileCholesky(permutedDense(input.M, ord), ord);
+    return profileCholesky(permutedDense(input.M, ord, team), ord, team);
   } catch (e) {
     if (!(e instanceof EngineError) || e.code !== 'ZERO_PIVOT') throw e;
     const det = e.details ?? {};
@@ -155,14 +169,15 @@ function massFactor(input: MethodInput, ord: BandOrdering): ProfileFactor | null
 function solveStandardForm(
   F: ProfileFactor,
   A: Float64Array,
+  team: DenseTeam,
 ): { values: Float64Array; Z: Float64Array; order: number[] } {
   const n = F.n;
-  const C = congruence(F, A);
+  const C = congruence(F, A, team);
   const eig = symmetricEigenColumns(
     { kind: 'dense', rows: n, cols: n, data: C },
-    { overwrite: true },
+    { overwrite: true, team },
   );
-  backSubstituteColumns(F, eig.Z);
+  backSubstituteColumns(F, eig.Z, team);
   return eig;
 }
 
@@ -190,6 +205,7 @@ function refine(
   lambdas: number[],
   vectors: Float64Array[],
   notes: string[],
+  team: DenseTeam,
 ): void {
   const n = lambdas.length;
   const kept = Math.min(input.count, n);
@@ -199,7 +215,7 @@ function refine(
   // not positive definite and the reduction's values stand
   let F: ReturnType<typeof profileSolver> | null = null;
   try {
-    F = profileSolver(profileCholesky(permutedDense(input.K, ord), ord), ord);
+    F = profileSolver(profileCholesky(permutedDense(input.K, ord, team), ord, team), ord);
   } catch (e) {
     if (!(e instanceof EngineError) || e.code !== 'ZERO_PIVOT') throw e;
   }

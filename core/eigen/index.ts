@@ -10,3 +10,5 @@ export * from './solve-modes';
 export * from './lanczos';
 export * from './subspace-iteration';
 export * from './conditioning';
+export * from './dense/team';
+export { DENSE_TASKS } from './dense/tasks';

@@ -293,6 +293,7 @@ export function solveModes(
     ...(pencil && (method === 'lanczos' || method === 'subspace') ? { pencil } : {}),
     ...(options.onProgress ? { onProgress: options.onProgress } : {}),
     ...(options.signal ? { signal: options.signal } : {}),
+    ...(options.team ? { team: options.team } : {}),
   };
   const limit =
     options.memoryLimitBytes === undefined ? {} : { memoryLimitBytes: options.memoryLimitBytes };

@@ -3,6 +3,7 @@
  * every method module returns before `solveModes` post-processes it.
  */
 import type { ShiftedPencil } from '../linalg/sparse-ldlt/shifted';
+import type { DenseTeam } from './dense/team';
 import type { SymmetricFactorization, SymmetricMatrix } from '../linalg/types';
 
 /** The methods `solveModes` knows. `subspace` and `lanczos` answer INVALID_OPTION until they exist. */
@@ -55,6 +56,11 @@ export interface SolveOptions {
    * the run, not the result.
    */
   memoryLimitBytes?: number;
+  /**
+   * Threads the dense method may share its heavy steps with (`./dense/team`); the result is the
+   * same bit for bit with or without. Not part of the reported options.
+   */
+  team?: DenseTeam;
 }
 
 /** Options after defaults are applied, as reported in the result. */
@@ -147,4 +153,6 @@ export interface MethodInput {
   pencil?: ShiftedPencil;
   onProgress?: (p: SolveProgress) => void;
   signal?: { readonly aborted: boolean };
+  /** Threads the dense method may share its heavy steps with (`./dense/team`). */
+  team?: DenseTeam;
 }

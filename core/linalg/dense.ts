@@ -202,11 +202,12 @@ export interface CholeskyFactor {
  * Dense Cholesky A = L Lᵀ (Golub & Van Loan, Algorithm 4.2.1 in outer-product form).
  * @throws EngineError ZERO_PIVOT (`details.dof`, `details.pivot`) when a pivot is ≤ 1e-13 a_jj;
  *   a negative pivot carries `details.negative = true`.
+ * `out`, when given, is a zeroed n × n array L is written to.
  * @example const { L } = denseCholesky(M);
  */
-export function denseCholesky(A: DenseMatrix): CholeskyFactor {
+export function denseCholesky(A: DenseMatrix, out?: Float64Array): CholeskyFactor {
   const n = A.rows;
-  const L = new Float64Array(n * n);
+  const L = out ?? new Float64Array(n * n);
   const a = A.data;
   // The factor keeps the profile of A (Golub & Van Loan §4.3.5): row i of L is zero left of the
   // first nonzero of row i of A, so the sums below start there. Only exact zeros are skipped: the

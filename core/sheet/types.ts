@@ -3,6 +3,7 @@
  * (numbers, strings, booleans, arrays, objects), so results can be stored, hashed, diffed and sent
  * to the client as they are. See core/sheet/README.md for the block syntax.
  */
+import type { DenseTeam } from '../eigen/dense/team';
 
 /** The five kinds of block (DESIGN.md §4). */
 export type BlockKind = 'text' | 'calc' | 'matrix' | 'modes' | 'criteria';
@@ -242,4 +243,6 @@ export interface EvaluateOptions {
   memoryLimitBytes?: number;
   /** How to raise that limit, ending the refusal's advice (e.g. "raise MW_EVAL_MEMORY_MB …"). */
   memoryLimitAdvice?: string;
+  /** Threads the dense eigensolver may share its heavy steps with (results are the same). */
+  denseTeam?: DenseTeam;
 }

@@ -158,6 +158,8 @@ const table = [
   '',
   'Every solve returns the mode shapes as well as the eigenvalues, ours and the references alike (eigsh with vectors, eigh(K, M) with its default driver). Times are the solve only, not building or reading the matrices.',
   '',
+  `Threads: the dense solves run on ${cpus().length} thread${cpus().length === 1 ? '' : 's'} (the caller and a DenseTeam of worker threads, as in the evaluation workers), scipy's eigh on its BLAS's default threads; the sparse solves and ml-matrix are single-threaded, as is scipy's eigsh apart from its BLAS calls.`,
+  '',
   '| problem | DOF | nonzeros of K | ours, median s | reference, median s | ratio | max rel. λ diff | Sturm | our peak MB |',
   '|---|---|---|---|---|---|---|---|---|',
   ...rows,

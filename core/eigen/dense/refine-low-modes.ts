@@ -52,16 +52,11 @@ export function refineLowModes(
     for (let i = 0; i < q; i++) {
       const yi = Y[i] as Float64Array;
       for (let j = 0; j <= i; j++) {
-        const myj = MY[j] as Float64Array;
-        const mxj = MX[j] as Float64Array;
-        const mxi = MX[i] as Float64Array;
         const yj = Y[j] as Float64Array;
-        let a = 0;
-        let b = 0;
-        for (let k = 0; k < n; k++) {
-          a += (yi[k] as number) * (myj[k] as number);
-          b += (yi[k] as number) * (mxj[k] as number) + (yj[k] as number) * (mxi[k] as number);
-        }
+        // the loops live in small functions, which the JIT optimizes after a few calls (one
+        // long-running loop here would wait for on-stack replacement)
+        const a = dot(yi, MY[j] as Float64Array);
+        const b = dot(yi, MX[j] as Float64Array) + dot(yj, MX[i] as Float64Array);
         A[i * q + j] = a;
         A[j * q + i] = a;
         B[i * q + j] = 0.5 * b;
@@ -98,11 +93,7 @@ export function refineLowModes(
       // sᵀ B s = 1 gives xᵀ K x = 1 and xᵀ M x = μ: rescale to xᵀ M x = 1
       const c = 1 / Math.sqrt(mu);
       const x = new Float64Array(n);
-      for (let j = 0; j < q; j++) {
-        const sj = (s[j] as number) * c;
-        const yj = Y[j] as Float64Array;
-        for (let i = 0; i < n; i++) x[i] = (x[i] as number) + sj * (yj[i] as number);
-      }
+      for (let j = 0; j < q; j++) axpy(x, (s[j] as number) * c, Y[j] as Float64Array);
       next.push(x);
       nextLambdas.push(1 / mu);
     }
@@ -117,6 +108,17 @@ export function refineLowModes(
     if (change <= 1e-14) break;
   }
   return { lambdas, vectors: X.slice(0, count), iterations };
+}
+
+function dot(x: Float64Array, y: Float64Array): number {
+  let s = 0;
+  for (let k = 0; k < x.length; k++) s += (x[k] as number) * (y[k] as number);
+  return s;
+}
+
+/** x += a y */
+function axpy(x: Float64Array, a: number, y: Float64Array): void {
+  for (let k = 0; k < x.length; k++) x[k] = (x[k] as number) + a * (y[k] as number);
 }
 
 /** Solves R x = x in place, R lower triangular row-major q × q. */

@@ -6,6 +6,7 @@
  * accumulated rotations (`./tridiagonal-ql`) computes them instead.
  */
 import type { DenseMatrix } from '../../linalg/types';
+import { type DenseTeam, SERIAL_TEAM } from './team';
 import { tridiagonalQL } from './tridiagonal-ql';
 import { backTransform, tridiagonalize } from './tridiagonalize';
 import { tridiagonalEigenvectors } from './tridiagonal-vectors';
@@ -32,13 +33,19 @@ export function symmetricEigen(A: DenseMatrix): { values: Float64Array; vectors:
  * `symmetricEigen` without the copying out: `values` ascending, Z (n × n, row-major) with the
  * eigenvector of `values[r]` in column `order[r]`. Only A's upper triangle is read.
  * `tridiagonalVectors: 'ql'` takes the fallback route from the start (for tests and comparisons);
- * `overwrite: true` lets it work in A's own storage instead of a copy.
+ * `overwrite: true` lets it work in A's own storage instead of a copy; `team` shares the
+ * reduction and the back-transformation with other threads (`./team`; the same result bit for
+ * bit), which reach A's storage only when it came from `team.shared`.
  * @throws NoConvergenceError as `symmetricEigen`.
  * @example const { values, Z, order } = symmetricEigenColumns(A);
  */
 export function symmetricEigenColumns(
   A: DenseMatrix,
-  options: { tridiagonalVectors?: 'inverse-iteration' | 'ql'; overwrite?: boolean } = {},
+  options: {
+    tridiagonalVectors?: 'inverse-iteration' | 'ql';
+    overwrite?: boolean;
+    team?: DenseTeam;
+  } = {},
 ): {
   values: Float64Array;
   Z: Float64Array;
@@ -47,8 +54,9 @@ export function symmetricEigenColumns(
   const n = A.rows;
   if (n === 0) return { values: new Float64Array(0), Z: new Float64Array(0), order: [] };
   const R = options.overwrite === true ? A.data : Float64Array.from(A.data);
-  const { d, e, tau } = tridiagonalize(n, R);
-  const sys = options.tridiagonalVectors === 'ql' ? null : tridiagonalEigenvectors(d, e);
+  const team = options.team ?? SERIAL_TEAM;
+  const { d, e, tau } = tridiagonalize(n, R, team);
+  const sys = options.tridiagonalVectors === 'ql' ? null : tridiagonalEigenvectors(d, e, team);
   let values: Float64Array;
   let Z: Float64Array;
   let order: number[];
@@ -58,7 +66,7 @@ export function symmetricEigenColumns(
   } else {
     ({ values, Z, order } = qlEigensystem(d, e));
   }
-  backTransform(n, R, tau, Z, n);
+  backTransform(n, R, tau, Z, n, team);
   return { values, Z, order };
 }
 

@@ -17,6 +17,15 @@
  */
 import { seededRandom } from '../random';
 import type { Block } from './kernels';
+import {
+  DENSE_PARTS,
+  type DenseTask,
+  type DenseTeam,
+  evenSplit,
+  SERIAL_TEAM,
+  SPLIT_MIN,
+  transposePart,
+} from './team';
 import { tridiagonalQL } from './tridiagonal-ql';
 
 const EPS = 2 ** -52;
@@ -36,17 +45,19 @@ export interface TridiagonalEigensystem {
 /**
  * Eigenvalues and orthonormal eigenvectors of the tridiagonal matrix with diagonal d and
  * off-diagonal e (`e[k]` couples k and k + 1), or null when inverse iteration fails to converge
- * for some vector. d and e are not changed.
+ * for some vector. d and e are not changed. `team` may run parts of a large block at once
+ * (the same result); Z is one of its arrays.
  * @example const sys = tridiagonalEigenvectors(d, e); // sys.Z[i * n + k]: component i of vector k
  */
 export function tridiagonalEigenvectors(
   d: Float64Array,
   e: Float64Array,
+  team: DenseTeam = SERIAL_TEAM,
 ): TridiagonalEigensystem | null {
   const n = d.length;
   const tnorm = oneNorm(d, e);
   // Zt row r: the r-th vector found, block by block, zero outside its block
-  const Zt = new Float64Array(n * n);
+  const Zt = team.shared(n * n);
   const found: { value: number; row: number }[] = [];
   let start = 0;
   for (let i = 0; i < n; i++) {
@@ -60,31 +71,28 @@ export function tridiagonalEigenvectors(
     tridiagonalQL(vals, eb.slice(), null, 0);
     vals.sort();
     const row0 = found.length;
-    if (!blockVectors(db, eb, vals, { data: Zt, offset: row0 * n + start, stride: n })) return null;
+    const block: Block = { data: Zt, offset: row0 * n + start, stride: n };
+    if (!blockVectors(db, eb, vals, block, team)) return null;
     vals.forEach((value, k) => found.push({ value, row: row0 + k }));
     start = i + 1;
   }
   found.sort((a, b) => a.value - b.value);
   const values = new Float64Array(n);
-  const rowOf = new Int32Array(n);
+  const rowOf = team.shared(n);
   found.forEach((f, k) => {
     values[k] = f.value;
     rowOf[k] = f.row;
   });
-  // Z(i, k) = Zt(rowOf[k], i), transposed in 32 × 32 tiles: a column-by-column copy would miss
-  // the cache on every entry
-  const Z = new Float64Array(n * n);
-  const TILE = 32;
-  for (let k0 = 0; k0 < n; k0 += TILE) {
-    const k1 = Math.min(n, k0 + TILE);
-    for (let i0 = 0; i0 < n; i0 += TILE) {
-      const i1 = Math.min(n, i0 + TILE);
-      for (let k = k0; k < k1; k++) {
-        const src = (rowOf[k] as number) * n;
-        for (let i = i0; i < i1; i++) Z[i * n + k] = Zt[src + i] as number;
-      }
-    }
-  }
+  // Z(i, k) = Zt(rowOf[k], i)
+  const Z = team.shared(n * n);
+  const parts = n >= 2 * SPLIT_MIN ? DENSE_PARTS : 1;
+  team.run(
+    'transpose',
+    transposePart,
+    parts,
+    [Zt, Z, rowOf],
+    [n, 0, ...evenSplit(0, n, parts, 32)],
+  );
   return { values, Z };
 }
 
@@ -103,40 +111,116 @@ function oneNorm(d: Float64Array, e: Float64Array): number {
 /**
  * The eigenvectors of one unreduced block, unit length, written to row k of `out` for `vals[k]`;
  * false when one does not converge.
+ *
+ * The shifts are fixed first (equal or nearly equal eigenvalues get shifts apart, as dstein
+ * does). Where two neighbouring shifts lie more than the orthogonalization window apart, the
+ * vectors on either side never meet, so a large block is cut there, near its middle, into parts
+ * that `team` may run at once; vector j draws its start vector from the generator advanced by
+ * j·m draws, so the result is the same however the parts run.
  */
-function blockVectors(d: Float64Array, e: Float64Array, vals: Float64Array, out: Block): boolean {
+function blockVectors(
+  d: Float64Array,
+  e: Float64Array,
+  vals: Float64Array,
+  out: Block,
+  team: DenseTeam,
+): boolean {
   const m = d.length;
   if (m === 1) {
     out.data[out.offset] = 1;
     return true;
   }
-  const onenrm = oneNorm(d, e);
-  const ortol = ORTHOGONALIZE_WITHIN * onenrm;
-  const growth = Math.sqrt(0.1 / m); // dstein's DTPCRT
-  const tiny = EPS * onenrm;
-  const lu = new LU(m);
+  const ortol = ORTHOGONALIZE_WITHIN * oneNorm(d, e);
   const shifts = new Float64Array(m);
-  const x = new Float64Array(m);
-  const rand = seededRandom(7); // the same start vectors every run
-  let window = 0;
   for (let j = 0; j < m; j++) {
     let xj = vals[j] as number;
     if (j > 0) {
-      // equal or nearly equal eigenvalues get shifts apart, as dstein does
       const pertol = 10 * Math.abs(EPS * xj);
       const prev = shifts[j - 1] as number;
       if (xj - prev < pertol) xj = prev + pertol;
     }
     shifts[j] = xj;
-    while (window < j && xj - (shifts[window] as number) > ortol) window++;
-    lu.factor(d, e, xj, tiny);
-    for (let i = 0; i < m; i++) x[i] = 2 * rand() - 1;
-    const target = m * onenrm * Math.max(EPS, Math.abs(lu.lastPivot()));
-    if (!iterate(lu, x, out, window, j, target, growth)) return false;
+  }
+  const bounds = [0, m];
+  if (m >= 2 * SPLIT_MIN) {
+    // the gap wider than the window nearest the middle
+    let cut = -1;
+    for (let j = 1; j < m; j++) {
+      const wide = (shifts[j] as number) - (shifts[j - 1] as number) > ortol;
+      if (wide && (cut < 0 || Math.abs(j - m / 2) < Math.abs(cut - m / 2))) cut = j;
+    }
+    if (cut > 0) bounds.splice(1, 0, cut);
+  }
+  const parts = bounds.length - 1;
+  if (parts === 1) {
+    const status = new Float64Array(1);
+    blockVectorsPart(0, [d, e, shifts, out.data, status], [m, out.offset, out.stride, ...bounds]);
+    return status[0] === 0;
+  }
+  const arrays = [d, e, shifts, team.shared(parts)].map((a) => {
+    const copy = team.shared(a.length);
+    copy.set(a);
+    return copy;
+  });
+  const status = arrays[3] as Float64Array;
+  team.run(
+    'tridiagonalVectors',
+    blockVectorsPart,
+    parts,
+    [
+      arrays[0] as Float64Array,
+      arrays[1] as Float64Array,
+      arrays[2] as Float64Array,
+      out.data,
+      status,
+    ],
+    [m, out.offset, out.stride, ...bounds],
+  );
+  return status.every((x) => x === 0);
+}
+
+/**
+ * Vectors j ∈ [bounds[part], bounds[part + 1]) of a block (d, e) with the given shifts, into row j
+ * of the block `out` (offset, stride); status[part] = 1 when one does not converge.
+ */
+export const blockVectorsPart: DenseTask = (
+  part,
+  [d, e, shifts, outData, status],
+  [m, offset, stride, ...bounds],
+) => {
+  const size = m as number;
+  const dd = d as Float64Array;
+  const ee = e as Float64Array;
+  const sh = shifts as Float64Array;
+  const out: Block = {
+    data: outData as Float64Array,
+    offset: offset as number,
+    stride: stride as number,
+  };
+  const j0 = bounds[part] as number;
+  const j1 = bounds[part + 1] as number;
+  const onenrm = oneNorm(dd, ee);
+  const ortol = ORTHOGONALIZE_WITHIN * onenrm;
+  const growth = Math.sqrt(0.1 / size); // dstein's DTPCRT
+  const tiny = EPS * onenrm;
+  const lu = new LU(size);
+  const x = new Float64Array(size);
+  // the same start vectors every run: vector j takes draws j·m … j·m + m − 1
+  const rand = seededRandom(7, j0 * size);
+  let window = j0;
+  for (let j = j0; j < j1; j++) {
+    const xj = sh[j] as number;
+    while (window < j && xj - (sh[window] as number) > ortol) window++;
+    lu.factor(dd, ee, xj, tiny);
+    for (let i = 0; i < size; i++) x[i] = 2 * rand() - 1;
+    const target = size * onenrm * Math.max(EPS, Math.abs(lu.lastPivot()));
+    if (!iterate(lu, x, out, window, j, target, growth)) {
+      (status as Float64Array)[part] = 1;
+      return;
+    }
     store(x, out.data, out.offset + j * out.stride);
   }
-  return true;
-}
+};
 
 /**
  * Inverse iteration from x for vector j, orthogonalized against vectors window … j − 1 of `out`;

@@ -20,6 +20,15 @@
  * j ≤ k, v_{k+1} = 1, and v_{k+2…n−1} left in row k of A where the reduced entries were.
  */
 import { type Block, multiplyAdd } from './kernels';
+import {
+  DENSE_PARTS,
+  type DenseTask,
+  type DenseTeam,
+  evenSplit,
+  SERIAL_TEAM,
+  SPLIT_MIN,
+  triangleSplit,
+} from './team';
 
 /** Reflectors per panel and per back-transformation block. */
 const PANEL = 32;
@@ -35,19 +44,23 @@ export interface Tridiagonal {
  * Reduces A (row-major, upper triangle used, overwritten by the reflectors) to tridiagonal form.
  * @example const { d, e, tau } = tridiagonalize(n, A); // later: backTransform(n, A, tau, Z)
  */
-export function tridiagonalize(n: number, A: Float64Array): Tridiagonal {
+export function tridiagonalize(
+  n: number,
+  A: Float64Array,
+  team: DenseTeam = SERIAL_TEAM,
+): Tridiagonal {
   const d = new Float64Array(n);
   const e = new Float64Array(Math.max(n - 1, 0));
-  const tau = new Float64Array(Math.max(n - 1, 0));
+  const tau = team.shared(Math.max(n - 1, 0));
   // The panel, interleaved: row 2b is reflector v of step k0 + b, row 2b + 1 its w, so that the
   // matrix the panel has made so far is A − Σ_b (v_b w_bᵀ + w_b v_bᵀ) and its first 2b rows are
   // the U of every product below.
-  const VW = new Float64Array(2 * PANEL * n);
+  const VW = team.shared(2 * PANEL * n);
   const U: Block = { data: VW, offset: 0, stride: n };
-  const coef = new Float64Array(n * 2 * PANEL); // row r: (w_b(r), v_b(r)) for each b
-  const p = new Float64Array(n);
-  const pRow: Block = { data: p, offset: 0, stride: n };
-  const s = new Float64Array(2 * PANEL);
+  const coef = team.shared(n * 2 * PANEL); // row r: (w_b(r), v_b(r)) for each b
+  // p = A v; the product's parts write their sums at p[part · n …], added into the first n after
+  const p = team.shared(DENSE_PARTS * n);
+  const s = team.shared(2 * PANEL);
   const sRow: Block = { data: s, offset: 0, stride: 2 * PANEL };
   for (let k0 = 0; k0 < n - 1; k0 += PANEL) {
     const nb = Math.min(PANEL, n - 1 - k0);
@@ -91,15 +104,29 @@ export function tridiagonalize(n: number, A: Float64Array): Tridiagonal {
       A[row + j + 1] = beta;
       // p = A(trailing, as at the panel's start) v, then the panel's corrections:
       // p −= Σ_q v_q (w_qᵀ v) + w_q (v_qᵀ v)
-      symmetricProduct(n, A, j + 1, VW, vrow, p);
+      // (the dots first: each part then corrects its own run of p)
+      const k = j + 1;
       if (b > 0) {
-        rowDots(VW, n, 2 * b, vrow, j + 1, s);
+        rowDots(VW, n, 2 * b, vrow, k, s);
         for (let q = 0; q < b; q++) {
           const wv = s[2 * q + 1] as number;
           s[2 * q + 1] = s[2 * q] as number;
           s[2 * q] = wv;
         }
-        multiplyAdd(pRow, sRow, U, 1, 2 * b, j + 1, n, -1);
+      }
+      const parts = n - k >= SPLIT_MIN ? DENSE_PARTS : 1;
+      const bounds = triangleSplit(k, n, n, parts, 4);
+      team.run(
+        'symmetricProduct',
+        symmetricProductPart,
+        parts,
+        [A, VW, p, s],
+        [n, vrow, 2 * b, ...bounds],
+      );
+      for (let q = 1; q < parts; q++) {
+        const o = q * n;
+        for (let c = bounds[q] as number; c < n; c++)
+          p[c] = (p[c] as number) + (p[o + c] as number);
       }
       // w = τ p − ½ τ² (pᵀv) v
       let pv = 0;
@@ -112,32 +139,81 @@ export function tridiagonalize(n: number, A: Float64Array): Tridiagonal {
     // the trailing rows take the whole panel: A(r, c) −= Σ_b v_b(r) w_b(c) + w_b(r) v_b(c)
     const r0 = k0 + nb;
     if (r0 >= n) continue;
-    const terms = 2 * nb;
-    for (let r = r0; r < n; r++) {
-      const o = r * terms;
-      for (let b = 0; b < nb; b++) {
-        coef[o + 2 * b] = VW[(2 * b + 1) * n + r] as number;
-        coef[o + 2 * b + 1] = VW[2 * b * n + r] as number;
-      }
-    }
-    const GROUP = 8;
-    for (let r = r0; r < n; r += GROUP) {
-      const rows = Math.min(GROUP, n - r);
-      multiplyAdd(
-        { data: A, offset: r * n, stride: n },
-        { data: coef, offset: r * terms, stride: terms },
-        U,
-        rows,
-        terms,
-        r,
-        n,
-        -1,
-      );
-    }
+    const parts = n - r0 >= SPLIT_MIN ? DENSE_PARTS : 1;
+    team.run(
+      'trailingUpdate',
+      trailingUpdatePart,
+      parts,
+      [A, VW, coef],
+      [n, nb, ...triangleSplit(r0, n, n, parts, GROUP)],
+    );
   }
   if (n > 0) d[n - 1] = A[(n - 1) * n + (n - 1)] as number;
   return { d, e, tau };
 }
+
+/** Rows of the trailing update at a time. */
+const GROUP = 8;
+
+/**
+ * Rows [bounds[part], bounds[part + 1]) of the trailing update after a panel of nb reflectors:
+ * A(r, c ≥ r) −= Σ_b v_b(r) w_b(c) + w_b(r) v_b(c).
+ */
+export const trailingUpdatePart: DenseTask = (part, [A, VW, coef], [n, nb, ...bounds]) => {
+  const a = A as Float64Array;
+  const vw = VW as Float64Array;
+  const cf = coef as Float64Array;
+  const size = n as number;
+  const terms = 2 * (nb as number);
+  const r0 = bounds[part] as number;
+  const r1 = bounds[part + 1] as number;
+  for (let r = r0; r < r1; r++) {
+    const o = r * terms;
+    for (let b = 0; b < terms; b += 2) {
+      cf[o + b] = vw[(b + 1) * size + r] as number;
+      cf[o + b + 1] = vw[b * size + r] as number;
+    }
+  }
+  const U: Block = { data: vw, offset: 0, stride: size };
+  for (let r = r0; r < r1; r += GROUP) {
+    multiplyAdd(
+      { data: a, offset: r * size, stride: size },
+      { data: cf, offset: r * terms, stride: terms },
+      U,
+      Math.min(GROUP, r1 - r),
+      terms,
+      r,
+      size,
+      -1,
+    );
+  }
+};
+
+/**
+ * Rows [bounds[part], bounds[part + 1]) of p = A v (v in row `vo` of VW), summed into
+ * p[part · n + c] for c from the first of those rows on; then, on the same run of columns, the
+ * panel's correction −Σ_q s_q U(q, c) over the first `terms` rows of VW.
+ */
+export const symmetricProductPart: DenseTask = (part, [A, VW, p, s], [n, vo, terms, ...bounds]) => {
+  const size = n as number;
+  const r0 = bounds[part] as number;
+  const r1 = bounds[part + 1] as number;
+  const vw = VW as Float64Array;
+  const out = p as Float64Array;
+  symmetricProduct(size, A as Float64Array, r0, r1, vw, vo as number, out, part * size);
+  if ((terms as number) > 0) {
+    multiplyAdd(
+      { data: out, offset: part * size, stride: size },
+      { data: s as Float64Array, offset: 0, stride: 2 * PANEL },
+      { data: vw, offset: 0, stride: size },
+      1,
+      terms as number,
+      r0,
+      r1,
+      -1,
+    );
+  }
+};
 
 /** s[q] = Σ_{c ≥ c0} U(q, c) U(x, c) for the first `count` rows of U (row x holds the vector). */
 function rowDots(
@@ -179,21 +255,25 @@ function rowDots(
 }
 
 /**
- * p[r] = Σ_c A(r, c) v(c) for r, c ≥ k, with A symmetric and only its upper triangle stored;
- * v = Vt[vo + …]. Four rows per pass share the loads of v and p: each entry of A is read once
- * and serves both its row's dot product and its column's update.
+ * The share of rows [r0, r1) in p = A v, with A symmetric and only its upper triangle stored,
+ * v = Vt[vo + …]: out[po + c] for c ≥ r0 receives Σ_{r0 ≤ r < r1} A(r, c) v(r) (both triangles of
+ * those rows). Four rows per pass share the loads of v and p: each entry of A is read once and
+ * serves both its row's dot product and its column's update.
  */
 function symmetricProduct(
   n: number,
   A: Float64Array,
-  k: number,
+  r0: number,
+  r1: number,
   Vt: Float64Array,
   vo: number,
-  p: Float64Array,
+  out: Float64Array,
+  po: number,
 ): void {
-  p.fill(0, k, n);
-  let r = k;
-  for (; r + 3 < n; r += 4) {
+  const p = out.subarray(po, po + n);
+  p.fill(0, r0, n);
+  let r = r0;
+  for (; r + 3 < r1; r += 4) {
     const o0 = r * n;
     const o1 = o0 + n;
     const o2 = o1 + n;
@@ -234,7 +314,7 @@ function symmetricProduct(
     p[r + 2] = t2;
     p[r + 3] = t3;
   }
-  for (; r < n; r++) {
+  for (; r < r1; r++) {
     const o = r * n;
     const x = Vt[vo + r] as number;
     let t = (p[r] as number) + (A[o + r] as number) * x;
@@ -258,12 +338,46 @@ export function backTransform(
   tau: Float64Array,
   Z: Float64Array,
   m: number,
+  team: DenseTeam = SERIAL_TEAM,
 ): void {
+  // every column of Z takes the same reflectors: the parts are runs of columns
+  const parts = m >= 2 * SPLIT_MIN ? DENSE_PARTS : 1;
+  team.run(
+    'backTransform',
+    backTransformPart,
+    parts,
+    [A, tau, Z],
+    [n, m, ...evenSplit(0, m, parts, 4)],
+  );
+}
+
+/** Columns [bounds[part], bounds[part + 1]) of `backTransform`. */
+export const backTransformPart: DenseTask = (part, [A, tau, Z], [n, m, ...bounds]) =>
+  backTransformColumns(
+    n as number,
+    A as Float64Array,
+    tau as Float64Array,
+    Z as Float64Array,
+    m as number,
+    bounds[part] as number,
+    bounds[part + 1] as number,
+  );
+
+function backTransformColumns(
+  n: number,
+  A: Float64Array,
+  tau: Float64Array,
+  Z: Float64Array,
+  m: number,
+  c0: number,
+  c1: number,
+): void {
+  if (c1 <= c0) return;
   const B = PANEL;
   const Yt = new Float64Array(B * n); // row b: reflector k0 + b
   const Yp = new Float64Array(n * B); // row r: component r of each reflector of the block
   const S = new Float64Array(B * B);
-  const W = new Float64Array(B * m);
+  const W = new Float64Array(B * m); // columns c0 … c1 − 1 used
   const w = new Float64Array(B);
   const last = n - 2;
   if (last < 0) return;
@@ -311,15 +425,15 @@ export function backTransform(
       }
     }
     // W = Yᵀ Z
-    W.fill(0, 0, nb * m);
+    for (let b = 0; b < nb; b++) W.fill(0, b * m + c0, b * m + c1);
     multiplyAdd(
       { data: W, offset: 0, stride: m },
       { data: Yt, offset: top, stride: n },
       { data: Z, offset: top * m, stride: m },
       nb,
       rows,
-      0,
-      m,
+      c0,
+      c1,
       1,
     );
     // Z −= (Y S) W
@@ -329,8 +443,8 @@ export function backTransform(
       { data: W, offset: 0, stride: m },
       rows,
       nb,
-      0,
-      m,
+      c0,
+      c1,
       -1,
     );
   }

@@ -506,6 +506,7 @@ export function evaluateModesBlock(
   if (ctx.options.memoryLimitBytes !== undefined) {
     options.memoryLimitBytes = ctx.options.memoryLimitBytes;
   }
+  if (ctx.options.denseTeam) options.team = ctx.options.denseTeam;
 
   let r: ModalResult;
   try {

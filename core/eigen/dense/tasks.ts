@@ -1,0 +1,20 @@
+/**
+ * The dense solver's parallel steps by name, for the threads of a `DenseTeam` (`./team`): the
+ * caller runs a step's function directly and names it, and another thread looks the same
+ * function up here.
+ */
+import { backSubstitutePart, congruenceLeftPart, congruenceRightPart } from './reduction';
+import { type DenseTask, transposePart } from './team';
+import { blockVectorsPart } from './tridiagonal-vectors';
+import { backTransformPart, symmetricProductPart, trailingUpdatePart } from './tridiagonalize';
+
+export const DENSE_TASKS: Readonly<Record<string, DenseTask>> = {
+  backSubstitute: backSubstitutePart,
+  backTransform: backTransformPart,
+  congruenceLeft: congruenceLeftPart,
+  congruenceRight: congruenceRightPart,
+  symmetricProduct: symmetricProductPart,
+  trailingUpdate: trailingUpdatePart,
+  transpose: transposePart,
+  tridiagonalVectors: blockVectorsPart,
+};
