@@ -153,7 +153,7 @@ export function tridiagonalize(
 }
 
 /** Rows of the trailing update at a time. */
-const GROUP = 8;
+const GROUP = 16;
 
 /**
  * Rows [bounds[part], bounds[part + 1]) of the trailing update after a panel of nb reflectors:
@@ -363,6 +363,35 @@ export const backTransformPart: DenseTask = (part, [A, tau, Z], [n, m, ...bounds
     bounds[part + 1] as number,
   );
 
+// The block factors' loops as small functions: the JIT optimizes them after a few calls, where a
+// loop inside a part that runs once per solve would wait for on-stack replacement.
+
+/** Σ_{from ≤ c < n} U[xo + c] · U[yo + c]. */
+function dotFrom(U: Float64Array, xo: number, yo: number, from: number, n: number): number {
+  let s = 0;
+  for (let c = from; c < n; c++) s += (U[xo + c] as number) * (U[yo + c] as number);
+  return s;
+}
+
+/** Row r of Y S into Yp[o …]: Yp(r, c) = Σ_{b ≤ c} Y(r, b) S(b, c), Y(r, b) = Yt[b · n + r]. */
+function foldRow(
+  Yt: Float64Array,
+  n: number,
+  nb: number,
+  r: number,
+  S: Float64Array,
+  Yp: Float64Array,
+  o: number,
+  w: Float64Array,
+): void {
+  for (let b = 0; b < nb; b++) w[b] = Yt[b * n + r] as number;
+  for (let c = 0; c < nb; c++) {
+    let acc = 0;
+    for (let b = 0; b <= c; b++) acc += (w[b] as number) * (S[b * PANEL + c] as number);
+    Yp[o + c] = acc;
+  }
+}
+
 function backTransformColumns(
   n: number,
   A: Float64Array,
@@ -399,12 +428,7 @@ function backTransformColumns(
     for (let b = 0; b < nb; b++) {
       const t = tau[k0 + b] as number;
       const yo = b * n;
-      for (let q = 0; q < b; q++) {
-        let s = 0;
-        const qo = q * n;
-        for (let c = k0 + b + 1; c < n; c++) s += (Yt[qo + c] as number) * (Yt[yo + c] as number);
-        w[q] = s;
-      }
+      for (let q = 0; q < b; q++) w[q] = dotFrom(Yt, q * n, yo, k0 + b + 1, n);
       for (let r = 0; r < b; r++) {
         let s = 0;
         for (let q = r; q < b; q++) s += (S[r * B + q] as number) * (w[q] as number);
@@ -415,15 +439,7 @@ function backTransformColumns(
     // Yp = Y S, row r − top: the coefficients of row r of Z (S folded in once per block, which
     // costs rows·nb² instead of m·nb² for S W)
     const rows = n - top;
-    for (let r = top; r < n; r++) {
-      const o = (r - top) * nb;
-      for (let b = 0; b < nb; b++) w[b] = Yt[b * n + r] as number;
-      for (let c = 0; c < nb; c++) {
-        let acc = 0;
-        for (let b = 0; b <= c; b++) acc += (w[b] as number) * (S[b * B + c] as number);
-        Yp[o + c] = acc;
-      }
-    }
+    for (let r = top; r < n; r++) foldRow(Yt, n, nb, r, S, Yp, (r - top) * nb, w);
     // W = Yᵀ Z
     for (let b = 0; b < nb; b++) W.fill(0, b * m + c0, b * m + c1);
     multiplyAdd(

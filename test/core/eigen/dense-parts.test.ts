@@ -52,11 +52,11 @@ function tridiagonalResidual(
 }
 
 describe('multiplyAdd (the register-blocked product kernel)', () => {
-  it('matches the triple loop C += s·P U on every remainder of its 8 × 4 blocking, inside larger arrays', () => {
+  it('matches the triple loop C += s·P U on every remainder of its 16 × 8, 8 × 4 and 4 × 4 blocking, inside larger arrays', () => {
     // the definition of the product (common practice); shapes chosen to leave every remainder
     const rand = seededRandom(3);
-    for (const rows of [1, 3, 4, 7, 8, 9, 13]) {
-      for (const terms of [1, 3, 4, 5, 8, 11]) {
+    for (const rows of [1, 3, 4, 7, 8, 9, 13, 16, 17, 29, 40]) {
+      for (const terms of [1, 3, 4, 5, 8, 11, 16, 19]) {
         const cols = 17;
         const [c0, c1] = [2, 15];
         const C = Float64Array.from({ length: (rows + 1) * cols + 5 }, () => rand());
