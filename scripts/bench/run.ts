@@ -136,7 +136,7 @@ for (const p of selected) {
   if (r.handbook) {
     const hb = r.handbook.slice(0, r.lambdas.length);
     extra.push(
-      `vs closed form/handbook: ours ${sci(maxRelDiff(r.lambdas, hb))}` +
+      `largest relative difference from the closed form/handbook values: ours ${sci(maxRelDiff(r.lambdas, hb))}` +
         (ref ? `, scipy ${sci(maxRelDiff(ref.lambdas.slice(0, hb.length), hb))}` : ''),
     );
     extra.push(
