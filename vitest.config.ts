@@ -11,7 +11,7 @@ export default defineConfig({
         test: {
           name: 'core',
           sequence: { groupOrder: 0 },
-          include: ['test/core/**/*.test.ts', 'test/scripts/**/*.test.ts'],
+          include: ['test/core/**/*.test.ts', 'test/scripts/**/*.test.ts', 'test/web/**/*.test.ts'],
           environment: 'node',
           testTimeout: 120_000,
         },

@@ -312,6 +312,35 @@ function formatMatrix(m: Matrix, ctx: FormatContext): Formatted {
  * @throws EngineError SHEET_EVAL for non-finite numbers (division by zero), complex results,
  *   matrices mixing units, or values a sheet cannot show.
  */
+/** LaTeX of an object's key: upright, with characters LaTeX would read as commands blanked. */
+export const texKey = (key: string): string =>
+  `\\mathrm{${key.replace(/[^A-Za-z0-9_]/g, ' ').replace(/_/g, '\\_')}}`;
+
+/**
+ * LaTeX of an object value as a short summary, not its contents: each field by name, with the
+ * size of a matrix or vector, the value of a number, the field names of a nested object.
+ *
+ * @example
+ * // a beam model: {K [32 × 32], M [32 × 32], influence {w}, n = 32, r [32]}
+ */
+function objectSummaryTex(fields: Record<string, SheetValue>): string {
+  const parts = Object.entries(fields).map(([key, f]) => {
+    switch (f.type) {
+      case 'matrix':
+        return `${texKey(key)}\\;[${f.rows}\\times${f.cols}]`;
+      case 'vector':
+        return `${texKey(key)}\\;[${f.length}]`;
+      case 'number':
+        return `${texKey(key)}=${f.value}`;
+      case 'object':
+        return `${texKey(key)}\\;\\{${Object.keys(f.fields).map(texKey).join(',')}\\}`;
+      default:
+        return texKey(key);
+    }
+  });
+  return `\\left\\{${parts.join(',\\ ')}\\right\\}`;
+}
+
 export function formatValue(v: unknown, ctx: FormatContext, depth = 0): Formatted {
   const { math } = ctx;
   if (typeof v === 'number' || isUnit(math, v)) return formatScalar(v, ctx);
@@ -359,7 +388,7 @@ export function formatValue(v: unknown, ctx: FormatContext, depth = 0): Formatte
     return {
       value: { type: 'object', fields },
       display: `{${parts.join(', ')}}`,
-      latex: `\\text{\\{${Object.keys(fields).join(', ').replace(/_/g, '\\_')}\\}}`,
+      latex: objectSummaryTex(fields),
     };
   }
   if (v === undefined || v === null) {

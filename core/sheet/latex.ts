@@ -4,7 +4,7 @@
  * in which every name is replaced by its value with its unit.
  */
 import type { MathNode } from 'mathjs';
-import { formatValue, type FormatContext } from './format';
+import { formatValue, texKey, type FormatContext } from './format';
 
 const GREEK = new Set([
   'alpha',
@@ -128,9 +128,38 @@ export function substitutionTex(
   return parenthesize(v, latex, ctx as TexContext);
 }
 
+function objectTex(n: MathNode, options: object): string {
+  const props = (n as unknown as { properties: Record<string, MathNode> }).properties;
+  const entries = Object.entries(props).map(
+    ([key, value]) => `${texKey(key)}{:}\\,${value.toTex({ ...options })}`,
+  );
+  return `\\{${entries.join(',\\allowbreak\\ ')}\\}`;
+}
+
 /** LaTeX of an expression, with names or (when `substitute`) values. */
 export function expressionTex(node: MathNode, ctx: TexContext): string {
   const handler = (n: MathNode, options: object): string | undefined => {
+    // A quoted word ("pinned-pinned") stays a word: upright, its hyphen not a minus sign.
+    if (
+      n.type === 'ConstantNode' &&
+      typeof (n as unknown as { value: unknown }).value === 'string'
+    ) {
+      const text = (n as unknown as { value: string }).value.replace(/[\\{}$&#^_%~]/g, ' ');
+      return ` \\text{“${text}”}`;
+    }
+    // An object argument ({E: E, I: I_v, …}) as it is written, not as a table; plain braces
+    // and \\allowbreak after each entry so a long call wraps in a narrow column.
+    if (n.type === 'ObjectNode') return ` ${objectTex(n, options)}`;
+    if (n.type === 'FunctionNode') {
+      const call = n as unknown as { fn: MathNode; args: MathNode[] };
+      if (call.fn.type === 'SymbolNode' && call.args.some((a) => a.type === 'ObjectNode')) {
+        const fname = (call.fn as unknown as { name: string }).name.replace(/_/g, '\\_');
+        const args = call.args.map((a) =>
+          a.type === 'ObjectNode' ? objectTex(a, options) : a.toTex({ ...options }),
+        );
+        return ` \\mathrm{${fname}}(${args.join(',\\allowbreak\\ ')})`;
+      }
+    }
     if (n.type === 'SymbolNode') {
       const name = (n as unknown as { name: string }).name;
       if (ctx.scope.has(name)) {

@@ -109,6 +109,11 @@ export interface CriterionResult {
   /** For comparisons: both sides in display form. */
   lhs: string | null;
   rhs: string | null;
+  /**
+   * For criteria joined with and / or / not: the expression with each comparison's sides in
+   * display form (`0.6546 <= 0.5 or 0.6546 >= 1.5`); absent on results stored before 0.4.1.
+   */
+  values?: string | null;
   latex: string;
 }
 

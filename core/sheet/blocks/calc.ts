@@ -131,7 +131,9 @@ export function evaluateCalcLine(
       ? `${latexName(name)}=${expressionTex(rhs, formulaTex.tex)}`
       : expressionTex(node, formulaTex.tex);
   let substituted: string | null = null;
-  if (node.type !== 'FunctionAssignmentNode') {
+  // A plain reference (`T_1 = sway.T[1]`) has nothing to substitute: its value is the result.
+  const reference = rhs.type === 'SymbolNode' || rhs.type === 'AccessorNode';
+  if (node.type !== 'FunctionAssignmentNode' && !reference) {
     const sub = texTools(ctx, rhs, name, true);
     const t = expressionTex(rhs, sub.tex);
     substituted = sub.substituted.any ? t : null;

@@ -28,6 +28,50 @@ function sideDisplay(ctx: EvalContext, node: MathNode): string | null {
   }
 }
 
+const SYMBOLS: Record<string, string> = {
+  larger: '>',
+  smaller: '<',
+  largerEq: '>=',
+  smallerEq: '<=',
+  equal: '==',
+  unequal: '!=',
+};
+const LOGICAL = new Set(['and', 'or', 'xor']);
+
+/**
+ * A compound criterion with every comparison's sides as values, or null when a part cannot be
+ * shown (then the label and pass/fail stand alone).
+ */
+function compoundDisplay(ctx: EvalContext, node: MathNode): string | null {
+  const op = node as unknown as {
+    type: string;
+    fn?: string;
+    args?: MathNode[];
+    content?: MathNode;
+  };
+  if (op.type === 'ParenthesisNode' && op.content) {
+    const inner = compoundDisplay(ctx, op.content);
+    return inner === null ? null : `(${inner})`;
+  }
+  if (op.type === 'OperatorNode' && op.fn && op.args) {
+    if (SYMBOLS[op.fn] && op.args.length === 2) {
+      const a = sideDisplay(ctx, op.args[0]!);
+      const b = sideDisplay(ctx, op.args[1]!);
+      return a === null || b === null ? null : `${a} ${SYMBOLS[op.fn]} ${b}`;
+    }
+    if (LOGICAL.has(op.fn) && op.args.length === 2) {
+      const a = compoundDisplay(ctx, op.args[0]!);
+      const b = compoundDisplay(ctx, op.args[1]!);
+      return a === null || b === null ? null : `${a} ${op.fn} ${b}`;
+    }
+    if (op.fn === 'not' && op.args.length === 1) {
+      const a = compoundDisplay(ctx, op.args[0]!);
+      return a === null ? null : `not ${a}`;
+    }
+  }
+  return sideDisplay(ctx, node);
+}
+
 export function evaluateCriterion(
   ctx: EvalContext,
   code: string,
@@ -61,6 +105,10 @@ export function evaluateCriterion(
     lhs = sideDisplay(ctx, op.args[0]!);
     rhs = sideDisplay(ctx, op.args[1]!);
   }
+  const compound =
+    op.type === 'ParenthesisNode' ||
+    (op.type === 'OperatorNode' && !!op.fn && (LOGICAL.has(op.fn) || op.fn === 'not'));
+  const values = compound ? compoundDisplay(ctx, node) : null;
   const latex = expressionTex(node, {
     scope: ctx.scope,
     format: formatContext(ctx, null, writtenUnits(ctx, node)),
@@ -76,6 +124,7 @@ export function evaluateCriterion(
     pass: value,
     lhs,
     rhs,
+    values,
     latex,
   };
 }

@@ -1,3 +1,4 @@
+import katex from 'katex';
 import { describe, expect, it } from 'vitest';
 import { evaluateSheet, latexName, type CalcBlockResult, type Sheet } from '../../../core/index';
 
@@ -206,6 +207,32 @@ describe('calc blocks: values and units', () => {
     expect(l.latex.result).toBe('5.812\\,\\mathrm{Hz}');
     // A product keeps a space between \cdot and the next name so the LaTeX stays valid.
     expect(calc('a = 2\nb = 3 a').line(2)!.latex.formula).not.toMatch(/\\cdot[a-z]/);
+  });
+
+  it('writes a generator call on one line and its model as a short summary', () => {
+    const { line } = calc(
+      'E = 210 GPa\nI_v = 0.052 m^4\nL = 31.5 m\nm = 2.9 t/m\n' +
+        'deck = beam({E: E, I: I_v, mass: m, length: L, elements: 4, ends: "pinned-pinned"})',
+    );
+    const l = line(5)!;
+    // The object argument as written, not as a two-column table; the word keeps its hyphen.
+    expect(l.latex.formula).not.toContain('\\begin');
+    expect(l.latex.formula).toContain('\\mathrm{E}{:}');
+    expect(l.latex.formula).toContain('\\text{“pinned-pinned”}');
+    expect(l.latex.substituted).toContain('210\\,\\mathrm{GPa}');
+    // 4 elements, pinned at both ends: 5 nodes × (w, θ) = 10 DOFs less the 2 pinned w = 8
+    // (Hermite beam elements, common practice).
+    expect(l.latex.result).toContain('\\mathrm{K}\\;[8\\times8]');
+    expect(l.latex.result).toContain('\\mathrm{n}=8');
+    for (const tex of [l.latex.formula, l.latex.substituted!, l.latex.result]) {
+      expect(() => katex.renderToString(tex, { throwOnError: true })).not.toThrow();
+    }
+  });
+
+  it('shows no substituted form for a plain reference', () => {
+    const { line } = calc('f = 4 Hz\ng = f');
+    expect(line(2)!.latex.substituted).toBeNull();
+    expect(line(2)!.latex.result).toBe('4\\,\\mathrm{Hz}');
   });
 
   it('renders engineering names', () => {

@@ -45,6 +45,20 @@ describe('criteria blocks', () => {
     expect(r.errors[0]!.message).toMatch(/not true or false: it gives 8 Hz/);
   });
 
+  it('shows the values of each comparison of a criterion joined with or / and', () => {
+    // r = 24.2 Hz / 24.75 Hz = 0.9778: neither below 0.5 nor above 1.5 (fails); within 0.9–1.1.
+    const r = sheet(
+      'r = 24.2 Hz / (1485 rpm)',
+      'r <= 0.5 or r >= 1.5  # away from resonance\n(r > 0.9) and not (r > 1.1)',
+    );
+    const [a, b] = (r.blocks[1] as CriteriaBlockResult).criteria;
+    expect(a!.pass).toBe(false);
+    expect([a!.lhs, a!.rhs]).toEqual([null, null]);
+    expect(a!.values).toBe('0.9778 <= 0.5 or 0.9778 >= 1.5');
+    expect(b!.pass).toBe(true);
+    expect(b!.values).toBe('(0.9778 > 0.9) and not (0.9778 > 1.1)');
+  });
+
   it('refuses an assignment', () => {
     const r = sheet('f = 4 Hz', 'g = f > 3 Hz');
     expect(r.errors[0]!.message).toMatch(/cannot define a name/);

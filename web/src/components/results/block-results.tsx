@@ -7,6 +7,7 @@ import type {
   MatrixBlockResult,
   ModesBlockResult,
 } from '../../../../core/index';
+import { participationFactor, percent, sig } from '../../lib/format';
 import { handParts } from './hand-parts';
 import { ModesWarnings } from './modes-warnings';
 import { Tex } from './tex';
@@ -43,13 +44,15 @@ function Criteria({ result }: { result: CriteriaBlockResult }) {
               c.pass ? 'border-pass bg-pass-soft text-pass' : 'border-fail bg-fail-soft text-fail'
             }`}
           >
-            {c.pass ? 'Passes' : 'Fails'}
+            {c.pass ? 'Passed' : 'Failed'}
           </span>
           <span>{c.label}</span>
           {c.lhs !== null && c.rhs !== null ? (
             <span className="font-mono text-xs text-ink-soft">
               {c.lhs} vs {c.rhs}
             </span>
+          ) : c.values ? (
+            <span className="font-mono text-xs text-ink-soft">{c.values}</span>
           ) : null}
         </li>
       ))}
@@ -71,13 +74,6 @@ function Matrix({ result }: { result: MatrixBlockResult }) {
   );
 }
 
-/** A ratio 0–1 as a percentage with one decimal, as the editor shows it. */
-const percent = (x: number | null) =>
-  x === null || !Number.isFinite(x) ? '—' : `${(x * 100).toFixed(1)} %`;
-
-const fmt = (x: number | null, digits = 4) =>
-  x === null || !Number.isFinite(x) ? '—' : Number(x.toPrecision(digits)).toString();
-
 function Modes({ result }: { result: ModesBlockResult }) {
   return (
     <div className="overflow-x-auto">
@@ -87,18 +83,36 @@ function Modes({ result }: { result: ModesBlockResult }) {
             <th className="py-1 pr-3">Mode</th>
             <th className="py-1 pr-3">f (Hz)</th>
             <th className="py-1 pr-3">T (s)</th>
+            <th className="py-1 pr-3">ω (rad/s)</th>
+            <th
+              className="py-1 pr-3"
+              title="Participation factor φᵀMr, with φ mass-normalized (φᵀMφ = 1 kg)"
+            >
+              Γ (√kg)
+            </th>
             <th className="py-1 pr-3">Eff. mass</th>
             <th className="py-1 pr-3">Cumulative</th>
+            <th className="py-1 pr-3">Backward error</th>
           </tr>
         </thead>
         <tbody>
           {result.modes.map((m) => (
             <tr key={m.mode} className="border-b border-rule/60 font-mono text-xs">
               <td className="py-1 pr-3">{m.mode}</td>
-              <td className="py-1 pr-3">{fmt(m.frequency)}</td>
-              <td className="py-1 pr-3">{fmt(m.period)}</td>
+              <td className="py-1 pr-3">{sig(m.frequency)}</td>
+              <td className="py-1 pr-3">{sig(m.period)}</td>
+              <td className="py-1 pr-3">{sig(m.omega)}</td>
+              <td className="py-1 pr-3">
+                {participationFactor(
+                  m.gamma,
+                  result.modes.map((o) => o.gamma),
+                )}
+              </td>
               <td className="py-1 pr-3">{percent(m.ratio)}</td>
               <td className="py-1 pr-3">{percent(m.cumulative)}</td>
+              <td className="py-1 pr-3">
+                {m.backwardError === null ? '—' : m.backwardError.toExponential(1)}
+              </td>
             </tr>
           ))}
         </tbody>

@@ -21,6 +21,8 @@ export function CriteriaResult({ result }: { result: CriteriaBlockResult }) {
             <span className="num shrink-0 text-xs text-ink-soft">
               {c.lhs} vs {c.rhs}
             </span>
+          ) : c.values ? (
+            <span className="num shrink-0 text-xs text-ink-soft">{c.values}</span>
           ) : null}
         </li>
       ))}

@@ -1,5 +1,5 @@
 import type { MatrixBlockResult } from '../api/results';
-import { sig } from '../lib/format';
+import { sig } from '../../../lib/format';
 
 const PREVIEW = 6;
 

@@ -2,7 +2,7 @@ import { lazy, Suspense } from 'react';
 import type { ModesBlockResult } from '../api/results';
 import { ModesWarnings } from '../../../components/results';
 import { Table, Td, Th } from '../../../components/ui/table';
-import { percent, sig } from '../lib/format';
+import { participationFactor, percent, sig } from '../../../lib/format';
 import { Spinner } from '../../../components/ui/spinner';
 
 // The charts library is the largest part of the editor: fetched when the first plot is drawn, so a
@@ -46,8 +46,12 @@ export function ModesResult({ result, digits }: { result: ModesBlockResult; digi
               <Th caps={false} className="text-right">
                 ω (rad/s)
               </Th>
-              <Th caps={false} className="text-right">
-                Γ
+              <Th
+                caps={false}
+                className="text-right"
+                title="Participation factor φᵀMr, with φ mass-normalized (φᵀMφ = 1 kg)"
+              >
+                Γ (√kg)
               </Th>
               <Th caps={false} className="text-right">
                 Eff. mass
@@ -70,7 +74,13 @@ export function ModesResult({ result, digits }: { result: ModesBlockResult; digi
                 <Td className="py-1 text-right">{sig(m.frequency, digits)}</Td>
                 <Td className="py-1 text-right">{sig(m.period, digits)}</Td>
                 <Td className="py-1 text-right">{sig(m.omega, digits)}</Td>
-                <Td className="py-1 text-right">{sig(m.gamma, digits)}</Td>
+                <Td className="py-1 text-right">
+                  {participationFactor(
+                    m.gamma,
+                    result.modes.map((o) => o.gamma),
+                    digits,
+                  )}
+                </Td>
                 <Td className="py-1 text-right">{percent(m.ratio)}</Td>
                 <Td className="py-1 text-right">{percent(m.cumulative)}</Td>
                 <Td className="py-1 text-right">
