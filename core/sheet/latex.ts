@@ -203,5 +203,5 @@ export function expressionTex(node: MathNode, ctx: TexContext): string {
     }
     return undefined;
   };
-  return node.toTex({ handler, implicit: 'hide' } as object);
+  return node.toTex({ handler, implicit: 'hide', parenthesis: 'auto' } as object);
 }

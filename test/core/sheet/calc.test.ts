@@ -205,6 +205,8 @@ describe('calc blocks: values and units', () => {
     expect(l.latex.substituted).toContain('24\\,\\mathrm{kN}/\\mathrm{mm}');
     expect(l.latex.substituted).toContain('18\\,\\mathrm{t}');
     expect(l.latex.result).toBe('5.812\\,\\mathrm{Hz}');
+    // Parentheses that a fraction bar makes redundant are not written: ÷ (2π) is a plain 2π.
+    expect(l.latex.formula).not.toContain('\\left(');
     // A product keeps a space between \cdot and the next name so the LaTeX stays valid.
     expect(calc('a = 2\nb = 3 a').line(2)!.latex.formula).not.toMatch(/\\cdot[a-z]/);
   });
