@@ -138,6 +138,13 @@ start() {
   flock -w 120 9 || die "another db.sh has held $LOCK_FILE for 2 minutes; is it stuck?"
 
   if ping_db; then
+    # One data directory has one server: if it listens on another port, say so rather than
+    # report success on a port where nothing answers.
+    local running
+    running="$(mariadb --no-defaults --socket="$SOCK" --user=root -N -B -e 'SELECT @@port' 2>/dev/null || true)"
+    if [[ -n "$running" && "$running" != "$PORT" ]]; then
+      die "the MariaDB of $DB_DIR is already running on 127.0.0.1:$running, not $PORT: stop it with 'MW_DB_PORT=$running npm run db:stop', or use MW_DB_PORT=$running (or another MW_DATA_DIR)"
+    fi
     bootstrap_sql
     touch "$MARKER"
     say "MariaDB already running on 127.0.0.1:$PORT (data: $DB_DIR)"

@@ -118,6 +118,14 @@ describe('scripts/db.sh', () => {
     expect(serverPid()).toBe(pid);
   });
 
+  it('refuses to start on a second port while its data directory is served on another', async () => {
+    const other = await freePort();
+    const res = await dbsh('start', { MW_DB_PORT: String(other) });
+    expect(res.code).not.toBe(0);
+    expect(res.stderr.trim()).toContain(`already running on 127.0.0.1:${port}, not ${other}`);
+    expect(res.stderr).toContain(`MW_DB_PORT=${port} npm run db:stop`);
+  });
+
   it('stops, and says so when already stopped', async () => {
     const stop = await dbsh('stop');
     expect(stop.code, stop.stderr).toBe(0);

@@ -111,9 +111,25 @@ describe('mail on each transition (outbox transport)', () => {
 });
 
 describe('GET /api/outbox', () => {
-  it('is for administrators only', async () => {
-    expect((await author.get('/api/outbox')).status).toBe(403);
+  it('gives an administrator all mail and everyone else only the mail sent to them', async () => {
     expect((await (await anonymous(t.app)).get('/api/outbox')).status).toBe(401);
+    const all = await admin.get(`/api/outbox?sheetId=${sheetId}`);
+    expect(all.body.scope).toBe('all');
+    expect(all.body.messages).toHaveLength(6);
+    // The author was written to on the remark, the return and the seal (the test above).
+    for (const [client, email, count] of [
+      [author, team.author.email, 3],
+      [checker, team.checker.email, 3],
+      [principal, team.principal.email, 2],
+    ] as const) {
+      const res = await client.get(`/api/outbox?sheetId=${sheetId}`);
+      expect(res.status).toBe(200);
+      expect(res.body.scope).toBe('mine');
+      expect(res.body.messages).toHaveLength(count);
+      for (const m of res.body.messages as Message[]) {
+        expect(m.to.map((a) => a.toLowerCase())).toContain(email.toLowerCase());
+      }
+    }
   });
 
   it('refuses a bad filter naming the field', async () => {

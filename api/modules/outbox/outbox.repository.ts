@@ -62,7 +62,7 @@ export const outboxRepository = {
 
   async list(
     db: DbOrTx,
-    filter: { relatedSheetId?: number; limit: number },
+    filter: { relatedSheetId?: number; recipient?: string; limit: number },
   ): Promise<OutboxMessage[]> {
     const q = db<OutboxRow>('outbox')
       .select(
@@ -79,6 +79,10 @@ export const outboxRepository = {
       .orderBy('id', 'desc')
       .limit(filter.limit);
     if (filter.relatedSheetId !== undefined) q.where('related_sheet_id', filter.relatedSheetId);
+    // to_addresses is the comma-joined list; addresses compare without regard to case.
+    if (filter.recipient !== undefined) {
+      q.whereRaw('FIND_IN_SET(LOWER(?), LOWER(to_addresses)) > 0', [filter.recipient]);
+    }
     const rows = (await q) as OutboxRow[];
     return rows.map(toMessage);
   },

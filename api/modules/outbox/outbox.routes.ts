@@ -1,6 +1,6 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { requireAdmin } from '../../http/auth';
+import { currentUser, requireSignedIn } from '../../http/auth';
 import type { AppContext } from '../../http/context';
 import { parse } from '../../http/validate';
 import { outboxService } from './outbox.service';
@@ -15,12 +15,20 @@ const outboxQuery = z.object({
     .optional(),
 });
 
-/** Mounted at /api/outbox (admin): the mail the local fake transport kept, newest first. */
+/**
+ * Mounted at /api/outbox: the mail the local fake transport kept, newest first. An administrator
+ * reads all of it (`scope: "all"`); everyone else the messages addressed to them (`"mine"`).
+ */
 export function createOutboxRouter({ db }: AppContext): Router {
   const router = Router();
-  router.get('/', requireAdmin, async (req, res) => {
+  router.get('/', requireSignedIn, async (req, res) => {
+    const user = currentUser(req);
     const q = parse(outboxQuery, req.query, 'query');
-    res.json({ messages: await outboxService.list(db, q) });
+    const recipient = user.isAdmin ? undefined : user.email;
+    res.json({
+      scope: recipient === undefined ? 'all' : 'mine',
+      messages: await outboxService.list(db, { ...q, ...(recipient ? { recipient } : {}) }),
+    });
   });
   return router;
 }

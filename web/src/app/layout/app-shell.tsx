@@ -40,11 +40,9 @@ export function AppShell({ user, children }: { user: User; children: ReactNode }
                   Admin
                 </NavLink>
               ) : null}
-              {user.isAdmin ? (
-                <NavLink to={paths.outbox.href()} className={navClass}>
-                  Outbox
-                </NavLink>
-              ) : null}
+              <NavLink to={paths.outbox.href()} className={navClass}>
+                {user.isAdmin ? 'Outbox' : 'Mail'}
+              </NavLink>
             </nav>
           </div>
           <div className="flex items-center gap-3">

@@ -10,8 +10,14 @@ export type OutboxMessage = {
   relatedSheetId: number | null;
 };
 
-export async function getOutbox(): Promise<OutboxMessage[]> {
-  return (await api.get<{ messages: OutboxMessage[] }>('/api/outbox')).messages;
+export type Outbox = {
+  /** `all` for an administrator; `mine` for everyone else (the mail addressed to them). */
+  scope: 'all' | 'mine';
+  messages: OutboxMessage[];
+};
+
+export async function getOutbox(): Promise<Outbox> {
+  return api.get<Outbox>('/api/outbox');
 }
 
 export const getOutboxQueryOptions = () =>

@@ -7,7 +7,10 @@ import { useOutbox } from '../api/get-outbox';
 
 const recipients = (to: string[] | string) => (Array.isArray(to) ? to.join(', ') : to);
 
-/** The mail the local fake transport kept (no SMTP configured), newest first. */
+/**
+ * The mail the local fake transport kept (no SMTP configured), newest first: all of it for an
+ * administrator, the messages addressed to the signed-in person for everyone else.
+ */
 export function OutboxList() {
   const id = useId();
   const outbox = useOutbox();
@@ -18,7 +21,8 @@ export function OutboxList() {
     return <QueryError what="the outbox" error={outbox.error} onRetry={() => outbox.refetch()} />;
   }
   const words = filter.trim().toLowerCase();
-  const shown = outbox.data.filter(
+  const mine = outbox.data.scope === 'mine';
+  const shown = outbox.data.messages.filter(
     (m) =>
       !words ||
       m.subject.toLowerCase().includes(words) ||
@@ -37,7 +41,17 @@ export function OutboxList() {
           className="rounded-sm border border-rule-strong bg-paper-sheet px-2.5 py-1.5"
         />
       </div>
-      {shown.length === 0 ? <EmptyState title="No messages" /> : null}
+      {shown.length === 0 ? (
+        <EmptyState
+          title={
+            outbox.data.messages.length === 0
+              ? mine
+                ? 'No mail for you yet'
+                : 'No messages'
+              : 'No message matches the filter'
+          }
+        />
+      ) : null}
       <ol aria-label="Messages" className="flex flex-col">
         {shown.map((m) => (
           <li key={m.id} className="border-b border-rule py-2 text-sm last:border-b-0">

@@ -1,0 +1,70 @@
+// Browser: with no mail server configured, everyone reads the mail sent to them on the Mail
+// page (the demo checker has the issue of each revision for check), and the admin's Outbox shows
+// every message of the installation.
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import {
+  demoPeople,
+  launchBrowser,
+  saveScreenshot,
+  signInAs,
+  type BrowserSession,
+} from '../support/browser';
+
+describe('mail (browser)', () => {
+  let session: BrowserSession;
+
+  beforeAll(async () => {
+    session = await launchBrowser();
+  });
+  beforeEach(async () => {
+    await session.signOutLocally();
+  });
+  afterAll(async () => {
+    await session?.close();
+  });
+
+  it('shows the checker the messages addressed to them, and only those', async () => {
+    const { page } = session;
+    await signInAs(page, demoPeople.tomasz);
+    await page
+      .getByRole('navigation', { name: 'Main' })
+      .getByRole('link', { name: 'Mail' })
+      .click();
+    await page.getByRole('heading', { name: 'Your mail' }).waitFor();
+    await page.getByText(`The messages sent to ${demoPeople.tomasz.email}.`).waitFor();
+    const list = page.getByRole('list', { name: 'Messages' });
+    await list
+      .getByRole('button', { name: /issued for check/ })
+      .first()
+      .waitFor();
+    const items = list.getByRole('listitem');
+    const count = await items.count();
+    expect(count).toBeGreaterThan(0);
+    for (let i = 0; i < count; i++) {
+      expect(await items.nth(i).innerText()).toContain(demoPeople.tomasz.email);
+    }
+    // A message opens to its text, which carries the engineering caution (DESIGN §12).
+    await list
+      .getByRole('button', { name: /issued for check/ })
+      .first()
+      .click();
+    await list
+      .getByText(/verified by a qualified engineer/)
+      .first()
+      .waitFor();
+    await saveScreenshot(page, 'mail-checker');
+  });
+
+  it("gives the admin every message under Outbox, the author's among them", async () => {
+    const { page } = session;
+    await signInAs(page, demoPeople.ada);
+    await page
+      .getByRole('navigation', { name: 'Main' })
+      .getByRole('link', { name: 'Outbox' })
+      .click();
+    await page.getByRole('heading', { name: 'Outbox' }).waitFor();
+    const list = page.getByRole('list', { name: 'Messages' });
+    await list.getByText(demoPeople.ines.email).first().waitFor();
+    await list.getByText(demoPeople.tomasz.email).first().waitFor();
+  });
+});
