@@ -116,6 +116,10 @@ describe('GET /api/outbox', () => {
     const all = await admin.get(`/api/outbox?sheetId=${sheetId}`);
     expect(all.body.scope).toBe('all');
     expect(all.body.messages).toHaveLength(6);
+    // Each names the sheet and its project, so the reader can open it.
+    for (const m of all.body.messages) {
+      expect(m).toMatchObject({ relatedSheetId: sheetId, relatedProjectId: team.project.id });
+    }
     // The author was written to on the remark, the return and the seal (the test above).
     for (const [client, email, count] of [
       [author, team.author.email, 3],

@@ -53,6 +53,9 @@ describe('mail (browser)', () => {
       .first()
       .waitFor();
     await saveScreenshot(page, 'mail-checker');
+    // …and links to the sheet it is about.
+    await list.getByRole('link', { name: 'Open the sheet' }).first().click();
+    await page.waitForURL(/\/projects\/\d+\/sheets\/\d+$/);
   });
 
   it("gives the admin every message under Outbox, the author's among them", async () => {

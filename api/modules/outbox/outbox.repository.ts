@@ -9,6 +9,8 @@ export interface OutboxMessage {
   kind: string | null;
   createdAt: string;
   relatedSheetId: number | null;
+  /** The project of the related sheet, so a reader can open it. */
+  relatedProjectId: number | null;
 }
 
 export interface NewOutboxMessage {
@@ -30,6 +32,7 @@ interface OutboxRow {
   kind: string | null;
   created_at: Date;
   related_sheet_id: number | null;
+  related_project_id: number | null;
 }
 
 function toMessage(row: OutboxRow): OutboxMessage {
@@ -42,6 +45,7 @@ function toMessage(row: OutboxRow): OutboxMessage {
     kind: row.kind,
     createdAt: new Date(row.created_at).toISOString(),
     relatedSheetId: row.related_sheet_id,
+    relatedProjectId: row.related_project_id,
   };
 }
 
@@ -65,23 +69,27 @@ export const outboxRepository = {
     filter: { relatedSheetId?: number; recipient?: string; limit: number },
   ): Promise<OutboxMessage[]> {
     const q = db<OutboxRow>('outbox')
+      .leftJoin('sheets', 'sheets.id', 'outbox.related_sheet_id')
       .select(
-        'id',
-        'from_address',
-        'to_addresses',
-        'subject',
-        'text',
-        'kind',
-        'created_at',
-        'related_sheet_id',
+        'outbox.id',
+        'outbox.from_address',
+        'outbox.to_addresses',
+        'outbox.subject',
+        'outbox.text',
+        'outbox.kind',
+        'outbox.created_at',
+        'outbox.related_sheet_id',
+        'sheets.project_id as related_project_id',
       )
-      .orderBy('created_at', 'desc')
-      .orderBy('id', 'desc')
+      .orderBy('outbox.created_at', 'desc')
+      .orderBy('outbox.id', 'desc')
       .limit(filter.limit);
-    if (filter.relatedSheetId !== undefined) q.where('related_sheet_id', filter.relatedSheetId);
+    if (filter.relatedSheetId !== undefined) {
+      q.where('outbox.related_sheet_id', filter.relatedSheetId);
+    }
     // to_addresses is the comma-joined list; addresses compare without regard to case.
     if (filter.recipient !== undefined) {
-      q.whereRaw('FIND_IN_SET(LOWER(?), LOWER(to_addresses)) > 0', [filter.recipient]);
+      q.whereRaw('FIND_IN_SET(LOWER(?), LOWER(outbox.to_addresses)) > 0', [filter.recipient]);
     }
     const rows = (await q) as OutboxRow[];
     return rows.map(toMessage);

@@ -8,6 +8,7 @@ export type OutboxMessage = {
   text: string;
   createdAt: string;
   relatedSheetId: number | null;
+  relatedProjectId: number | null;
 };
 
 export type Outbox = {

@@ -1,4 +1,6 @@
 import { useId, useState } from 'react';
+import { Link } from 'react-router-dom';
+import { paths } from '../../../config/paths';
 import { QueryError } from '../../../components/ui/alert';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { Spinner } from '../../../components/ui/spinner';
@@ -68,9 +70,17 @@ export function OutboxList() {
               <span className="font-medium text-ink">{m.subject}</span>
             </button>
             {openId === m.id ? (
-              <pre className="mt-2 rounded-sm bg-paper-deep p-3 font-sans text-sm whitespace-pre-wrap">
-                {m.text}
-              </pre>
+              <div className="mt-2 rounded-sm bg-paper-deep p-3">
+                <pre className="font-sans text-sm whitespace-pre-wrap">{m.text}</pre>
+                {m.relatedSheetId !== null && m.relatedProjectId !== null ? (
+                  <Link
+                    to={paths.sheet.href(m.relatedProjectId, m.relatedSheetId)}
+                    className="mt-2 inline-block text-sm font-medium text-accent-strong hover:underline"
+                  >
+                    Open the sheet
+                  </Link>
+                ) : null}
+              </div>
             ) : null}
           </li>
         ))}
