@@ -14,7 +14,15 @@ import {
   signInAs,
   type BrowserSession,
 } from '../support/browser';
-import { addBlock, newSheet, RUN, setSource, waitForResults, waitSaved } from './editor-helpers';
+import {
+  addBlock,
+  block,
+  newSheet,
+  RUN,
+  setSource,
+  waitForResults,
+  waitSaved,
+} from './editor-helpers';
 
 // A single-degree-of-freedom oscillator: f = √(k/m) / 2π (closed form, any dynamics text).
 const K = 2000; // kN/m
@@ -132,6 +140,17 @@ describe('review and seal, the whole flow (browser)', () => {
       if (!(await returned.isVisible())) await page.reload();
     }
     await returned.waitFor();
+    // Above the draft: the remark to act on, which puts the cursor on its line in the editor.
+    const toDo = page.getByRole('region', { name: 'Remarks to act on' });
+    await toDo.getByText('State the mass used: is the skid base included?').waitFor();
+    await toDo.getByText(/Rev 1 was returned with 1 remark not closed/).waitFor();
+    await toDo
+      .getByRole('button', { name: `Go to Block ${calc} (calc), line 3 in the draft` })
+      .click();
+    await expect
+      .poll(() => block(page, calc, 'calc').locator('.cm-activeLine').innerText())
+      .toBe(REV1.split('\n')[2]);
+    await saveScreenshot(page, 'review-3b-remarks-to-act-on');
     await setSource(page, calc, 'calc', REV2);
     await waitForResults(page);
     await waitSaved(page);

@@ -12,6 +12,7 @@ import { useSheetActivity } from '../api/get-sheet-activity';
 import { useSheetReview } from '../api/get-sheet-review';
 import { useIssueRevision } from '../api/revision-mutations';
 import { REVISION_STATUS_LABELS } from '../api/types';
+import { DraftRemarks } from './draft-remarks';
 
 const ISSUABLE = new Set(['draft', 'returned', 'sealed']);
 
@@ -64,6 +65,11 @@ export function IssueForCheck({
         )}
         {canIssue && !open ? <Button onClick={() => setOpen(true)}>Issue for check</Button> : null}
       </div>
+      {s.latestRevision &&
+      s.myRoles.includes('author') &&
+      (s.latestRevision.status === 'returned' || s.latestRevision.status === 'in_check') ? (
+        <DraftRemarks revision={s.latestRevision} revisionHref={revisionHref} />
+      ) : null}
       {open ? (
         <form
           onSubmit={submit}
