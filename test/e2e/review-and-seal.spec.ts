@@ -196,6 +196,10 @@ describe('review and seal, the whole flow (browser)', () => {
     await expect.poll(() => status(page).innerText(), { timeout: 60_000 }).toBe('Sealed');
     sealCode = (await page.getByTestId('seal-code').innerText()).trim();
     expect(sealCode).toMatch(/\S{6,}/);
+    // The code links to its public verification.
+    expect(await page.getByRole('link', { name: 'verify', exact: true }).getAttribute('href')).toBe(
+      `/verify/${sealCode}`,
+    );
     await saveScreenshot(page, 'review-6-sealed');
   });
 

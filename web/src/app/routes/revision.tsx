@@ -21,7 +21,12 @@ export function RevisionRoute() {
     <RevisionView
       revisionId={revisionId}
       user={user}
-      links={{ sheet: paths.sheet.href, print: paths.print.href, compare: paths.compare.href }}
+      links={{
+        sheet: paths.sheet.href,
+        print: paths.print.href,
+        compare: paths.compare.href,
+        verify: (code) => paths.verify.href(code),
+      }}
       // only a principal of the project has a seal action; for everyone else the panel stays away
       sealAction={(rev) =>
         rev.myRoles.includes('principal') ? (

@@ -29,6 +29,7 @@ export type RevisionLinks = {
   sheet: (projectId: number, sheetId: number) => string;
   print: (revisionId: number) => string;
   compare: (sheetId: number, from: number, to: number | 'draft') => string;
+  verify: (code: string) => string;
 };
 
 const blockLabel = (index: number, kind: string) => `Block ${index + 1} (${kind})`;
@@ -87,7 +88,7 @@ export function RevisionView({
           </Link>
         )}
       </nav>
-      <RevisionHeader rev={rev} />
+      <RevisionHeader rev={rev} links={links} />
       <ReviewActions
         rev={rev}
         isChecker={isChecker}
@@ -125,7 +126,7 @@ function CompareLink({ rev, links }: { rev: RevisionDetail; links: RevisionLinks
   );
 }
 
-function RevisionHeader({ rev }: { rev: RevisionDetail }) {
+function RevisionHeader({ rev, links }: { rev: RevisionDetail; links: RevisionLinks }) {
   return (
     <header className="rounded-sm border border-rule bg-paper-sheet px-5 py-4 shadow-sheet">
       <p className="text-xs tracking-wide text-ink-soft uppercase">
@@ -175,7 +176,12 @@ function RevisionHeader({ rev }: { rev: RevisionDetail }) {
               {formatUtc(rev.seal.sealedAt)}, code{' '}
               <span className="font-mono" data-testid="seal-code">
                 {rev.seal.code}
-              </span>
+              </span>{' '}
+              (
+              <Link to={links.verify(rev.seal.code)} className="text-accent-strong hover:underline">
+                verify
+              </Link>
+              )
             </dd>
           </div>
         ) : null}

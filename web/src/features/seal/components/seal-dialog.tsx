@@ -66,8 +66,9 @@ export function SealDialog({
     <form
       onSubmit={submit}
       aria-label={`Seal Rev ${revisionNumber}`}
-      className="flex max-w-xl flex-col gap-2 border-t border-rule pt-2"
+      className="flex max-w-xl flex-col gap-2"
     >
+      <h3 className="text-sm font-semibold text-ink">Seal Rev {revisionNumber}</h3>
       <p className="text-sm text-ink-soft">
         Sealing states that you, as principal, take responsibility for Rev {revisionNumber}. Type
         your password again: it unlocks your signing key. The server first evaluates the revision
