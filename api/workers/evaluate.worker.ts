@@ -76,7 +76,10 @@ export default async function evaluateTask(task: EvaluateTask): Promise<Evaluate
       ...(task.memoryLimitBytes ? { memoryLimitBytes: task.memoryLimitBytes } : {}),
       ...(task.memoryLimitAdvice ? { memoryLimitAdvice: task.memoryLimitAdvice } : {}),
       ...(port
-        ? { onProgress: (progress) => port.postMessage({ type: 'progress', progress }) }
+        ? {
+            onProgress: (progress) => port.postMessage({ type: 'progress', progress }),
+            now: () => Date.now(),
+          }
         : {}),
     });
     return { ok: true, results };

@@ -224,18 +224,31 @@ export interface SheetResults {
   summary: { passed: number; failed: number; errors: number };
 }
 
-/** Progress of an evaluation, reported block by block. */
+/**
+ * Progress of an evaluation: reported as each block starts and, while a modes block solves, from
+ * the eigen solver (throttled by EvaluateOptions.now when given), with its stage and modes converged.
+ */
 export interface SheetProgress {
   blockIndex: number;
   blockId: string;
   blockCount: number;
   kind: BlockKind;
   message: string;
+  /** While a modes block solves: the method's stage, e.g. "inverse iteration". */
+  stage?: string;
+  iteration?: number;
+  modesConverged?: number;
+  modesWanted?: number;
 }
 
 export interface EvaluateOptions {
   uploads?: SheetUpload[];
   onProgress?: (progress: SheetProgress) => void;
+  /**
+   * A clock in milliseconds (core has none of its own): with it, a solve's progress is passed on
+   * at most every PROGRESS_INTERVAL_MS (and on each newly converged mode); without it, every report.
+   */
+  now?: () => number;
   /** Polled between lines; when it returns true evaluation stops with a CANCELLED error. */
   isCancelled?: () => boolean;
   /** Largest matrix a single value may hold (entries). Default 4 000 000. */

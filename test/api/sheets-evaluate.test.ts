@@ -291,6 +291,45 @@ describe('POST /api/sheets/:sheetId/evaluate/stream', () => {
     expect(plain.body.digests.results).toBe(out.digests.results);
   });
 
+  it("streams the solver's progress while a modes block solves", async () => {
+    const sheet = await newSheet();
+    const blocks = [
+      {
+        id: 'g',
+        kind: 'calc',
+        source:
+          'girder = beam({E: 210 GPa, I: 0.02 m^4, mass: 1.5 t/m, length: 60 m, elements: 30, ends: "pinned-pinned"})',
+      },
+      {
+        id: 's',
+        kind: 'modes',
+        source:
+          'name: girder_modes\nstiffness: girder.K\nmass: girder.M\nmethod: inverse\ncount: 4',
+      },
+    ];
+    const res = await author
+      .post(`/api/sheets/${sheet.id}/evaluate/stream`, {
+        blocks,
+        settings: { significantFigures: 4 },
+      })
+      .buffer(true)
+      .parse((response, callback) => {
+        let body = '';
+        response.setEncoding('utf8');
+        response.on('data', (chunk: string) => (body += chunk));
+        response.on('end', () => callback(null, body));
+      });
+    expect(res.status).toBe(200);
+    const solving = parseEvents(res.body as string)
+      .filter((e) => e.event === 'progress')
+      .map((e) => e.data as { stage?: string; modesConverged?: number; fraction: number })
+      .filter((p) => p.stage !== undefined);
+    expect(solving.length).toBeGreaterThanOrEqual(4);
+    expect(solving.at(-1)).toMatchObject({ stage: 'inverse iteration', modesConverged: 4 });
+    // Block 2 of 2 with all four modes converged: the fraction is (1 + 4/4) / 2 = 1.
+    expect(solving.at(-1)!.fraction).toBe(1);
+  });
+
   it('refuses someone outside the project with a plain 403 before the stream opens', async () => {
     const sheet = await newSheet();
     const res = await outsider.post(`/api/sheets/${sheet.id}/evaluate/stream`, {

@@ -6,25 +6,30 @@ import { RUN, addBlock, newSheet, waitSaved, useAuthorBrowser } from './editor-h
 describe('sheet editor: a long solve (browser)', () => {
   const session = useAuthorBrowser();
 
-  // 200 DOFs and 40 modes by inverse iteration with deflation take ~13 s on this machine (2
-  // cores): long enough to cancel, small enough in memory (dense 200 × 200) to harm nothing.
+  // 300 DOFs and 80 modes by inverse iteration with deflation: far longer than the steps below
+  // take (40 modes of 200 DOFs took about 5 s here), small enough in memory (300 × 300) to harm
+  // nothing.
   it('cancels a long solve', async () => {
     const { page } = session();
     await newSheet(page, `E2E-L${RUN}`, 'Long solve');
     await addBlock(
       page,
       'calc',
-      'girder = beam({E: 210 GPa, I: 0.02 m^4, mass: 1.5 t/m, length: 120 m, elements: 100, ends: "pinned-pinned"})',
+      'girder = beam({E: 210 GPa, I: 0.02 m^4, mass: 1.5 t/m, length: 120 m, elements: 150, ends: "pinned-pinned"})',
     );
     await addBlock(
       page,
       'modes',
-      ['name: long', 'stiffness: girder.K', 'mass: girder.M', 'method: inverse', 'count: 40'].join(
+      ['name: long', 'stiffness: girder.K', 'mass: girder.M', 'method: inverse', 'count: 80'].join(
         '\n',
       ),
     );
     const cancel = page.getByRole('button', { name: 'Cancel', exact: true });
     await cancel.waitFor({ timeout: 20_000 });
+    // The solver's own progress: its stage and how many of the 40 modes have converged.
+    await page
+      .getByText(/Solving long \(block 3 of 3\): inverse iteration, \d+ of 80 modes converged/)
+      .waitFor({ timeout: 20_000 });
     await saveScreenshot(page, 'editor-long-solve');
     await cancel.click();
     await page.getByText('Evaluation cancelled — results are stale').waitFor();

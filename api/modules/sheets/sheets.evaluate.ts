@@ -40,7 +40,7 @@ export const inProcessRunner: SheetRunner = async (sheet, uploads, options) => {
   const signal = options.signal;
   return evaluateSheet(sheet, {
     uploads,
-    ...(options.onProgress ? { onProgress: options.onProgress } : {}),
+    ...(options.onProgress ? { onProgress: options.onProgress, now: () => Date.now() } : {}),
     ...(signal ? { isCancelled: () => signal.aborted } : {}),
   });
 };

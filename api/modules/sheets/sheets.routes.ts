@@ -135,7 +135,12 @@ export function createSheetsRouter(ctx: AppContext, options: SheetsRouterOptions
         onProgress: (p) =>
           send('progress', {
             ...p,
-            fraction: p.blockCount > 0 ? p.blockIndex / p.blockCount : null,
+            // within a solving modes block, the share of its modes converged so far
+            fraction:
+              p.blockCount > 0
+                ? (p.blockIndex + (p.modesWanted ? (p.modesConverged ?? 0) / p.modesWanted : 0)) /
+                  p.blockCount
+                : null,
           }),
         ...(runner ? { runner } : {}),
       });

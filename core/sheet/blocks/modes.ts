@@ -47,6 +47,9 @@ export const MODES_KEYS = [
 ] as const;
 type ModesKey = (typeof MODES_KEYS)[number];
 
+/** Shortest time between two progress reports of one solve (a newly converged mode is always sent). */
+export const PROGRESS_INTERVAL_MS = 250;
+
 const METHODS: MethodName[] = [
   'auto',
   'inverse',
@@ -503,6 +506,33 @@ export function evaluateModesBlock(
     },
   };
 
+  const sendProgress = ctx.options.onProgress;
+  if (sendProgress) {
+    // The solver reports every iteration; pass on at most one report per interval (and every
+    // newly converged mode), so a long solve streams without flooding the connection.
+    const clock = ctx.options.now;
+    let last = -Infinity;
+    let converged = -1;
+    options.onProgress = (p) => {
+      if (clock) {
+        const now = clock();
+        if (now - last < PROGRESS_INTERVAL_MS && p.modesConverged === converged) return;
+        last = now;
+      }
+      converged = p.modesConverged;
+      sendProgress({
+        blockIndex,
+        blockId: block.id,
+        blockCount: ctx.blockIds.length,
+        kind: 'modes',
+        message: `Solving ${name} (block ${blockIndex + 1} of ${ctx.blockIds.length}): ${p.stage}, ${p.modesConverged} of ${p.modesWanted} modes converged`,
+        stage: p.stage,
+        iteration: p.iteration,
+        modesConverged: p.modesConverged,
+        modesWanted: p.modesWanted,
+      });
+    };
+  }
   if (ctx.options.memoryLimitBytes !== undefined) {
     options.memoryLimitBytes = ctx.options.memoryLimitBytes;
   }

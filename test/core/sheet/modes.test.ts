@@ -6,6 +6,7 @@ import {
   type MatrixBlockResult,
   type ModesBlockResult,
   type Sheet,
+  type SheetProgress,
 } from '../../../core/index';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
@@ -398,5 +399,53 @@ describe('plane_frame generator', () => {
     expect(r.errors[0]!.message).toBe(
       'plane_frame: member 1 entry 2 must be a node number from 1 to 2.',
     );
+  });
+});
+
+const sheetOf = (): Sheet => ({
+  blocks: [
+    {
+      id: 'data',
+      kind: 'calc',
+      source:
+        'girder = beam({E: 210 GPa, I: 0.02 m^4, mass: 1.5 t/m, length: 60 m, elements: 30, ends: "pinned-pinned"})',
+    },
+    {
+      id: 'solve',
+      kind: 'modes',
+      source: 'name: girder_modes\nstiffness: girder.K\nmass: girder.M\nmethod: inverse\ncount: 4',
+    },
+  ],
+});
+
+describe('modes blocks: progress while solving', () => {
+  it("passes the solver's stage and each newly converged mode on to the sheet's progress", () => {
+    const events: SheetProgress[] = [];
+    const r = evaluateSheet(sheetOf(), { onProgress: (p) => events.push(p) });
+    expect(r.errors).toEqual([]);
+    // One report as each block starts…
+    expect(events.filter((e) => e.stage === undefined).map((e) => e.blockId)).toEqual([
+      'data',
+      'solve',
+    ]);
+    // …and, from the solve, at least one report per converged mode, in order, up to all four.
+    const solving = events.filter((e) => e.stage !== undefined);
+    expect(solving.every((e) => e.blockId === 'solve' && e.stage === 'inverse iteration')).toBe(
+      true,
+    );
+    expect(solving.every((e) => e.modesWanted === 4)).toBe(true);
+    const converged = [...new Set(solving.map((e) => e.modesConverged))];
+    expect(converged).toEqual([...converged].sort((a, b) => a! - b!));
+    expect(converged).toEqual(expect.arrayContaining([1, 2, 3, 4]));
+    expect(solving.at(-1)!.message).toBe(
+      'Solving girder_modes (block 2 of 2): inverse iteration, 4 of 4 modes converged',
+    );
+
+    // With a clock that stands still, only a change in the modes converged gets through.
+    const throttled: SheetProgress[] = [];
+    evaluateSheet(sheetOf(), { onProgress: (p) => throttled.push(p), now: () => 0 });
+    const counts = throttled.filter((e) => e.stage !== undefined).map((e) => e.modesConverged);
+    expect(counts).toEqual([...new Set(counts)]);
+    expect(counts.length).toBeLessThan(solving.length);
   });
 });

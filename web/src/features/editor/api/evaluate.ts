@@ -13,11 +13,10 @@ function progressOf(data: unknown): EvaluationProgress {
       : typeof d.done === 'number' && typeof d.total === 'number' && d.total > 0
         ? d.done / d.total
         : null;
-  const parts = [d.message, d.stage, d.blockId ? `block ${String(d.blockId)}` : null]
-    .filter((p) => typeof p === 'string' && p)
-    .map(String);
+  // The server's message names the block (and, while a modes block solves, the method's stage
+  // and the modes converged); the iteration is added here.
+  const parts = typeof d.message === 'string' && d.message ? [d.message] : [];
   if (typeof d.iteration === 'number') parts.push(`iteration ${d.iteration}`);
-  if (typeof d.mode === 'number') parts.push(`mode ${d.mode}`);
   return { message: parts.join(' · ') || 'Solving…', fraction };
 }
 

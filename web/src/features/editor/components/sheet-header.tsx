@@ -85,34 +85,7 @@ export function SheetHeader({
         ) : (
           <p className="text-ink-faint">Not evaluated yet</p>
         )}
-        <p role="status" aria-live="polite" className="flex items-center gap-2">
-          {running ? (
-            <>
-              <span
-                aria-hidden="true"
-                className="size-3 animate-spin rounded-full border-2 border-accent border-t-transparent"
-              />
-              <span>{evaluation.progress?.message ?? 'Evaluating…'}</span>
-              {evaluation.progress?.fraction !== null &&
-              evaluation.progress?.fraction !== undefined ? (
-                <progress
-                  className="h-1.5 w-24 accent-accent"
-                  max={1}
-                  value={evaluation.progress.fraction}
-                  aria-label="Evaluation progress"
-                />
-              ) : null}
-            </>
-          ) : evaluation.phase === 'cancelled' ? (
-            <span className="font-medium text-ink">Evaluation cancelled — results are stale</span>
-          ) : evaluation.phase === 'failed' ? (
-            <span className="text-fail">{evaluation.message}</span>
-          ) : stale ? (
-            <span className="font-medium text-ink">Results are stale</span>
-          ) : results ? (
-            <span className="text-ink-faint">Results up to date</span>
-          ) : null}
-        </p>
+        {/* Run / Cancel before the status, so the changing progress text never moves it */}
         <div className="flex items-center gap-2">
           {running ? (
             <Button variant="danger" className="py-0.5" onClick={onCancel}>
@@ -124,6 +97,34 @@ export function SheetHeader({
             </Button>
           )}
         </div>
+        <p role="status" aria-live="polite" className="flex items-center gap-2">
+          {running ? (
+            <>
+              <span
+                aria-hidden="true"
+                className="size-3 animate-spin rounded-full border-2 border-accent border-t-transparent"
+              />
+              {evaluation.progress?.fraction !== null &&
+              evaluation.progress?.fraction !== undefined ? (
+                <progress
+                  className="h-1.5 w-24 accent-accent"
+                  max={1}
+                  value={evaluation.progress.fraction}
+                  aria-label="Evaluation progress"
+                />
+              ) : null}
+              <span>{evaluation.progress?.message ?? 'Evaluating…'}</span>
+            </>
+          ) : evaluation.phase === 'cancelled' ? (
+            <span className="font-medium text-ink">Evaluation cancelled — results are stale</span>
+          ) : evaluation.phase === 'failed' ? (
+            <span className="text-fail">{evaluation.message}</span>
+          ) : stale ? (
+            <span className="font-medium text-ink">Results are stale</span>
+          ) : results ? (
+            <span className="text-ink-faint">Results up to date</span>
+          ) : null}
+        </p>
         {!readOnly ? (
           <p
             className={`ml-auto text-xs ${
