@@ -56,6 +56,7 @@ describe('mail (browser)', () => {
     // …and links to the sheet it is about.
     await list.getByRole('link', { name: 'Open the sheet' }).first().click();
     await page.waitForURL(/\/projects\/\d+\/sheets\/\d+$/);
+    await page.getByRole('region', { name: 'Review' }).waitFor();
   });
 
   it("gives the admin every message under Outbox, the author's among them", async () => {

@@ -75,8 +75,10 @@ export async function launchBrowser(): Promise<BrowserSession> {
     context,
     page,
     async signOutLocally() {
-      await context.clearCookies();
+      // Leave the app first: a request still in flight (a sheet page's evaluation) could set the
+      // session cookie again after it was cleared.
       await page.goto('about:blank');
+      await context.clearCookies();
     },
     async close() {
       await context.close();

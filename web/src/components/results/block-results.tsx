@@ -7,12 +7,18 @@ import type {
   MatrixBlockResult,
   ModesBlockResult,
 } from '../../../../core/index';
+import { lazy, Suspense } from 'react';
 import { participationFactor, percent, sig } from '../../lib/format';
 import { handParts } from './hand-parts';
 import { ModesWarnings } from './modes-warnings';
 import { Tex } from './tex';
 
 export type { BlockResult, SheetResults } from '../../../../core/index';
+
+// The charts library is large: fetched when a revision with mode shapes is shown.
+const ModeShapePlot = lazy(() =>
+  import('./modes-plots').then((m) => ({ default: m.ModeShapePlot })),
+);
 
 function CalcLines({ result }: { result: CalcBlockResult }) {
   if (result.lines.length === 0) return null;
@@ -129,6 +135,17 @@ function Modes({ result }: { result: ModesBlockResult }) {
       <div className="mt-1 flex flex-col gap-1">
         <ModesWarnings result={result} compact />
       </div>
+      {result.shapes && result.shapes.length > 0 ? (
+        <div className="mt-2 max-w-xl break-inside-avoid">
+          <Suspense fallback={<p className="text-xs text-ink-faint">Drawing the mode shapes…</p>}>
+            <ModeShapePlot
+              shapes={result.shapes}
+              count={result.modes.length}
+              dofLabels={result.dofLabels}
+            />
+          </Suspense>
+        </div>
+      ) : null}
     </div>
   );
 }

@@ -8,10 +8,10 @@ import { Spinner } from '../../../components/ui/spinner';
 // The charts library is the largest part of the editor: fetched when the first plot is drawn, so a
 // sheet without modes (or still evaluating) opens without it.
 const ModeShapePlot = lazy(() =>
-  import('./modes-plots').then((m) => ({ default: m.ModeShapePlot })),
+  import('../../../components/results/modes-plots').then((m) => ({ default: m.ModeShapePlot })),
 );
 const ConvergencePlot = lazy(() =>
-  import('./modes-plots').then((m) => ({ default: m.ConvergencePlot })),
+  import('../../../components/results/modes-plots').then((m) => ({ default: m.ConvergencePlot })),
 );
 
 /**

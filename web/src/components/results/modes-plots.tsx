@@ -9,7 +9,7 @@ import {
   XAxis,
   YAxis,
 } from 'recharts';
-import { sig } from '../../../lib/format';
+import { sig } from '../../lib/format';
 
 export const SERIES_COLOURS = ['#1f6b5c', '#8a4b12', '#5b3f8c', '#a3261b', '#4a4f57', '#2d6a2f'];
 const MAX_SHAPES = 6;
