@@ -13,6 +13,7 @@
  */
 import type { MathJsInstance, Matrix, Unit } from 'mathjs';
 import { EngineError } from '../errors';
+import { LargeMatrix } from './large-matrix';
 import type { SheetValue } from './types';
 
 /** Entries above which a matrix value is summarized instead of listed in the results. */
@@ -357,6 +358,13 @@ export function formatValue(v: unknown, ctx: FormatContext, depth = 0): Formatte
       value: { type: 'string', value: v },
       display: JSON.stringify(v),
       latex: `\\text{“${safe}”}`,
+    };
+  }
+  if (v instanceof LargeMatrix) {
+    return {
+      value: { type: 'matrix', rows: v.n, cols: v.n, values: null, unit: v.unit },
+      display: `${v.n}×${v.n} sparse matrix, ${v.nonzeros} nonzeros${v.unit ? ` in ${compactUnit(v.unit)}` : ''}`,
+      latex: `\\left[${v.n}\\times${v.n},\\ \\text{sparse, ${v.nonzeros} nonzeros}\\right]`,
     };
   }
   if (math.isMatrix(v)) return formatMatrix(v as Matrix, ctx);

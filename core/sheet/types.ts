@@ -171,6 +171,10 @@ export interface MatrixBlockResult extends BlockResultBase {
   symmetric: boolean;
   asymmetry: Asymmetry | null;
   value: SheetValue | null;
+  /** 'sparse' for a large uploaded model matrix, kept sparse (absent before engine 0.4.2). */
+  storage?: 'dense' | 'sparse';
+  /** Nonzeros of a sparse matrix (both triangles). */
+  nonzeros?: number;
 }
 
 /** One warning of a modes block: its code (for the screen to classify) and its words. */

@@ -1,7 +1,9 @@
 // Issue 6, browser: a Matrix Market pair uploaded with the picker becomes two matrix blocks and
 // is solved; a typed non-symmetric matrix shows its error at the line, underlined, on hover.
+import { mkdtemp, writeFile } from 'node:fs/promises';
+import os from 'node:os';
 import path from 'node:path';
-import { describe, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { saveScreenshot } from '../support/browser';
 import {
   FIXTURES,
@@ -9,9 +11,12 @@ import {
   addBlock,
   block,
   blockCount,
+  column,
   newSheet,
+  relative,
   shotPath,
   solveUploadedChain,
+  uniformChain,
   useAuthorBrowser,
   waitForResults,
   waitSaved,
@@ -32,6 +37,47 @@ describe('sheet editor: uploads and matrices (browser)', () => {
       .getByText(/3 × 3/)
       .waitFor();
     await saveScreenshot(page, 'editor-matrix-upload');
+    await waitSaved(page);
+  });
+
+  it('keeps a large uploaded model sparse and solves it by Lanczos', async () => {
+    const { page } = session();
+    // A 2 000-DOF fixed–free chain exported as Matrix Market (k = 1e6 N/m, m = 1e3 kg): its
+    // dense form (4 million entries) is beyond what a sheet value holds.
+    const n = 2000;
+    const dir = await mkdtemp(path.join(os.tmpdir(), 'mw-large-'));
+    const k = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${2 * n - 1}`];
+    for (let i = 1; i <= n; i++) {
+      k.push(`${i} ${i} ${i === n ? 1e6 : 2e6}`);
+      if (i < n) k.push(`${i + 1} ${i} -1e6`);
+    }
+    const m = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${n}`];
+    for (let i = 1; i <= n; i++) m.push(`${i} ${i} 1000`);
+    await writeFile(path.join(dir, 'long_K.mtx'), k.join('\n') + '\n');
+    await writeFile(path.join(dir, 'long_M.mtx'), m.join('\n') + '\n');
+    await newSheet(page, `E2E-X${RUN}`, 'Exported chain');
+    const before = await blockCount(page);
+    await page
+      .getByLabel('Upload K or M file…')
+      .setInputFiles([path.join(dir, 'long_K.mtx'), path.join(dir, 'long_M.mtx')]);
+    await block(page, before + 2, 'matrix').waitFor();
+    await addBlock(
+      page,
+      'modes',
+      ['name: long', 'stiffness: long_K', 'mass: long_M', 'count: 3'].join('\n'),
+    );
+    await waitForResults(page);
+    await block(page, before + 1, 'matrix')
+      .getByText(/2000 × 2000.*kept sparse \(5,998 nonzeros\)/)
+      .waitFor();
+    const table = page.getByRole('table', { name: 'Modes of long' });
+    await page.getByText(/solved by lanczos/).waitFor();
+    // the lowest three of the 2 000-mass chain's closed form
+    const expected = uniformChain(n, 1e6, 1e3);
+    const f = await column(table, 'f (Hz)');
+    expect(f).toHaveLength(3);
+    // 4 significant figures shown: half a unit in the 4th figure.
+    f.forEach((value, i) => expect(relative(value, expected[i]!.f)).toBeLessThan(5e-4));
     await waitSaved(page);
   });
 

@@ -1,5 +1,6 @@
 // The client's number formatting (web/src/lib/format.ts): pure functions, run without a browser.
 import { describe, expect, it } from 'vitest';
+import { rhoAxis } from '../../web/src/components/results/rho-axis';
 import { participationFactor, percent, sig } from '../../web/src/lib/format';
 
 describe('number formatting of results', () => {
@@ -25,5 +26,23 @@ describe('number formatting of results', () => {
     // Not hidden when it is the only, or a real, value: a millionth is the line.
     expect(participationFactor(3e-4, [3e-4])).toBe('0.0003');
     expect(participationFactor(null, all)).toBe('—');
+  });
+});
+
+describe('the ρ axis of the convergence plot', () => {
+  it('gives a flat history a band around its value and enough figures to tell the ticks apart', () => {
+    // Lanczos on a plate: ρ is 1.2634e6 at the first and the last step.
+    const flat = rhoAxis([1.2634e6, 1.2634e6]);
+    expect(flat.digits).toBe(7);
+    const [lo, hi] = flat.domain as [number, number];
+    expect(lo).toBeLessThan(1.2634e6);
+    expect(hi).toBeGreaterThan(1.2634e6);
+    expect(sig(lo, flat.digits)).not.toBe(sig(hi, flat.digits));
+  });
+
+  it('keeps four figures for a history that falls well, more when it moves in the last digits', () => {
+    expect(rhoAxis([430, 372.6, 372.4])).toEqual({ domain: ['auto', 'auto'], digits: 4 });
+    // a range 1e-4 of the value: 1000.0 against 1000.1 differ in the fifth figure, ticks in the sixth
+    expect(rhoAxis([1000, 1000.1]).digits).toBe(6);
   });
 });

@@ -14,6 +14,7 @@ import {
 } from '../context';
 import { EngineError } from '../../errors';
 import { formatValue } from '../format';
+import { refuseLargeMatrices } from '../large-matrix';
 import { expressionTex, latexName, substitutionTex } from '../latex';
 import { evaluateStatements } from './statements';
 import type { CalcBlockResult, CalcLineResult, SheetBlock } from '../types';
@@ -122,6 +123,7 @@ export function evaluateCalcLine(
   const node = parseExpression(ctx, code);
   const name = assignedName(node);
   refuseHiddenUnits(ctx, node);
+  refuseLargeMatrices(ctx.scope, node);
   const rhs: MathNode =
     node.type === 'AssignmentNode' ? (node as unknown as { value: MathNode }).value : node;
   // LaTeX before evaluating, so substituted values are the ones this line used.

@@ -13,6 +13,7 @@ import {
   type EvalContext,
 } from '../context';
 import { formatValue } from '../format';
+import { refuseLargeMatrices } from '../large-matrix';
 import { expressionTex } from '../latex';
 import { evaluateStatements } from './statements';
 import type { CriteriaBlockResult, CriterionResult, SheetBlock } from '../types';
@@ -85,6 +86,7 @@ export function evaluateCriterion(
       'A criterion compares values; it cannot define a name. Move the assignment to a calc block.',
     );
   }
+  refuseLargeMatrices(ctx.scope, node);
   const value = evaluateNode(ctx, node, new Map(ctx.scope));
   if (typeof value !== 'boolean') {
     let shown: string;

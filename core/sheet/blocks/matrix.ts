@@ -20,7 +20,10 @@ import { formatContext, report, type EvalContext } from '../context';
 import { formatValue, prefixName } from '../format';
 import { blockLines, splitComment } from '../source';
 import type { Asymmetry, MatrixBlockResult, SheetBlock } from '../types';
-import { readUploadedMatrix } from './upload';
+import { toSymmetricMatrix, type ParsedMatrix } from '../../linalg/matrix-io';
+import type { SparseSymmetricMatrix } from '../../linalg/types';
+import { fullNonzeros, LARGE_UPLOAD_MIN_ROWS, LargeMatrix } from '../large-matrix';
+import { readUpload, uploadRows } from './upload';
 
 /** Relative asymmetry below which a matrix counts as symmetric. */
 export const SYMMETRY_TOLERANCE = 1e-9;
@@ -29,6 +32,13 @@ const HEADER_KEYS = ['name', 'unit', 'symmetric', 'from'] as const;
 type HeaderKey = (typeof HEADER_KEYS)[number];
 
 const NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+
+/** A coordinate or triplet upload large enough to be an analysis model: kept sparse. */
+function isLargeSparse(p: ParsedMatrix): boolean {
+  return (
+    (p.format === 'coordinate' || p.format === 'csv-triplets') && p.rows >= LARGE_UPLOAD_MIN_ROWS
+  );
+}
 
 /** The worst asymmetry of a square matrix given as rows, or null when exactly symmetric. */
 export function worstAsymmetry(rows: ArrayLike<number>[]): Asymmetry | null {
@@ -233,7 +243,37 @@ export function evaluateMatrixBlock(
     }
     result.origin = 'upload';
     try {
-      data = readUploadedMatrix(ctx, header.from.value);
+      const { file, parsed } = readUpload(ctx, header.from.value);
+      if (isLargeSparse(parsed)) {
+        // An analysis model's K or M: stays sparse, in SI, for the modes blocks.
+        if (header.symmetric?.value.toLowerCase() === 'no') {
+          throw new EngineError(
+            'SHEET_PARSE',
+            `${file} is a large sparse matrix (${parsed.rows} × ${parsed.cols}); it is kept as a symmetric stiffness or mass matrix, so "symmetric: no" cannot apply.`,
+          );
+        }
+        const A = toSymmetricMatrix(parsed, file) as SparseSymmetricMatrix;
+        const factor = unit ? (ctx.sm.math.unit(1, unit.formatUnits()).value as number) : 1;
+        const values = Float64Array.from(A.values, (x) => x * factor);
+        const engine: SparseSymmetricMatrix = { ...A, values };
+        const large = new LargeMatrix(
+          name!,
+          engine,
+          unit ? unit.formatUnits() : null,
+          fullNonzeros(A),
+        );
+        result.rows = large.n;
+        result.cols = large.n;
+        result.storage = 'sparse';
+        result.nonzeros = large.nonzeros;
+        result.symmetric = true;
+        result.value = formatValue(large, formatContext(ctx, name)).value;
+        ctx.scope.set(name!, large);
+        ctx.failed.delete(name!);
+        result.ok = true;
+        return result;
+      }
+      data = uploadRows(ctx, file, parsed);
     } catch (err) {
       report(ctx, at(header.from.line), err);
       return fail();

@@ -30,6 +30,7 @@ import type { SymmetricMatrix } from '../../linalg/types';
 import { evaluateNode, parseExpression, report, type EvalContext } from '../context';
 import { RESULT_MATRIX_LIMIT } from '../format';
 import { ENGINE_MATRICES, MATRIX_DOFS } from '../generators';
+import { LargeMatrix } from '../large-matrix';
 import { blockLines, splitComment } from '../source';
 import type { ModeRow, ModesBlockResult, ModesWarning, SheetBlock } from '../types';
 
@@ -80,6 +81,9 @@ function unitText(u: Unit): string {
 /** Converts a mathjs matrix (of quantities or numbers) to the engine's form in SI units. */
 function sideMatrix(ctx: EvalContext, v: unknown, role: 'K' | 'M', expr: string): SideMatrix {
   const { math } = ctx.sm;
+  if (v instanceof LargeMatrix) {
+    return { engine: v.engine, unit: v.unit ? math.unit(1, v.unit) : null, n: v.n, dofs: null };
+  }
   if (!math.isMatrix(v)) {
     fail(`${role} must be a matrix; "${expr}" is not one.`);
   }

@@ -69,8 +69,13 @@ function toRows(file: string, p: ParsedMatrix, limit: number): number[][] {
   return out;
 }
 
-/** Reads an uploaded matrix file (Matrix Market when it starts with %%MatrixMarket, else CSV). */
-export function readUploadedMatrix(ctx: EvalContext, name: string): number[][] {
+/** Reads and parses an uploaded matrix file (Matrix Market when it starts with %%MatrixMarket). */
+export function readUpload(ctx: EvalContext, name: string): { file: string; parsed: ParsedMatrix } {
   const u = findUpload(ctx, name);
-  return toRows(u.name, parseUpload(u.name, u.text), ctx.maxMatrixEntries);
+  return { file: u.name, parsed: parseUpload(u.name, u.text) };
+}
+
+/** Dense rows of a parsed upload, within the sheet's value limit. */
+export function uploadRows(ctx: EvalContext, file: string, parsed: ParsedMatrix): number[][] {
+  return toRows(file, parsed, ctx.maxMatrixEntries);
 }

@@ -89,3 +89,71 @@ describe('matrix blocks from uploads', () => {
     );
   });
 });
+
+describe('large uploaded models stay sparse', () => {
+  // A fixed–free chain of n equal masses m and springs k, as an analysis program would export it:
+  // K tridiagonal (2k on the diagonal, k at the free end, −k beside it), M = m I.
+  // Closed form (REFERENCES.md item 2): ω_j = 2 √(k/m) sin((2j − 1) π / (2 (2n + 1))).
+  function chainFiles(n: number, k: number, m: number) {
+    const kLines = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${2 * n - 1}`];
+    for (let i = 1; i <= n; i++) {
+      kLines.push(`${i} ${i} ${i === n ? k : 2 * k}`);
+      if (i < n) kLines.push(`${i + 1} ${i} ${-k}`);
+    }
+    const mLines = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${n}`];
+    for (let i = 1; i <= n; i++) mLines.push(`${i} ${i} ${m}`);
+    return [
+      { name: 'chain-K.mtx', text: kLines.join('\n') + '\n' },
+      { name: 'chain-M.mtx', text: mLines.join('\n') + '\n' },
+    ];
+  }
+
+  it('solves a 20 000-DOF chain from Matrix Market files that no sheet value could hold', () => {
+    const n = 20_000;
+    const r = evaluateSheet(
+      {
+        blocks: [
+          { id: 'k', kind: 'matrix', source: 'name: K\nunit: kN/m\nfrom: chain-K.mtx' },
+          { id: 'm', kind: 'matrix', source: 'name: M\nunit: t\nfrom: chain-M.mtx' },
+          { id: 's', kind: 'modes', source: 'name: chain\nstiffness: K\nmass: M\ncount: 3' },
+        ],
+      },
+      { uploads: chainFiles(n, 1000, 1) },
+    );
+    expect(r.errors).toEqual([]);
+    const K = r.blocks[0] as MatrixBlockResult;
+    expect(K).toMatchObject({ rows: n, cols: n, storage: 'sparse', nonzeros: 3 * n - 2 });
+    expect(K.value).toMatchObject({ type: 'matrix', rows: n, values: null, unit: 'kN / m' });
+    const modes = (r.blocks[2] as ModesBlockResult).modes;
+    // kN/m and t in SI: k = 1e6 N/m, m = 1e3 kg.
+    const w = (j: number) =>
+      2 * Math.sqrt(1e6 / 1e3) * Math.sin(((2 * j - 1) * Math.PI) / (2 * (2 * n + 1)));
+    // The lowest modes of a long chain are ill-conditioned (λ_max/λ₁ ≈ 6e8): relative 1e-6.
+    modes.forEach((mode, i) =>
+      expect(Math.abs(mode.omega - w(i + 1)) / w(i + 1)).toBeLessThan(1e-6),
+    );
+  });
+
+  it('refuses a large matrix in a calculation line, and a large general file that is not symmetric', () => {
+    const files = chainFiles(600, 1000, 1);
+    const bad =
+      '%%MatrixMarket matrix coordinate real general\n600 600 3\n1 1 2\n2 1 -1\n1 2 -0.5\n';
+    const r = evaluateSheet(
+      {
+        blocks: [
+          { id: 'k', kind: 'matrix', source: 'name: K\nfrom: chain-K.mtx' },
+          { id: 'c', kind: 'calc', source: 'x = K[1, 1]' },
+          { id: 'b', kind: 'matrix', source: 'name: B\nfrom: bad.mtx' },
+        ],
+      },
+      { uploads: [...files, { name: 'bad.mtx', text: bad }] },
+    );
+    const at = (id: string) => r.errors.find((e) => e.blockId === id);
+    expect(at('c')).toMatchObject({ line: 1 });
+    expect(at('c')!.message).toMatch(
+      /K is a large sparse matrix .*stiffness: or mass: of a modes block/,
+    );
+    expect(at('b')).toMatchObject({ line: 2, code: 'MATRIX_NOT_SYMMETRIC' });
+    expect(at('b')!.message).toMatch(/bad\.mtx is not symmetric: entry \(2, 1\) = -1 on line 4/);
+  });
+});

@@ -72,6 +72,9 @@ function Matrix({ result }: { result: MatrixBlockResult }) {
       {result.name ?? 'Matrix'}: {result.rows} × {result.cols}
       {result.unit ? ` in ${result.unit}` : ''},{' '}
       {result.origin === 'upload' ? 'from a file' : 'typed'},{' '}
+      {result.storage === 'sparse' && result.nonzeros !== undefined
+        ? `sparse (${result.nonzeros.toLocaleString('en-GB')} nonzeros), `
+        : ''}
       {result.symmetric ? 'symmetric' : 'not symmetric'}
       {result.asymmetry
         ? ` (worst at row ${result.asymmetry.row}, column ${result.asymmetry.col}, relative ${result.asymmetry.relative.toExponential(2)})`

@@ -10,6 +10,7 @@ import {
   YAxis,
 } from 'recharts';
 import { sig } from '../../lib/format';
+import { rhoAxis } from './rho-axis';
 
 export const SERIES_COLOURS = ['#1f6b5c', '#8a4b12', '#5b3f8c', '#a3261b', '#4a4f57', '#2d6a2f'];
 const MAX_SHAPES = 6;
@@ -197,6 +198,7 @@ export function ConvergencePlot({ histories }: { histories: number[][] }) {
   const [mode, setMode] = useState(0);
   const history = histories[mode] ?? [];
   const data = history.map((rho, i) => ({ iteration: i + 1, rho }));
+  const { domain, digits } = rhoAxis(history);
   return (
     <figure className="min-w-0 flex-1" aria-label="Convergence">
       <figcaption className="mb-1 flex items-center justify-between gap-2 text-xs font-semibold tracking-wide text-ink-soft uppercase">
@@ -239,10 +241,10 @@ export function ConvergencePlot({ histories }: { histories: number[][] }) {
               />
               <YAxis
                 type="number"
-                domain={['auto', 'auto']}
+                domain={domain}
                 tick={{ fontSize: 11 }}
-                width={56}
-                tickFormatter={(v: number) => sig(v, 4)}
+                width={digits > 4 ? 72 : 56}
+                tickFormatter={(v: number) => sig(v, digits)}
               />
               <Tooltip
                 formatter={(v) => sig(Number(v), 8)}

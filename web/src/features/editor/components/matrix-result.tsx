@@ -5,6 +5,8 @@ const PREVIEW = 6;
 
 /** A matrix's name, size and unit, its symmetry, and the top-left corner of its entries. */
 export function MatrixResult({ result, digits }: { result: MatrixBlockResult; digits: number }) {
+  // A block that failed before its matrix was read has nothing to describe: its error says it.
+  if (!result.ok && result.rows === 0) return null;
   const values = result.value?.type === 'matrix' ? result.value.values : null;
   const rows = values ? values.slice(0, PREVIEW) : [];
   return (
@@ -20,6 +22,9 @@ export function MatrixResult({ result, digits }: { result: MatrixBlockResult; di
             </>
           ) : null}
           {result.origin === 'upload' ? ', from an uploaded file' : null}
+          {result.storage === 'sparse' && result.nonzeros !== undefined
+            ? `; kept sparse (${result.nonzeros.toLocaleString('en-GB')} nonzeros) for the eigen solver`
+            : null}
         </span>
         {result.rows === result.cols ? (
           <span className={`ml-2 text-xs ${result.symmetric ? 'text-pass' : 'text-fail'}`}>
