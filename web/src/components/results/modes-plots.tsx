@@ -126,7 +126,8 @@ export function ModeShapePlot({
           </span>
         </span>
         {layout && layout.components.length > 1 ? (
-          <label className="flex items-center gap-1 font-normal normal-case">
+          // on paper the caption names the component shown; the control is for the screen
+          <label className="flex items-center gap-1 font-normal normal-case print:hidden">
             Component
             <select
               className="rounded-sm border border-rule-strong bg-paper-sheet px-1 py-0.5 text-xs"
