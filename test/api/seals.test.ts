@@ -272,6 +272,52 @@ describe('POST /api/revisions/:revisionId/seal', () => {
   });
 });
 
+describe('sealing a sheet built on a large uploaded model', () => {
+  it('reproduces the sparse solve on the server and seals it', async () => {
+    // A 1 000-DOF fixed–free chain as Matrix Market (k = 1e6 N/m, m = 1e3 kg): kept sparse.
+    const n = 1000;
+    const k = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${2 * n - 1}`];
+    for (let i = 1; i <= n; i++) {
+      k.push(`${i} ${i} ${i === n ? 1e6 : 2e6}`);
+      if (i < n) k.push(`${i + 1} ${i} -1e6`);
+    }
+    const m = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${n}`];
+    for (let i = 1; i <= n; i++) m.push(`${i} ${i} 1000`);
+    const sheet = await createSheetWithDraft(
+      author,
+      team.project.id,
+      { number: `SL-${unique()}`, title: 'Exported chain' },
+      [
+        { id: 'k', kind: 'matrix', source: 'name: K\nunit: N/m\nfrom: chain-k.mtx' },
+        { id: 'm', kind: 'matrix', source: 'name: M\nunit: kg\nfrom: chain-m.mtx' },
+        { id: 's', kind: 'modes', source: 'name: chain\nstiffness: K\nmass: M\ncount: 3' },
+      ],
+    );
+    for (const [name, lines] of [
+      ['chain-k.mtx', k],
+      ['chain-m.mtx', m],
+    ] as const) {
+      const res = await author.agent
+        .post(`/api/sheets/${sheet.id}/uploads`)
+        .set('X-CSRF-Token', author.csrfToken)
+        .attach('file', Buffer.from(lines.join('\n') + '\n'), name);
+      expect(res.status, JSON.stringify(res.body)).toBe(201);
+    }
+    const revId = await signedOff(sheet.id);
+    const rev = await principal.get(`/api/revisions/${revId}`);
+    const results = rev.body.revision.results;
+    expect(results.errors).toEqual([]);
+    expect(results.blocks[0]).toMatchObject({ storage: 'sparse', rows: n, nonzeros: 3 * n - 2 });
+    // ω₁ = 2 √(k/m) sin(π / (2 (2n + 1))) (REFERENCES.md item 2, the chain's closed form).
+    const w1 = 2 * Math.sqrt(1e6 / 1e3) * Math.sin(Math.PI / (2 * (2 * n + 1)));
+    expect(Math.abs(results.blocks[2].modes[0].omega - w1) / w1).toBeLessThan(1e-8);
+    const sealed = await principal.post(`/api/revisions/${revId}/seal`, {
+      password: team.principal.password,
+    });
+    expect(sealed.status, JSON.stringify(sealed.body)).toBe(200);
+  });
+});
+
 describe('POST /api/auth/password', () => {
   it('re-encrypts the signing key so the same key seals under the new password', async () => {
     const p = await createUser(t.db, {
