@@ -199,6 +199,11 @@ export interface ModesBlockResult extends BlockResultBase {
    */
   dofLabels: string[] | null;
   sturm: { shift: number; count: number; found: number; missed: boolean } | null;
+  /**
+   * The mass the effective masses are shares of: rᵀMr for the (first) direction, kg, with its
+   * name; absent without a direction (and on results before engine 0.4.3).
+   */
+  participation?: { direction: string; mass: number } | null;
   criticalTimeStep: number | null;
   /**
    * What the reader should know about the solve, each with an UPPER_SNAKE code: the engine's

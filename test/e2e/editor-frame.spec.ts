@@ -68,6 +68,8 @@ describe('sheet editor: three-storey frame (browser)', () => {
     );
     const cumulative = await column(table, 'Cumulative');
     expect(Math.abs(cumulative[2]! - 100)).toBeLessThan(0.06);
+    // …shares of rᵀMr, the three floors of 20 t.
+    await page.getByText('Effective masses are shares of rᵀMr = 60 t in the direction x').waitFor();
     await page.getByText(/Sturm check/).waitFor();
     await page.getByRole('figure', { name: 'Mode shapes' }).waitFor();
     await saveScreenshot(page, 'editor-modes');

@@ -595,6 +595,7 @@ export function evaluateModesBlock(
   result.sturm = r.sturm
     ? { shift: r.sturm.shift, count: r.sturm.countBelow, found: r.sturm.found, missed: !r.sturm.ok }
     : null;
+  result.participation = p ? { direction: p.name, mass: p.totalMass } : null;
   result.criticalTimeStep = r.criticalTimeStep?.dtCr ?? null;
   result.warnings = [...warnings, ...r.warnings.map((w) => ({ code: w.code, message: w.message }))];
   result.engine = {

@@ -36,7 +36,9 @@ describe('modes blocks: shear buildings', () => {
     // ω₁ = √(k/2m), ω₂ = √(2k/m); relative 1e-10 (dense reference on well-separated λ).
     expect(rel(modes.modes[0]!.omega, Math.sqrt(k / (2 * m)))).toBeLessThan(1e-10);
     expect(rel(modes.modes[1]!.omega, Math.sqrt((2 * k) / m))).toBeLessThan(1e-10);
-    // Effective masses 8/9 and 1/9 of the total.
+    // Effective masses 8/9 and 1/9 of the total, rᵀMr = 2m + m (every floor moves with the ground).
+    expect(modes.participation?.direction).toBe('x');
+    expect(rel(modes.participation!.mass, 3 * m)).toBeLessThan(1e-12);
     expect(Math.abs(modes.modes[0]!.ratio! - 8 / 9)).toBeLessThan(1e-10);
     expect(Math.abs(modes.modes[1]!.ratio! - 1 / 9)).toBeLessThan(1e-10);
     // Shapes (first floor, roof) ∝ [½, 1] and [−1, 1].

@@ -43,3 +43,8 @@ export function participationFactor(
   );
   return largest > 0 && Math.abs(value) <= 1e-6 * largest ? '≈ 0' : sig(value, digits);
 }
+
+/** A mass in kg as an engineer writes it: tonnes from 1 t up (4 figures), else kg. */
+export function massText(kg: number): string {
+  return Math.abs(kg) >= 1000 ? `${sig(kg / 1000, 4)} t` : `${sig(kg, 4)} kg`;
+}

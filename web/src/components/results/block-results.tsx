@@ -11,6 +11,7 @@ import { lazy, Suspense } from 'react';
 import { participationFactor, percent, sig } from '../../lib/format';
 import { handParts } from './hand-parts';
 import { ModesWarnings } from './modes-warnings';
+import { ParticipationNote } from './participation-note';
 import { Tex } from './tex';
 
 export type { BlockResult, SheetResults } from '../../../../core/index';
@@ -126,6 +127,7 @@ function Modes({ result }: { result: ModesBlockResult }) {
           ))}
         </tbody>
       </table>
+      <ParticipationNote result={result} />
       {result.methodUsed ? (
         <p className="mt-1 text-xs text-ink-faint">
           Method: {result.methodUsed}

@@ -2,3 +2,4 @@ export { BlockResultView, type BlockResult, type SheetResults } from './block-re
 export { Tex } from './tex';
 export { handParts } from './hand-parts';
 export { ModesWarnings, splitModesWarnings, powerOfTen } from './modes-warnings';
+export { ParticipationNote } from './participation-note';

@@ -1,6 +1,6 @@
 import { lazy, Suspense } from 'react';
 import type { ModesBlockResult } from '../api/results';
-import { ModesWarnings } from '../../../components/results';
+import { ModesWarnings, ParticipationNote } from '../../../components/results';
 import { Table, Td, Th } from '../../../components/ui/table';
 import { participationFactor, percent, sig } from '../../../lib/format';
 import { Spinner } from '../../../components/ui/spinner';
@@ -92,6 +92,7 @@ export function ModesResult({ result, digits }: { result: ModesBlockResult; digi
           </tbody>
         </Table>
       ) : null}
+      {result.modes.length > 0 ? <ParticipationNote result={result} /> : null}
       {result.sturm ? (
         <p className={result.sturm.missed ? 'text-fail' : 'text-pass'}>
           Sturm check at σ = {sig(result.sturm.shift, digits)} (rad/s)²

@@ -1,0 +1,19 @@
+import type { ModesBlockResult } from '../../../../core/index';
+import { massText } from '../../lib/format';
+
+/**
+ * What the effective-mass percentages are shares of: rᵀMr for the direction, the mass that moves
+ * with a unit ground displacement. Mass at restrained DOFs is not in it, so for a supported span
+ * it is less than the span's whole mass (and the first mode's share more than a continuous beam's
+ * 8/π²).
+ */
+export function ParticipationNote({ result }: { result: ModesBlockResult }) {
+  const p = result.participation;
+  if (!p) return null;
+  return (
+    <p className="text-xs text-ink-faint">
+      Effective masses are shares of rᵀMr = {massText(p.mass)} in the direction {p.direction}: the
+      mass that moves with a unit ground displacement (mass at restrained DOFs is not in it).
+    </p>
+  );
+}
