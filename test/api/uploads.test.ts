@@ -201,6 +201,7 @@ describe('POST /api/sheets/:sheetId/uploads', () => {
     expect(res.status).toBe(413);
     expect(res.body.error.code).toBe('PAYLOAD_TOO_LARGE');
     expect(res.body.error.message).toContain('20 MB');
+    expect(res.body.error.message).toContain('MW_UPLOAD_LIMIT_BYTES');
   });
 
   it('refuses a request without a file with 422 on the file field', async () => {

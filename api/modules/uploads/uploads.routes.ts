@@ -55,7 +55,7 @@ export function createUploadsRouter(ctx: AppContext, options: UploadsRouterOptio
           if (err.code === 'LIMIT_FILE_SIZE') {
             return reject(
               new PayloadTooLargeError(
-                `The file is larger than the upload limit of ${megabytes(limit)}.`,
+                `The file is larger than the upload limit of ${megabytes(limit)}; the administrator can raise it with MW_UPLOAD_LIMIT_BYTES.`,
               ),
             );
           }
