@@ -150,6 +150,14 @@ describe('review and seal, the whole flow (browser)', () => {
     await expect
       .poll(() => block(page, calc, 'calc').locator('.cm-activeLine').innerText())
       .toBe(REV1.split('\n')[2]);
+    // …and is marked in the gutter of its block, the remark's words on hover.
+    const mark = block(page, calc, 'calc').locator('.cm-lint-marker-info').first();
+    await mark.waitFor();
+    await mark.hover();
+    await page
+      .locator('.cm-tooltip-lint')
+      .getByText(/Error remark on line 3 of Rev 1, open — Tomasz Reyes: State the mass used/)
+      .waitFor();
     await saveScreenshot(page, 'review-3b-remarks-to-act-on');
     await setSource(page, calc, 'calc', REV2);
     await waitForResults(page);

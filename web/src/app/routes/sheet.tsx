@@ -4,6 +4,7 @@ import { Alert } from '../../components/ui/alert';
 import { Spinner } from '../../components/ui/spinner';
 import { Section } from '../../components/ui/section';
 import { paths } from '../../config/paths';
+import { useDraftRemarkMarks } from '../../features/review/api/use-draft-remark-marks';
 import {
   IssueForCheck,
   RevisionList,
@@ -19,7 +20,9 @@ const SheetEditor = lazy(() =>
 export function SheetRoute() {
   const { sheetId: raw } = useParams();
   const sheetId = Number(raw);
-  if (!Number.isInteger(sheetId) || sheetId <= 0) {
+  const valid = Number.isInteger(sheetId) && sheetId > 0;
+  const remarks = useDraftRemarkMarks(valid ? sheetId : 0);
+  if (!valid) {
     return (
       <Alert title="No such sheet.">
         “{raw}” is not a sheet number. <Link to={paths.projects.href()}>Back to projects</Link>
@@ -30,7 +33,11 @@ export function SheetRoute() {
     <div className="flex flex-col gap-4">
       <IssueForCheck sheetId={sheetId} revisionHref={paths.revision.href} />
       <Suspense fallback={<Spinner label="Opening the editor…" />}>
-        <SheetEditor sheetId={sheetId} projectHref={(id) => paths.project.href(id)} />
+        <SheetEditor
+          sheetId={sheetId}
+          projectHref={(id) => paths.project.href(id)}
+          {...(remarks ? { remarks } : {})}
+        />
       </Suspense>
       <Section title="Revisions">
         <RevisionList sheetId={sheetId} revisionHref={paths.revision.href} />

@@ -3,7 +3,7 @@ import type { BlockResult, SheetIssue } from '../api/results';
 import type { Block } from '../api/types';
 import { renderMarkdown } from '../../../components/results/markdown';
 import type { ScopeName } from '../lib/scope';
-import { BlockSource } from './block-source';
+import { BlockSource, type RemarkMark } from './block-source';
 import { CalcResult } from './calc-result';
 import { CriteriaResult } from './criteria-result';
 import { MatrixResult } from './matrix-result';
@@ -24,6 +24,7 @@ export type BlockCardProps = {
   readOnly: boolean;
   result: BlockResult | undefined;
   issues: readonly SheetIssue[];
+  remarks?: readonly RemarkMark[];
   stale: boolean;
   digits: number;
   names: (line: number) => ScopeName[];
@@ -165,6 +166,7 @@ export function BlockCard(props: BlockCardProps) {
             value={block.source}
             readOnly={readOnly}
             issues={issues}
+            {...(props.remarks ? { remarks: props.remarks } : {})}
             onChange={props.onChange}
             names={props.names}
             uploads={props.uploads}

@@ -75,7 +75,14 @@ export type BlockSourceProps = {
   uploads: () => string[];
   onMove: (delta: -1 | 1) => void;
   label: string;
+  /** Remarks of the latest revision not closed yet, at their line, shown in the gutter. */
+  remarks?: readonly RemarkMark[];
 };
+
+/** A remark to show at a line of the block (the line of the revision it was made on). */
+export type RemarkMark = { line: number; message: string };
+
+const NO_REMARKS: readonly RemarkMark[] = [];
 
 /** One block's source in CodeMirror, with our highlighting, completion and errors at their line. */
 export function BlockSource({
@@ -88,6 +95,7 @@ export function BlockSource({
   uploads,
   onMove,
   label,
+  remarks = NO_REMARKS,
 }: BlockSourceProps) {
   const view = useRef<EditorView | null>(null);
   // Completion and the move keys read the latest callbacks without reconfiguring the editor.
@@ -142,8 +150,19 @@ export function BlockSource({
         source: issue.code,
       };
     });
+    // Remarks to act on: an information mark in the gutter, the remark on hover.
+    for (const remark of remarks) {
+      const line = doc.line(Math.min(Math.max(remark.line, 1), doc.lines));
+      diagnostics.push({
+        from: line.from,
+        to: line.from,
+        severity: 'info',
+        message: remark.message,
+        source: 'remark',
+      });
+    }
     v.dispatch(setDiagnostics(v.state, diagnostics));
-  }, [issues, value]);
+  }, [issues, remarks, value]);
 
   return (
     <CodeMirror

@@ -17,6 +17,7 @@ import { namesInScope } from '../lib/scope';
 import { useAutosave } from '../lib/use-autosave';
 import { useEvaluation } from '../lib/use-evaluation';
 import { BlockCard, KIND_LABELS } from './block-card';
+import type { RemarkMark } from './block-source';
 import { ConflictDialog } from './conflict-dialog';
 import { SheetHeader } from './sheet-header';
 import { UploadZone } from './upload-zone';
@@ -35,9 +36,12 @@ const FROZEN_WORDS: Record<string, string> = {
 export function SheetEditor({
   sheetId,
   projectHref,
+  remarks,
 }: {
   sheetId: number;
   projectHref: (projectId: number) => string;
+  /** Remarks to act on, by block id, shown in the gutter of their block. */
+  remarks?: ReadonlyMap<string, readonly RemarkMark[]>;
 }) {
   const query = useSheet(sheetId);
   if (query.isPending) return <Spinner label="Loading the sheet…" />;
@@ -49,11 +53,20 @@ export function SheetEditor({
       key={query.data.sheet.id}
       sheet={query.data.sheet}
       projectHref={projectHref(query.data.sheet.projectId)}
+      {...(remarks ? { remarks } : {})}
     />
   );
 }
 
-function EditorSurface({ sheet, projectHref }: { sheet: SheetDetail; projectHref: string }) {
+function EditorSurface({
+  sheet,
+  projectHref,
+  remarks,
+}: {
+  sheet: SheetDetail;
+  projectHref: string;
+  remarks?: ReadonlyMap<string, readonly RemarkMark[]>;
+}) {
   // The draft is the author's working copy in every state: a sealed or checked revision stays as it
   // is, and what is typed here becomes the next revision when it is issued (a newer seal
   // supersedes the older one).
@@ -219,6 +232,7 @@ function EditorSurface({ sheet, projectHref }: { sheet: SheetDetail; projectHref
                 readOnly={!canEdit}
                 result={results?.blocks.find((r) => r.blockId === block.id)}
                 issues={issuesByBlock.get(block.id) ?? NO_ISSUES}
+                {...(remarks?.get(block.id) ? { remarks: remarks.get(block.id)! } : {})}
                 stale={evaluation.stale}
                 digits={settings.significantFigures}
                 names={(line) => namesInScope(blocks, index, line, results?.blocks)}

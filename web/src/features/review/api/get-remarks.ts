@@ -12,4 +12,5 @@ export const getRemarksQueryOptions = (revisionId: number) =>
     queryFn: () => getRemarks(revisionId),
   });
 
-export const useRemarks = (revisionId: number) => useQuery(getRemarksQueryOptions(revisionId));
+export const useRemarks = (revisionId: number, enabled = true) =>
+  useQuery({ ...getRemarksQueryOptions(revisionId), enabled });

@@ -25,4 +25,5 @@ export const getSheetReviewQueryOptions = (sheetId: number) =>
     queryFn: () => getSheetReview(sheetId),
   });
 
-export const useSheetReview = (sheetId: number) => useQuery(getSheetReviewQueryOptions(sheetId));
+export const useSheetReview = (sheetId: number, enabled = true) =>
+  useQuery({ ...getSheetReviewQueryOptions(sheetId), enabled });
