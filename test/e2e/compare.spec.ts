@@ -30,18 +30,18 @@ describe('compare two revisions (browser)', () => {
         .filter({ has: page.getByRole('cell', { name: block, exact: true }) })
         .filter({ has: page.getByRole('cell', { name: key, exact: true }) })
         .first();
-    const massRow = row('deck-data', 'm');
+    const massRow = row('Block 2 (calc) · deck-data', 'm');
     // m = 2.85 t/m in Rev 1 and 2.90 t/m in Rev 2 (seeds/02_demo_sheets.ts): +1.75 %.
     expect((await massRow.innerText()).replace(/\s+/g, ' ')).toBe(
-      'deck-data m 2.85 t/m 2.9 t/m +1.75 %',
+      'Block 2 (calc) · deck-data m 2.85 t/m 2.9 t/m +1.75 %',
     );
     // A frequency to six significant figures, not seventeen.
-    const f1 = row('deck-vertical', 'mode 1 f');
+    const f1 = row('Block 4 (modes) · deck-vertical', 'mode 1 f');
     expect(await f1.innerText()).toMatch(/\b\d\.\d{5} Hz\s+\d\.\d{5} Hz\s+−0\.866 %/);
 
     // Mode ratios unchanged but for rounding, and ratios of modes that do not move in the direction
     // (2.5e-14: zero), are folded away and counted.
-    expect(await row('deck-vertical', 'mode 2 ratio').isVisible()).toBe(false);
+    expect(await row('Block 4 (modes) · deck-vertical', 'mode 2 ratio').isVisible()).toBe(false);
     const folded = results.locator('details');
     expect(await folded.locator('summary').innerText()).toMatch(
       /^\d+ results? differ only by rounding/,
@@ -50,7 +50,7 @@ describe('compare two revisions (browser)', () => {
       await folded.getByRole('row').filter({ hasText: 'mode 1 ratio' }).first().isVisible(),
     ).toBe(false);
 
-    const source = page.getByRole('article', { name: 'Block deck-data' });
+    const source = page.getByRole('article', { name: 'Block 2 (calc) · deck-data' });
     await source.getByText('2 remarks on this block (listed below).').waitFor();
     await saveScreenshot(page, 'compare-rev1-rev2');
   });

@@ -18,6 +18,21 @@ const count = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
 const sideLabel = (side: CompareSide) =>
   side.kind === 'draft' ? `the draft (version ${side.draftVersion})` : `Rev ${side.number}`;
 
+/** Generated ids (b + 12 hex digits) mean nothing to a reader; named ones (deck-data) do. */
+const GENERATED_ID = /^b[0-9a-f]{12}$/;
+
+/**
+ * A block as the reader knows it: its place and kind ("Block 2 (calc)", the place in the newer
+ * side), with its id when the author named it.
+ */
+function blockName(comparison: Comparison, blockId: string): string {
+  const b = comparison.blocks.find((x) => x.blockId === blockId);
+  if (!b) return `Block ${blockId}`;
+  const index = b.newIndex ?? b.oldIndex;
+  const place = index === null ? 'Block' : `Block ${index + 1}`;
+  return `${place} (${b.kind})${GENERATED_ID.test(blockId) ? '' : ` · ${blockId}`}`;
+}
+
 const STATUS_WORDS: Record<BlockChange['status'], string> = {
   added: 'added',
   removed: 'removed',
@@ -179,14 +194,14 @@ function Result({
           <p className="text-sm text-ink-soft">No result changed.</p>
         ) : (
           <>
-            {real.length > 0 ? <ResultTable rows={real} /> : null}
+            {real.length > 0 ? <ResultTable rows={real} comparison={comparison} /> : null}
             {rounding.length > 0 ? (
               <details className="text-sm text-ink-soft">
                 <summary className="cursor-pointer">
                   {count(rounding.length, 'result')} differ only by rounding (less than 1 part in
                   10⁹)
                 </summary>
-                <ResultTable rows={rounding} />
+                <ResultTable rows={rounding} comparison={comparison} />
               </details>
             ) : null}
           </>
@@ -215,7 +230,7 @@ function Result({
                 >
                   Rev {r.revisionNumber}
                 </Link>
-                , block {r.blockId} line {r.line} ({r.type}, {r.state}): {r.text}
+                , {blockName(comparison, r.blockId)}, line {r.line} ({r.type}, {r.state}): {r.text}
                 <span className="ml-2 text-xs text-ink-soft">
                   {r.mapped.status === 'gone'
                     ? '— that line is gone on the other side'
@@ -238,11 +253,11 @@ function BlockDiff({ change, comparison }: { change: BlockChange; comparison: Co
   const remarksHere = comparison.remarks.filter((r) => r.blockId === change.blockId);
   return (
     <article
-      aria-label={`Block ${change.blockId}`}
+      aria-label={blockName(comparison, change.blockId)}
       className="rounded-sm border border-rule bg-paper-sheet"
     >
       <header className="border-b border-rule px-3 py-1 text-xs text-ink-soft">
-        Block {change.blockId} ({change.kind}) — {STATUS_WORDS[change.status]}
+        {blockName(comparison, change.blockId)} — {STATUS_WORDS[change.status]}
         {change.moved && change.status !== 'moved' ? ', moved' : ''}
         {change.oldIndex !== null && change.newIndex !== null && change.oldIndex !== change.newIndex
           ? ` (position ${change.oldIndex + 1} → ${change.newIndex + 1})`
@@ -291,7 +306,7 @@ function shownValue(value: string | null): string {
   return `${digits.replace('-', '−')}${match[2] ?? ''}`;
 }
 
-function ResultTable({ rows }: { rows: ResultChange[] }) {
+function ResultTable({ rows, comparison }: { rows: ResultChange[]; comparison: Comparison }) {
   return (
     <table className="w-full border-collapse text-sm">
       <thead>
@@ -306,7 +321,9 @@ function ResultTable({ rows }: { rows: ResultChange[] }) {
       <tbody>
         {rows.map((r) => (
           <tr key={`${r.blockId}-${r.key}`} className="border-b border-rule/60">
-            <td className="py-1 pr-3 font-mono text-xs">{r.blockId}</td>
+            <td className="py-1 pr-3 text-xs whitespace-nowrap">
+              {blockName(comparison, r.blockId)}
+            </td>
             <td className="py-1 pr-3">{r.key}</td>
             <td className="py-1 pr-3 font-mono text-xs" title={r.old ?? undefined}>
               {shownValue(r.old)}
