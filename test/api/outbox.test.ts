@@ -2,6 +2,7 @@ import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { SMTPServer, type SMTPServerDataStream, type SMTPServerSession } from 'smtp-server';
 import { createMailer } from '../../api/mail/mailer';
+import { blockLabel } from '../../api/modules/revisions/review-mail';
 import {
   createSheetWithDraft,
   anonymous,
@@ -76,7 +77,7 @@ describe('mail on each transition (outbox transport)', () => {
     box = await messages();
     expect(box[0]).toMatchObject({ to: [team.author.email] });
     expect(box[0]!.subject).toMatch(/new query remark/);
-    expect(box[0]!.text).toContain('block calc, line 2');
+    expect(box[0]!.text).toContain('block 1 (calc, calc), line 2');
 
     await checker.post(`/api/revisions/${rev1.body.revision.id}/return`);
     box = await messages();
@@ -185,5 +186,19 @@ describe('createMailer with MW_SMTP_URL', () => {
     expect(received[0]!.data).toContain('X-Modewright-Kind: revision.issued');
     const after = Number((await t.db('outbox').count({ n: '*' }).first())?.n);
     expect(after).toBe(before);
+  });
+});
+
+describe('blockLabel (how a mail names a block)', () => {
+  it('names a block by place and kind, with the id only when the author named it', () => {
+    const blocks = [
+      { id: 'storeys', kind: 'calc' },
+      { id: 'b1a2b3c4d5e6f', kind: 'modes' },
+      { id: 'b0123456789ab', kind: 'modes' },
+    ];
+    expect(blockLabel(blocks, 'storeys')).toBe('block 1 (calc, storeys)');
+    // b + 12 hex digits is the editor's generated id: meaningless to a reader
+    expect(blockLabel(blocks, 'b0123456789ab')).toBe('block 3 (modes)');
+    expect(blockLabel(blocks, 'gone')).toBe('block gone');
   });
 });

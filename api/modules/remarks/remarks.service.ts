@@ -1,7 +1,7 @@
 import { blockLines } from '../../../core/index';
 import { AppError, NotFoundError, ValidationError } from '../../http/errors';
 import type { User } from '../users/users.repository';
-import { remarkMail } from '../revisions/review-mail';
+import { blockLabel, remarkMail } from '../revisions/review-mail';
 import { recordReviewActivity, sendAfterCommit, type ReviewDeps } from '../revisions/review-deps';
 import { reviewRepository } from '../revisions/review.repository';
 import { revisionAccess, wrongState } from '../revisions/revisions.service';
@@ -100,7 +100,7 @@ export const remarksService = {
         revisionNumber: rev.number,
         by: user.name,
         type: input.type,
-        blockId: input.blockId,
+        block: blockLabel(rev.blocks, input.blockId),
         line: input.line,
         text: input.text,
       }),
@@ -151,7 +151,7 @@ export const remarksService = {
         kind: 'remark.replied',
         relatedSheetId: sheet.id,
         subject: `[${sheet.projectJobNumber}] ${sheet.number} Rev ${rev.number}: reply to your remark`,
-        text: `${user.name} replied to your remark on block ${remark.blockId}, line ${remark.line}:\n\n"${text}"`,
+        text: `${user.name} replied to your remark on ${blockLabel(rev.blocks, remark.blockId)}, line ${remark.line}:\n\n"${text}"`,
       });
     }
     const updated = await remarksRepository.findById(deps.db, remark.id);

@@ -1,6 +1,23 @@
 import type { MailMessage } from '../../mail/mailer';
 import type { SheetContext } from './review.repository';
 
+/** Generated block ids (b + 12 hex digits) mean nothing to a reader; named ones do. */
+const GENERATED_ID = /^b[0-9a-f]{12}$/;
+
+/**
+ * A block as the reader of a mail knows it: "block 2 (calc)", with the id the author gave it
+ * ("block 2 (calc, storeys)"); the bare id when the revision has no such block.
+ */
+export function blockLabel(
+  blocks: readonly { id: string; kind: string }[],
+  blockId: string,
+): string {
+  const i = blocks.findIndex((b) => b.id === blockId);
+  if (i < 0) return `block ${blockId}`;
+  const named = GENERATED_ID.test(blockId) ? '' : `, ${blockId}`;
+  return `block ${i + 1} (${blocks[i]!.kind}${named})`;
+}
+
 /** The texts of the messages sent to whoever must act next (DESIGN §6). */
 
 function sheetLine(sheet: SheetContext): string {
@@ -63,7 +80,8 @@ export function remarkMail(
     revisionNumber: number;
     by: string;
     type: string;
-    blockId: string;
+    /** How the mail names the block: blockLabel(). */
+    block: string;
     line: number;
     text: string;
   },
@@ -74,7 +92,7 @@ export function remarkMail(
     relatedSheetId: sheet.id,
     subject: `[${sheet.projectJobNumber}] ${sheet.number} Rev ${r.revisionNumber}: new ${r.type} remark`,
     text:
-      `${r.by} left a ${r.type} remark on block ${r.blockId}, line ${r.line} of Rev ${r.revisionNumber}.` +
+      `${r.by} left a ${r.type} remark on ${r.block}, line ${r.line} of Rev ${r.revisionNumber}.` +
       `\n${sheetLine(sheet)}\n\n"${r.text}"${footer}`,
   };
 }

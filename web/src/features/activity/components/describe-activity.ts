@@ -142,7 +142,11 @@ const DESCRIBERS: Record<string, Describer> = {
       text:
         `made ${type ? `${/^[aeiou]/.test(type) ? 'an' : 'a'} ${type} remark` : 'a remark'} on ` +
         `${revisionName(e, d)}${line === null ? '' : `, line ${line}`}`,
-      facts: str(d.blockId) ? [`block ${String(d.blockId)}`] : [],
+      // the block's own name when the author gave it one (the editor's b + 12 hex ids say nothing)
+      facts:
+        str(d.blockId) && !/^b[0-9a-f]{12}$/.test(String(d.blockId))
+          ? [`block ${String(d.blockId)}`]
+          : [],
     };
   },
   'remark.replied': (e, d) => ({
