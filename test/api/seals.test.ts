@@ -8,6 +8,7 @@ import {
   type ApiClient,
   type TestApp,
 } from '../support/api-app';
+import { chainMatrixMarket, chainOmega } from '../support/chain-files';
 import { addMember, createProjectTeam, createUser, unique } from '../support/factories';
 import {
   up as contentTriggerUp,
@@ -276,13 +277,7 @@ describe('sealing a sheet built on a large uploaded model', () => {
   it('reproduces the sparse solve on the server and seals it', async () => {
     // A 1 000-DOF fixed–free chain as Matrix Market (k = 1e6 N/m, m = 1e3 kg): kept sparse.
     const n = 1000;
-    const k = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${2 * n - 1}`];
-    for (let i = 1; i <= n; i++) {
-      k.push(`${i} ${i} ${i === n ? 1e6 : 2e6}`);
-      if (i < n) k.push(`${i + 1} ${i} -1e6`);
-    }
-    const m = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${n}`];
-    for (let i = 1; i <= n; i++) m.push(`${i} ${i} 1000`);
+    const files = chainMatrixMarket(n, 1e6, 1e3);
     const sheet = await createSheetWithDraft(
       author,
       team.project.id,
@@ -293,14 +288,14 @@ describe('sealing a sheet built on a large uploaded model', () => {
         { id: 's', kind: 'modes', source: 'name: chain\nstiffness: K\nmass: M\ncount: 3' },
       ],
     );
-    for (const [name, lines] of [
-      ['chain-k.mtx', k],
-      ['chain-m.mtx', m],
+    for (const [name, text] of [
+      ['chain-k.mtx', files.K],
+      ['chain-m.mtx', files.M],
     ] as const) {
       const res = await author.agent
         .post(`/api/sheets/${sheet.id}/uploads`)
         .set('X-CSRF-Token', author.csrfToken)
-        .attach('file', Buffer.from(lines.join('\n') + '\n'), name);
+        .attach('file', Buffer.from(text), name);
       expect(res.status, JSON.stringify(res.body)).toBe(201);
     }
     const revId = await signedOff(sheet.id);
@@ -309,7 +304,7 @@ describe('sealing a sheet built on a large uploaded model', () => {
     expect(results.errors).toEqual([]);
     expect(results.blocks[0]).toMatchObject({ storage: 'sparse', rows: n, nonzeros: 3 * n - 2 });
     // ω₁ = 2 √(k/m) sin(π / (2 (2n + 1))) (REFERENCES.md item 2, the chain's closed form).
-    const w1 = 2 * Math.sqrt(1e6 / 1e3) * Math.sin(Math.PI / (2 * (2 * n + 1)));
+    const w1 = chainOmega(n, 1e6, 1e3, 1);
     expect(Math.abs(results.blocks[2].modes[0].omega - w1) / w1).toBeLessThan(1e-8);
     const sealed = await principal.post(`/api/revisions/${revId}/seal`, {
       password: team.principal.password,

@@ -261,21 +261,26 @@ function parseEvents(text: string): { event: string; data: unknown }[] {
     });
 }
 
+/** POST …/evaluate/stream, the whole event stream read as text. */
+function stream(client: ApiClient, sheetId: number, blocks: unknown[]) {
+  return client
+    .post(`/api/sheets/${sheetId}/evaluate/stream`, {
+      blocks,
+      settings: { significantFigures: 4 },
+    })
+    .buffer(true)
+    .parse((response, callback) => {
+      let body = '';
+      response.setEncoding('utf8');
+      response.on('data', (chunk: string) => (body += chunk));
+      response.on('end', () => callback(null, body));
+    });
+}
+
 describe('POST /api/sheets/:sheetId/evaluate/stream', () => {
   it('streams progress for each block, then the result', async () => {
     const sheet = await newSheet('four-storey-frame');
-    const res = await viewer
-      .post(`/api/sheets/${sheet.id}/evaluate/stream`, {
-        blocks: sheet.blocks,
-        settings: { significantFigures: 4 },
-      })
-      .buffer(true)
-      .parse((response, callback) => {
-        let body = '';
-        response.setEncoding('utf8');
-        response.on('data', (chunk: string) => (body += chunk));
-        response.on('end', () => callback(null, body));
-      });
+    const res = await stream(viewer, sheet.id, sheet.blocks);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toContain('text/event-stream');
     const events = parseEvents(res.body as string);
@@ -307,18 +312,7 @@ describe('POST /api/sheets/:sheetId/evaluate/stream', () => {
           'name: girder_modes\nstiffness: girder.K\nmass: girder.M\nmethod: inverse\ncount: 4',
       },
     ];
-    const res = await author
-      .post(`/api/sheets/${sheet.id}/evaluate/stream`, {
-        blocks,
-        settings: { significantFigures: 4 },
-      })
-      .buffer(true)
-      .parse((response, callback) => {
-        let body = '';
-        response.setEncoding('utf8');
-        response.on('data', (chunk: string) => (body += chunk));
-        response.on('end', () => callback(null, body));
-      });
+    const res = await stream(author, sheet.id, blocks);
     expect(res.status).toBe(200);
     const solving = parseEvents(res.body as string)
       .filter((e) => e.event === 'progress')

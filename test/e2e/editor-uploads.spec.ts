@@ -5,6 +5,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { saveScreenshot } from '../support/browser';
+import { chainMatrixMarket } from '../support/chain-files';
 import {
   FIXTURES,
   RUN,
@@ -46,15 +47,9 @@ describe('sheet editor: uploads and matrices (browser)', () => {
     // dense form (4 million entries) is beyond what a sheet value holds.
     const n = 2000;
     const dir = await mkdtemp(path.join(os.tmpdir(), 'mw-large-'));
-    const k = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${2 * n - 1}`];
-    for (let i = 1; i <= n; i++) {
-      k.push(`${i} ${i} ${i === n ? 1e6 : 2e6}`);
-      if (i < n) k.push(`${i + 1} ${i} -1e6`);
-    }
-    const m = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${n}`];
-    for (let i = 1; i <= n; i++) m.push(`${i} ${i} 1000`);
-    await writeFile(path.join(dir, 'long_K.mtx'), k.join('\n') + '\n');
-    await writeFile(path.join(dir, 'long_M.mtx'), m.join('\n') + '\n');
+    const files = chainMatrixMarket(n, 1e6, 1e3);
+    await writeFile(path.join(dir, 'long_K.mtx'), files.K);
+    await writeFile(path.join(dir, 'long_M.mtx'), files.M);
     await newSheet(page, `E2E-X${RUN}`, 'Exported chain');
     const before = await blockCount(page);
     await page

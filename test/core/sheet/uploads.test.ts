@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { evaluateSheet, type MatrixBlockResult, type ModesBlockResult } from '../../../core/index';
+import { chainMatrixMarket, chainOmega } from '../../support/chain-files';
 
 // The two-storey frame of REFERENCES.md item 3 with k = 50 kN/mm and m = 100 t:
 // K = [[3k, −k], [−k, k]] (stiffnesses 2k and k), M = diag(2m, m); ω₁ = √(k/2m).
@@ -91,20 +92,12 @@ describe('matrix blocks from uploads', () => {
 });
 
 describe('large uploaded models stay sparse', () => {
-  // A fixed–free chain of n equal masses m and springs k, as an analysis program would export it:
-  // K tridiagonal (2k on the diagonal, k at the free end, −k beside it), M = m I.
-  // Closed form (REFERENCES.md item 2): ω_j = 2 √(k/m) sin((2j − 1) π / (2 (2n + 1))).
+  // The fixed–free chain of test/support/chain-files.ts (REFERENCES.md item 2), as uploads.
   function chainFiles(n: number, k: number, m: number) {
-    const kLines = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${2 * n - 1}`];
-    for (let i = 1; i <= n; i++) {
-      kLines.push(`${i} ${i} ${i === n ? k : 2 * k}`);
-      if (i < n) kLines.push(`${i + 1} ${i} ${-k}`);
-    }
-    const mLines = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${n}`];
-    for (let i = 1; i <= n; i++) mLines.push(`${i} ${i} ${m}`);
+    const files = chainMatrixMarket(n, k, m);
     return [
-      { name: 'chain-K.mtx', text: kLines.join('\n') + '\n' },
-      { name: 'chain-M.mtx', text: mLines.join('\n') + '\n' },
+      { name: 'chain-K.mtx', text: files.K },
+      { name: 'chain-M.mtx', text: files.M },
     ];
   }
 
@@ -126,8 +119,7 @@ describe('large uploaded models stay sparse', () => {
     expect(K.value).toMatchObject({ type: 'matrix', rows: n, values: null, unit: 'kN / m' });
     const modes = (r.blocks[2] as ModesBlockResult).modes;
     // kN/m and t in SI: k = 1e6 N/m, m = 1e3 kg.
-    const w = (j: number) =>
-      2 * Math.sqrt(1e6 / 1e3) * Math.sin(((2 * j - 1) * Math.PI) / (2 * (2 * n + 1)));
+    const w = (j: number) => chainOmega(n, 1e6, 1e3, j);
     // The lowest modes of a long chain are ill-conditioned (λ_max/λ₁ ≈ 6e8): relative 1e-6.
     modes.forEach((mode, i) =>
       expect(Math.abs(mode.omega - w(i + 1)) / w(i + 1)).toBeLessThan(1e-6),
