@@ -14,7 +14,9 @@ describe('verify page, signed out (browser)', () => {
 
   it('asks for a code when the box is empty, without going to the server', async () => {
     const { page } = visitor;
-    await page.goto('/verify');
+    // Reached from the sign-in page, as a building official holding a printed sheet would.
+    await page.goto('/sign-in');
+    await page.getByRole('link', { name: 'Verify its seal' }).click();
     await page.getByRole('heading', { name: 'Verify a sealed calculation' }).waitFor();
     // No sign-in: the page is not sent to /sign-in.
     expect(new URL(page.url()).pathname).toBe('/verify');

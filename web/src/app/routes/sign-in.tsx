@@ -1,7 +1,7 @@
 import { useEffect } from 'react';
-import { Navigate, useNavigate, useSearchParams } from 'react-router-dom';
+import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import { Spinner } from '../../components/ui/spinner';
-import { safeRedirect } from '../../config/paths';
+import { paths, safeRedirect } from '../../config/paths';
 import { useMe } from '../../features/auth/api/get-me';
 import { SignInForm } from '../../features/auth/components/sign-in-form';
 import { Caution } from '../layout/caution';
@@ -37,6 +37,13 @@ export function SignInRoute() {
               <SignInForm onSignedIn={() => navigate(redirectTo, { replace: true })} />
             )}
           </div>
+          <p className="mt-4 text-sm text-ink-soft">
+            Holding a sealed sheet?{' '}
+            <Link to={paths.verify.href()} className="text-accent-strong hover:underline">
+              Verify its seal
+            </Link>{' '}
+            — no sign-in needed.
+          </p>
         </div>
       </main>
       <footer className="border-t border-rule px-6 py-3">
