@@ -307,12 +307,12 @@ function formatMatrix(m: Matrix, ctx: FormatContext): Formatted {
   return { value, display, latex };
 }
 
-/**
- * Formats any value a sheet line can produce.
- *
- * @throws EngineError SHEET_EVAL for non-finite numbers (division by zero), complex results,
- *   matrices mixing units, or values a sheet cannot show.
- */
+/** Text for LaTeX's \\text{…}: the characters LaTeX would read as commands blanked. */
+const plainText = (s: string): string => s.replace(/[\\{}$&#^_%~]/g, ' ');
+
+/** LaTeX of a quoted word as written: upright, in quotes, a hyphen staying a hyphen. */
+export const quotedTex = (s: string): string => `\\text{“${plainText(s)}”}`;
+
 /** LaTeX of an object's key: upright, with characters LaTeX would read as commands blanked. */
 export const texKey = (key: string): string =>
   `\\mathrm{${key.replace(/[^A-Za-z0-9_]/g, ' ').replace(/_/g, '\\_')}}`;
@@ -342,6 +342,12 @@ function objectSummaryTex(fields: Record<string, SheetValue>): string {
   return `\\left\\{${parts.join(',\\ ')}\\right\\}`;
 }
 
+/**
+ * Formats any value a sheet line can produce.
+ *
+ * @throws EngineError SHEET_EVAL for non-finite numbers (division by zero), complex results,
+ *   matrices mixing units, or values a sheet cannot show.
+ */
 export function formatValue(v: unknown, ctx: FormatContext, depth = 0): Formatted {
   const { math } = ctx;
   if (typeof v === 'number' || isUnit(math, v)) return formatScalar(v, ctx);
@@ -353,11 +359,10 @@ export function formatValue(v: unknown, ctx: FormatContext, depth = 0): Formatte
     };
   }
   if (typeof v === 'string') {
-    const safe = v.replace(/[\\{}$&#^_%~]/g, ' ');
     return {
       value: { type: 'string', value: v },
       display: JSON.stringify(v),
-      latex: `\\text{“${safe}”}`,
+      latex: quotedTex(v),
     };
   }
   if (v instanceof LargeMatrix) {
@@ -380,7 +385,7 @@ export function formatValue(v: unknown, ctx: FormatContext, depth = 0): Formatte
     return {
       value: { type: 'function', signature: sig },
       display: sig,
-      latex: `\\text{${sig.replace(/[\\{}$&#^_%~]/g, ' ')}}`,
+      latex: `\\text{${plainText(sig)}}`,
     };
   }
   if (v !== null && typeof v === 'object' && Object.getPrototypeOf(v) === Object.prototype) {

@@ -4,7 +4,7 @@
  * in which every name is replaced by its value with its unit.
  */
 import type { MathNode } from 'mathjs';
-import { formatValue, texKey, type FormatContext } from './format';
+import { formatValue, quotedTex, texKey, type FormatContext } from './format';
 
 const GREEK = new Set([
   'alpha',
@@ -144,8 +144,7 @@ export function expressionTex(node: MathNode, ctx: TexContext): string {
       n.type === 'ConstantNode' &&
       typeof (n as unknown as { value: unknown }).value === 'string'
     ) {
-      const text = (n as unknown as { value: string }).value.replace(/[\\{}$&#^_%~]/g, ' ');
-      return ` \\text{“${text}”}`;
+      return ` ${quotedTex((n as unknown as { value: string }).value)}`;
     }
     // An object argument ({E: E, I: I_v, …}) as it is written, not as a table; plain braces
     // and \\allowbreak after each entry so a long call wraps in a narrow column.

@@ -171,8 +171,8 @@ export interface MatrixBlockResult extends BlockResultBase {
   symmetric: boolean;
   asymmetry: Asymmetry | null;
   value: SheetValue | null;
-  /** 'sparse' for a large uploaded model matrix, kept sparse (absent before engine 0.4.2). */
-  storage?: 'dense' | 'sparse';
+  /** Set for a large uploaded model matrix, kept sparse (absent otherwise, and before 0.4.2). */
+  storage?: 'sparse';
   /** Nonzeros of a sparse matrix (both triangles). */
   nonzeros?: number;
 }

@@ -18,8 +18,6 @@ import { expressionTex } from '../latex';
 import { evaluateStatements } from './statements';
 import type { CriteriaBlockResult, CriterionResult, SheetBlock } from '../types';
 
-const COMPARISONS = new Set(['larger', 'smaller', 'largerEq', 'smallerEq', 'equal', 'unequal']);
-
 function sideDisplay(ctx: EvalContext, node: MathNode): string | null {
   try {
     const v = evaluateNode(ctx, node, new Map(ctx.scope));
@@ -29,14 +27,15 @@ function sideDisplay(ctx: EvalContext, node: MathNode): string | null {
   }
 }
 
-const SYMBOLS: Record<string, string> = {
-  larger: '>',
-  smaller: '<',
-  largerEq: '>=',
-  smallerEq: '<=',
-  equal: '==',
-  unequal: '!=',
-};
+/** The comparisons a criterion may make (mathjs operator names) and how they are written. */
+const SYMBOLS = new Map([
+  ['larger', '>'],
+  ['smaller', '<'],
+  ['largerEq', '>='],
+  ['smallerEq', '<='],
+  ['equal', '=='],
+  ['unequal', '!='],
+]);
 const LOGICAL = new Set(['and', 'or', 'xor']);
 
 /**
@@ -55,10 +54,10 @@ function compoundDisplay(ctx: EvalContext, node: MathNode): string | null {
     return inner === null ? null : `(${inner})`;
   }
   if (op.type === 'OperatorNode' && op.fn && op.args) {
-    if (SYMBOLS[op.fn] && op.args.length === 2) {
+    if (SYMBOLS.has(op.fn) && op.args.length === 2) {
       const a = sideDisplay(ctx, op.args[0]!);
       const b = sideDisplay(ctx, op.args[1]!);
-      return a === null || b === null ? null : `${a} ${SYMBOLS[op.fn]} ${b}`;
+      return a === null || b === null ? null : `${a} ${SYMBOLS.get(op.fn)} ${b}`;
     }
     if (LOGICAL.has(op.fn) && op.args.length === 2) {
       const a = compoundDisplay(ctx, op.args[0]!);
@@ -103,7 +102,7 @@ export function evaluateCriterion(
   const op = node as unknown as { type: string; fn?: string; args?: MathNode[] };
   let lhs: string | null = null;
   let rhs: string | null = null;
-  if (op.type === 'OperatorNode' && op.fn && COMPARISONS.has(op.fn) && op.args?.length === 2) {
+  if (op.type === 'OperatorNode' && op.fn && SYMBOLS.has(op.fn) && op.args?.length === 2) {
     lhs = sideDisplay(ctx, op.args[0]!);
     rhs = sideDisplay(ctx, op.args[1]!);
   }
