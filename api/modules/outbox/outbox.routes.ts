@@ -22,13 +22,8 @@ const outboxQuery = z.object({
 export function createOutboxRouter({ db }: AppContext): Router {
   const router = Router();
   router.get('/', requireSignedIn, async (req, res) => {
-    const user = currentUser(req);
     const q = parse(outboxQuery, req.query, 'query');
-    const recipient = user.isAdmin ? undefined : user.email;
-    res.json({
-      scope: recipient === undefined ? 'all' : 'mine',
-      messages: await outboxService.list(db, { ...q, ...(recipient ? { recipient } : {}) }),
-    });
+    res.json(await outboxService.listFor(db, currentUser(req), q));
   });
   return router;
 }

@@ -1,16 +1,22 @@
 import type { Db } from '../../db/index';
+import type { User } from '../users/users.repository';
 import { outboxRepository, type OutboxMessage } from './outbox.repository';
 
 export const outboxService = {
-  /** Newest first; with `recipient`, only the messages addressed to that e-mail address. */
-  list(
+  /**
+   * The mail a person may read, newest first: an administrator all of it (`scope: 'all'`),
+   * everyone else the messages addressed to their e-mail address (`scope: 'mine'`).
+   */
+  async listFor(
     db: Db,
-    filter: { sheetId?: number; limit?: number; recipient?: string },
-  ): Promise<OutboxMessage[]> {
-    return outboxRepository.list(db, {
+    user: User,
+    filter: { sheetId?: number; limit?: number },
+  ): Promise<{ scope: 'all' | 'mine'; messages: OutboxMessage[] }> {
+    const messages = await outboxRepository.list(db, {
       limit: filter.limit ?? 200,
       ...(filter.sheetId === undefined ? {} : { relatedSheetId: filter.sheetId }),
-      ...(filter.recipient === undefined ? {} : { recipient: filter.recipient }),
+      ...(user.isAdmin ? {} : { recipient: user.email }),
     });
+    return { scope: user.isAdmin ? 'all' : 'mine', messages };
   },
 };
