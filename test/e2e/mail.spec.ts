@@ -8,7 +8,16 @@ import {
   saveScreenshot,
   signInAs,
   type BrowserSession,
+  type DemoPerson,
 } from '../support/browser';
+import type { Page } from 'playwright-core';
+
+/** Signs a person in and opens the mail page from the main navigation. */
+async function openMail(page: Page, person: DemoPerson, link: string, heading: string) {
+  await signInAs(page, person);
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: link }).click();
+  await page.getByRole('heading', { name: heading }).waitFor();
+}
 
 describe('mail (browser)', () => {
   let session: BrowserSession;
@@ -25,12 +34,7 @@ describe('mail (browser)', () => {
 
   it('shows the checker the messages addressed to them, and only those', async () => {
     const { page } = session;
-    await signInAs(page, demoPeople.tomasz);
-    await page
-      .getByRole('navigation', { name: 'Main' })
-      .getByRole('link', { name: 'Mail' })
-      .click();
-    await page.getByRole('heading', { name: 'Your mail' }).waitFor();
+    await openMail(page, demoPeople.tomasz, 'Mail', 'Your mail');
     await page.getByText(`The messages sent to ${demoPeople.tomasz.email}.`).waitFor();
     const list = page.getByRole('list', { name: 'Messages' });
     await list
@@ -61,12 +65,7 @@ describe('mail (browser)', () => {
 
   it("gives the admin every message under Outbox, the author's among them", async () => {
     const { page } = session;
-    await signInAs(page, demoPeople.ada);
-    await page
-      .getByRole('navigation', { name: 'Main' })
-      .getByRole('link', { name: 'Outbox' })
-      .click();
-    await page.getByRole('heading', { name: 'Outbox' }).waitFor();
+    await openMail(page, demoPeople.ada, 'Outbox', 'Outbox');
     const list = page.getByRole('list', { name: 'Messages' });
     await list.getByText(demoPeople.ines.email).first().waitFor();
     await list.getByText(demoPeople.tomasz.email).first().waitFor();

@@ -4,7 +4,7 @@ import { Alert } from '../../components/ui/alert';
 import { Spinner } from '../../components/ui/spinner';
 import { Section } from '../../components/ui/section';
 import { paths } from '../../config/paths';
-import { useDraftRemarkMarks } from '../../features/review/api/use-draft-remark-marks';
+import { useDraftRemarkMarks } from '../../features/review/api/pending-remarks';
 import {
   IssueForCheck,
   RevisionList,

@@ -1,3 +1,4 @@
+import { isGeneratedBlockId } from '../../../lib/block-ids';
 import type { ActivityEntry } from '../../../types/api';
 
 // The activity log in sentences a checker can read aloud: "Tomasz Reyes made an error remark on
@@ -142,9 +143,9 @@ const DESCRIBERS: Record<string, Describer> = {
       text:
         `made ${type ? `${/^[aeiou]/.test(type) ? 'an' : 'a'} ${type} remark` : 'a remark'} on ` +
         `${revisionName(e, d)}${line === null ? '' : `, line ${line}`}`,
-      // the block's own name when the author gave it one (the editor's b + 12 hex ids say nothing)
+      // the block's own name when the author gave it one
       facts:
-        str(d.blockId) && !/^b[0-9a-f]{12}$/.test(String(d.blockId))
+        str(d.blockId) && !isGeneratedBlockId(String(d.blockId))
           ? [`block ${String(d.blockId)}`]
           : [],
     };

@@ -3,6 +3,7 @@ import { Link } from 'react-router-dom';
 import { QueryError } from '../../../components/ui/alert';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { Spinner } from '../../../components/ui/spinner';
+import { isGeneratedBlockId } from '../../../lib/block-ids';
 import {
   useComparison,
   useRevisionChoices,
@@ -18,9 +19,6 @@ const count = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
 const sideLabel = (side: CompareSide) =>
   side.kind === 'draft' ? `the draft (version ${side.draftVersion})` : `Rev ${side.number}`;
 
-/** Generated ids (b + 12 hex digits) mean nothing to a reader; named ones (deck-data) do. */
-const GENERATED_ID = /^b[0-9a-f]{12}$/;
-
 /**
  * A block as the reader knows it: its place and kind ("Block 2 (calc)", the place in the newer
  * side), with its id when the author named it.
@@ -30,7 +28,7 @@ function blockName(comparison: Comparison, blockId: string): string {
   if (!b) return `Block ${blockId}`;
   const index = b.newIndex ?? b.oldIndex;
   const place = index === null ? 'Block' : `Block ${index + 1}`;
-  return `${place} (${b.kind})${GENERATED_ID.test(blockId) ? '' : ` · ${blockId}`}`;
+  return `${place} (${b.kind})${isGeneratedBlockId(blockId) ? '' : ` · ${blockId}`}`;
 }
 
 const STATUS_WORDS: Record<BlockChange['status'], string> = {

@@ -1,6 +1,6 @@
 import type { Block, BlockKind, Draft } from '../api/types';
 
-/** A fresh block id, stable across revisions once saved. */
+/** A fresh block id, stable across revisions once saved (its shape: lib/block-ids.ts). */
 export function newBlockId(): string {
   const bytes = new Uint8Array(6);
   crypto.getRandomValues(bytes);

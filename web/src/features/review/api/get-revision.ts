@@ -12,4 +12,5 @@ export const getRevisionQueryOptions = (revisionId: number) =>
     queryFn: () => getRevision(revisionId),
   });
 
-export const useRevision = (revisionId: number) => useQuery(getRevisionQueryOptions(revisionId));
+export const useRevision = (revisionId: number, enabled = true) =>
+  useQuery({ ...getRevisionQueryOptions(revisionId), enabled });

@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import { QueryError } from '../../../components/ui/alert';
-import { useRemarks } from '../api/get-remarks';
 import { useRevision } from '../api/get-revision';
+import { usePendingRemarks } from '../api/pending-remarks';
 import { REMARK_STATE_LABELS, REMARK_TYPE_LABELS, type Remark } from '../api/types';
 
 /**
@@ -30,32 +30,31 @@ async function goToLine(blockId: string, line: number): Promise<boolean> {
  * line in the draft and to the thread on the revision.
  */
 export function DraftRemarks({
-  revision,
+  sheetId,
   revisionHref,
 }: {
-  revision: { id: number; number: number; status: string };
+  sheetId: number;
   revisionHref: (revisionId: number) => string;
 }) {
-  const remarks = useRemarks(revision.id);
-  const detail = useRevision(revision.id);
+  const { revision, remarks: pending, query } = usePendingRemarks(sheetId);
+  const detail = useRevision(revision?.id ?? 0, revision !== null);
   // "Block 2 (calc)", as the revision page names the block the remark is on.
   const blockLabel = (blockId: string) => {
     const blocks = detail.data?.blocks ?? [];
     const i = blocks.findIndex((b) => b.id === blockId);
     return i < 0 ? `Block ${blockId}` : `Block ${i + 1} (${blocks[i]!.kind})`;
   };
-  if (remarks.isPending) return null;
-  if (remarks.isError) {
+  if (!revision) return null;
+  if (query.isError) {
     return (
       <QueryError
         what={`the remarks on Rev ${revision.number}`}
-        error={remarks.error}
-        onRetry={() => remarks.refetch()}
+        error={query.error}
+        onRetry={() => query.refetch()}
       />
     );
   }
-  const pending = remarks.data.filter((r) => r.state !== 'closed');
-  if (pending.length === 0) return null;
+  if (!pending || pending.length === 0) return null;
   const returned = revision.status === 'returned';
   return (
     <div

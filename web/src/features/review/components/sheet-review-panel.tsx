@@ -65,11 +65,7 @@ export function IssueForCheck({
         )}
         {canIssue && !open ? <Button onClick={() => setOpen(true)}>Issue for check</Button> : null}
       </div>
-      {s.latestRevision &&
-      s.myRoles.includes('author') &&
-      (s.latestRevision.status === 'returned' || s.latestRevision.status === 'in_check') ? (
-        <DraftRemarks revision={s.latestRevision} revisionHref={revisionHref} />
-      ) : null}
+      <DraftRemarks sheetId={sheetId} revisionHref={revisionHref} />
       {open ? (
         <form
           onSubmit={submit}
