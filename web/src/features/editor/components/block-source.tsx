@@ -2,7 +2,7 @@ import { linter, lintGutter, setDiagnostics, type Diagnostic } from '@codemirror
 import { Prec } from '@codemirror/state';
 import { EditorView, keymap } from '@codemirror/view';
 import CodeMirror from '@uiw/react-codemirror';
-import { useCallback, useEffect, useMemo, useRef } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { SheetIssue } from '../api/results';
 import type { BlockKind } from '../api/types';
 import { sheetCompletion } from '../lib/completion';
@@ -97,7 +97,9 @@ export function BlockSource({
   label,
   remarks = NO_REMARKS,
 }: BlockSourceProps) {
-  const view = useRef<EditorView | null>(null);
+  // The view is state, not a ref: the wrapper creates it in an effect of its own, possibly after
+  // the errors and remarks arrived, and they must be set on it once it exists.
+  const [view, setView] = useState<EditorView | null>(null);
   // Completion and the move keys read the latest callbacks without reconfiguring the editor.
   const live = useRef({ names, uploads, onMove, onChange });
   useEffect(() => {
@@ -133,7 +135,7 @@ export function BlockSource({
 
   // Errors from the last evaluation, underlined at their line; the message shows on hover.
   useEffect(() => {
-    const v = view.current;
+    const v = view;
     if (!v) return;
     const doc = v.state.doc;
     const diagnostics: Diagnostic[] = issues.map((issue) => {
@@ -162,7 +164,7 @@ export function BlockSource({
       });
     }
     v.dispatch(setDiagnostics(v.state, diagnostics));
-  }, [issues, remarks, value]);
+  }, [issues, remarks, value, view]);
 
   return (
     <CodeMirror
@@ -173,9 +175,7 @@ export function BlockSource({
       readOnly={readOnly}
       theme="none"
       basicSetup={readOnly ? READ_ONLY_SETUP : EDITING_SETUP}
-      onCreateEditor={(created) => {
-        view.current = created;
-      }}
+      onCreateEditor={(created) => setView(created)}
       className="overflow-hidden rounded-sm border border-rule"
     />
   );
