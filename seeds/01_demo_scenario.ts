@@ -1,5 +1,6 @@
 import type { Knex } from 'knex';
 import { hashPassword } from '../api/modules/auth/passwords';
+import { withDemoClock, type SetDemoClock } from './support/demo-clock';
 
 // The demo scenario (DESIGN §11): an invented firm, Brackwater Structural Ltd, its people and two
 // projects. Safe to re-run: people are matched by e-mail, projects by job number, memberships by
@@ -78,6 +79,12 @@ const projects = [
 ] as const;
 
 export async function seed(knex: Knex): Promise<void> {
+  await withDemoClock(knex, (db, at) => scenario(db, at));
+}
+
+// The people join four weeks before today, the projects start a week later (seeds/support).
+async function scenario(knex: Knex, at: SetDemoClock): Promise<void> {
+  await at(28, '08:30');
   const ids = new Map<string, number>();
   for (const person of people) {
     const existing: { id: number } | undefined = await knex('users')
@@ -105,6 +112,7 @@ export async function seed(knex: Knex): Promise<void> {
   }
   const adminId = ids.get('ada.brennan@brackwater.example') ?? null;
 
+  await at(21, '09:10');
   for (const project of projects) {
     await knex.transaction(async (trx) => {
       const fields = { name: project.name, client: project.client, site: project.site };

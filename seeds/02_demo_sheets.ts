@@ -3,6 +3,7 @@ import { usersRepository } from '../api/modules/users/users.repository';
 import { findSheetById, type SheetBlock } from '../api/modules/sheets/sheets.repository';
 import type { TemplateKey } from '../api/modules/sheets/sheets.schemas';
 import { sheetsService } from '../api/modules/sheets/sheets.service';
+import { withDemoClock, type SetDemoClock } from './support/demo-clock';
 
 // The demo sheets of DESIGN §11 in project BW-2611 (Kestrel Quay Footbridge and Pump House),
 // authored by Ines Marlow: drafts built from the templates through the sheets service, with the
@@ -86,7 +87,19 @@ function applyEdits(blocks: SheetBlock[], edits: DemoSheet['edits'], number: str
   });
 }
 
+// When Ines started each sheet and when she last saved its draft (days before today, UTC): the
+// footbridge first, the pump foundation last (seeds/support).
+const STARTED: Record<string, { made: [number, string]; saved: [number, string] }> = {
+  'DYN-01': { made: [18, '10:15'], saved: [15, '16:05'] },
+  'DYN-02': { made: [7, '11:00'], saved: [4, '15:20'] },
+  'DYN-03': { made: [2, '09:30'], saved: [1, '15:40'] },
+};
+
 export async function seed(knex: Knex): Promise<void> {
+  await withDemoClock(knex, (db, at) => sheets(db, at));
+}
+
+async function sheets(knex: Knex, at: SetDemoClock): Promise<void> {
   const project = (await knex('projects').where({ job_number: 'BW-2611' }).first('id')) as
     { id: number } | undefined;
   const ines = await usersRepository.findByEmail(knex, 'ines.marlow@brackwater.example');
@@ -98,6 +111,9 @@ export async function seed(knex: Knex): Promise<void> {
       .where({ project_id: project.id, number: demo.number })
       .first('id');
     if (exists) continue;
+    const when = STARTED[demo.number];
+    if (!when) throw new Error(`seed ${demo.number}: no day for it in STARTED`);
+    await at(...when.made);
     const sheet = await sheetsService.create(knex, ines, project.id, {
       number: demo.number,
       title: demo.title,
@@ -106,6 +122,7 @@ export async function seed(knex: Knex): Promise<void> {
     });
     const current = await findSheetById(knex, sheet.id);
     if (!current) throw new Error(`seed ${demo.number}: the sheet just made is missing`);
+    await at(...when.saved);
     await sheetsService.saveDraft(knex, ines, sheet.id, current.draftVersion, {
       blocks: applyEdits(current.draft.blocks, demo.edits, demo.number),
       settings: current.draft.settings,

@@ -10,14 +10,17 @@ import { findSheetById, type SheetBlock } from '../api/modules/sheets/sheets.rep
 import { sheetsService } from '../api/modules/sheets/sheets.service';
 import { usersRepository, type User } from '../api/modules/users/users.repository';
 import { DEMO_PASSWORD } from './01_demo_scenario';
+import { withDemoClock, type SetDemoClock } from './support/demo-clock';
 
 // The review stages of DESIGN §11, produced through the review services so that canonical texts,
 // digests, remark carry-over and the seal's signature are all real:
 //   DYN-01 footbridge       Rev 1 returned with a remark, Rev 2 signed off and sealed by Priya
 //   DYN-02 four-storey frame Rev 1 in check with an open remark
 //   DYN-03 pump foundation  still a draft
-// Safe to re-run: a sheet that already has a revision is left as it is. Mail goes wherever the
-// app's mail goes (the outbox table when MW_SMTP_URL is unset), like any other transition.
+// Each step at its day and time (seeds/support/demo-clock.ts): DYN-01 over the second and third
+// weeks before today, DYN-02 in the last few days. Safe to re-run: a sheet that already has a
+// revision is left as it is. Mail goes wherever the app's mail goes (the outbox table when
+// MW_SMTP_URL is unset), like any other transition.
 
 const quietLog: Logger = {
   info() {},
@@ -53,6 +56,10 @@ async function sheetByNumber(knex: Knex, projectId: number, number: string) {
 }
 
 export async function seed(knex: Knex): Promise<void> {
+  await withDemoClock(knex, (db, at) => review(db, at));
+}
+
+async function review(knex: Knex, at: SetDemoClock): Promise<void> {
   const project = (await knex('projects').where({ job_number: 'BW-2611' }).first('id')) as
     { id: number } | undefined;
   if (!project) throw new Error('seeds/03_demo_review needs project BW-2611 from seeds/01.');
@@ -69,8 +76,8 @@ export async function seed(knex: Knex): Promise<void> {
     log: quietLog,
   };
   try {
-    await footbridge(knex, deps, project.id, { ines, tomasz, priya });
-    await frame(knex, deps, project.id, { ines, tomasz });
+    await footbridge(knex, deps, at, project.id, { ines, tomasz, priya });
+    await frame(knex, deps, at, project.id, { ines, tomasz });
   } finally {
     mailer.close();
   }
@@ -79,12 +86,15 @@ export async function seed(knex: Knex): Promise<void> {
 async function footbridge(
   knex: Knex,
   deps: ReviewDeps,
+  at: SetDemoClock,
   projectId: number,
   p: { ines: User; tomasz: User; priya: User },
 ): Promise<void> {
   const { sheet, issued } = await sheetByNumber(knex, projectId, 'DYN-01');
   if (issued) return;
+  await at(14, '16:40');
   const rev1 = await revisionsService.issue(deps, p.ines, sheet.id, 'For check');
+  await at(13, '10:05');
   const massLine = lineStarting(sheet.draft.blocks, 'deck-data', 'm = ');
   const remark = await remarksService.create(deps, p.tomasz, rev1.id, {
     blockId: 'deck-data',
@@ -94,7 +104,9 @@ async function footbridge(
       'The 0.15 t/m for parapets and services looks light: the lighting conduits and the ' +
       'handrail heating cable are on drawing KQ-E-402. Please confirm the allowance.',
   });
+  await at(13, '10:12');
   await revisionsService.returnRevision(deps, p.tomasz, rev1.id);
+  await at(12, '09:30');
   await remarksService.reply(
     deps,
     p.ines,
@@ -119,34 +131,42 @@ async function footbridge(
     );
     return { ...b, source: lines.join('\n') };
   });
+  await at(12, '09:48');
   await sheetsService.saveDraft(knex, p.ines, sheet.id, current.draftVersion, {
     blocks,
     settings: current.draft.settings,
   });
+  await at(12, '10:02');
   const rev2 = await revisionsService.issue(
     deps,
     p.ines,
     sheet.id,
     'For construction — services mass revised after check',
   );
+  await at(11, '14:20');
   const carried = await remarksService.list(deps, p.tomasz, rev2.id);
   for (const r of carried) {
     await remarksService.reply(deps, p.tomasz, r.id, 'Checked against KQ-E-402: agreed.');
     await remarksService.setState(deps, p.tomasz, r.id, 'closed');
   }
+  await at(11, '14:26');
   await revisionsService.signOff(deps, p.tomasz, rev2.id);
+  await at(10, '09:15');
   await sealsService.seal(deps, p.priya, rev2.id, DEMO_PASSWORD);
 }
 
 async function frame(
   knex: Knex,
   deps: ReviewDeps,
+  at: SetDemoClock,
   projectId: number,
   p: { ines: User; tomasz: User },
 ): Promise<void> {
   const { sheet, issued } = await sheetByNumber(knex, projectId, 'DYN-02');
   if (issued) return;
+  await at(3, '17:10');
   const rev1 = await revisionsService.issue(deps, p.ines, sheet.id, 'For check');
+  await at(2, '11:30');
   await remarksService.create(deps, p.tomasz, rev1.id, {
     blockId: 'storeys',
     line: lineStarting(sheet.draft.blocks, 'storeys', 'k_4 = '),

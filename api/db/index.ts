@@ -6,6 +6,18 @@ import { knexConfig } from './knex-config';
 export type Db = Knex;
 export type DbOrTx = Knex | Knex.Transaction;
 
+/**
+ * The database's clock, NOW(3) in UTC: the times the services store come from the clock the
+ * column defaults use, so the rows of one action agree (and a seed can set the clock of its
+ * connection to tell a scenario's history).
+ */
+export async function dbNow(db: DbOrTx): Promise<Date> {
+  const [rows] = (await db.raw('select now(3) as now')) as [{ now: Date }[]];
+  const now = rows[0]?.now;
+  if (!(now instanceof Date)) throw new Error('the database did not answer NOW(3) with a time');
+  return now;
+}
+
 export function createDb(db: AppConfig['db']): Db {
   return createKnex(knexConfig(db));
 }

@@ -1,7 +1,7 @@
 import { execFileSync } from 'node:child_process';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTestApp, signedIn, type TestApp } from '../support/api-app';
+import { anonymous, createTestApp, signedIn, type TestApp } from '../support/api-app';
 
 // The demo scenario as the foundation contract lists it (DESIGN §11, invented names).
 const DEMO_PASSWORD = 'modewright-demo';
@@ -127,4 +127,49 @@ describe('seeds/01_demo_scenario', () => {
       expect(seen, email).toEqual(jobs);
     }
   }, 60_000);
+});
+
+describe('seeds/03_demo_review and the demo clock (seeds/support/demo-clock.ts)', () => {
+  const DAY = 86_400_000;
+  const footbridge = () =>
+    t
+      .db('revisions as r')
+      .join('sheets as s', 's.id', 'r.sheet_id')
+      .where('s.number', 'DYN-01')
+      .orderBy('r.number')
+      .select('r.id', 'r.number', 'r.issued_at', 'r.returned_at', 'r.checked_at', 'r.sealed_at');
+
+  it('tells the footbridge round over days, step after step, all before today', async () => {
+    const [rev1, rev2] = await footbridge();
+    const steps = [
+      rev1.issued_at,
+      rev1.returned_at,
+      rev2.issued_at,
+      rev2.checked_at,
+      rev2.sealed_at,
+    ];
+    const times = steps.map((d: Date) => new Date(d).getTime());
+    for (let i = 1; i < times.length; i += 1) expect(times[i]).toBeGreaterThan(times[i - 1]!);
+    expect(times.at(-1)! - times[0]!).toBeGreaterThan(3 * DAY);
+    const today = new Date();
+    today.setUTCHours(0, 0, 0, 0);
+    expect(times.at(-1)!).toBeLessThan(today.getTime());
+    // The remark was made after Rev 1 was issued and before it was returned; the activity of
+    // the project reads in the same order, with the people joining before the first sheet.
+    const remark = await t.db('remarks').where({ revision_id: rev1.id }).first('created_at');
+    const made = new Date(remark.created_at).getTime();
+    expect(made).toBeGreaterThan(times[0]!);
+    expect(made).toBeLessThan(times[1]!);
+    const sheet = await t.db('sheets').where({ number: 'DYN-01' }).first('created_at');
+    expect(new Date(sheet.created_at).getTime()).toBeLessThan(times[0]!);
+  });
+
+  it('seals with the time of the seal, which the public verification still finds genuine', async () => {
+    const [, rev2] = await footbridge();
+    const seal = await t.db('seals').where({ revision_id: rev2.id }).first('code', 'sealed_at');
+    const res = await (await anonymous(t.app)).get(`/api/verify/${seal.code}`).expect(200);
+    expect(res.body.verdict).toBe('genuine');
+    expect(res.body.sealedAt).toBe(new Date(rev2.sealed_at).toISOString());
+    expect(new Date(seal.sealed_at).toISOString()).toBe(res.body.sealedAt);
+  });
 });

@@ -8,6 +8,8 @@ export const accountRepository = {
   },
 
   async setPasswordHash(db: DbOrTx, userId: number, hash: string): Promise<void> {
-    await db('users').where({ id: userId }).update({ password_hash: hash, updated_at: new Date() });
+    await db('users')
+      .where({ id: userId })
+      .update({ password_hash: hash, updated_at: db.fn.now(3) });
   },
 };

@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import type { DbOrTx } from '../../db/index';
+import { dbNow, type DbOrTx } from '../../db/index';
 
 export type RemarkType = 'error' | 'query' | 'editorial';
 export type RemarkState = 'open' | 'answered' | 'closed';
@@ -170,7 +170,7 @@ export const remarksRepository = {
   },
 
   async insert(db: DbOrTx, r: NewRemark): Promise<number> {
-    const at = r.createdAt ?? new Date();
+    const at = r.createdAt ?? (await dbNow(db));
     const [id] = await db('remarks').insert({
       revision_id: r.revisionId,
       block_id: r.blockId,
@@ -195,14 +195,14 @@ export const remarksRepository = {
       remark_id: remarkId,
       author_id: authorId,
       text,
-      created_at: new Date(),
+      created_at: db.fn.now(3),
     });
     if (id === undefined) throw new Error('remark_replies insert returned no id');
     return id;
   },
 
   async setState(db: DbOrTx, id: number, state: RemarkState, by: number): Promise<void> {
-    const now = new Date();
+    const now = await dbNow(db);
     await db('remarks')
       .where({ id })
       .update({

@@ -1,5 +1,6 @@
 import type { Sheet, SheetBlock } from '../../../core/index';
 import { AppError, NotFoundError } from '../../http/errors';
+import { dbNow } from '../../db/index';
 import type { User } from '../users/users.repository';
 import { checkSheetAccess } from '../sheets/sheets.access';
 import { remarksRepository } from '../remarks/remarks.repository';
@@ -257,7 +258,7 @@ export const revisionsService = {
       );
     }
 
-    const issuedAt = new Date();
+    const issuedAt = await dbNow(deps.db);
     const outcome = await deps.db.transaction(async (trx) => {
       await reviewRepository.lockSheet(trx, sheetId);
       const latest = await revisionsRepository.findLatest(trx, sheetId);
@@ -325,7 +326,7 @@ export const revisionsService = {
   /** Return (checker, not the author): the revision goes back; the author edits the draft. */
   async returnRevision(deps: ReviewDeps, user: User, revisionId: number): Promise<RevisionSummary> {
     const { rev, sheet } = await checkerAccess(deps, user, revisionId, 'return');
-    const at = new Date();
+    const at = await dbNow(deps.db);
     await deps.db.transaction(async (trx) => {
       await lockStatusIs(
         trx,
@@ -352,7 +353,7 @@ export const revisionsService = {
   /** Sign off (checker, not the author): every remark of the revision must be closed. */
   async signOff(deps: ReviewDeps, user: User, revisionId: number): Promise<RevisionSummary> {
     const { rev, sheet } = await checkerAccess(deps, user, revisionId, 'sign off');
-    const at = new Date();
+    const at = await dbNow(deps.db);
     await deps.db.transaction(async (trx) => {
       await lockStatusIs(
         trx,

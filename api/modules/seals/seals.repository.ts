@@ -128,7 +128,7 @@ export const sealsRepository = {
       nonce: key.nonce,
       salt: key.salt,
       kdf_params: JSON.stringify(key.kdfParams),
-      updated_at: new Date(),
+      updated_at: db.fn.now(3),
     };
     await db('signing_keys')
       .insert({ user_id: key.userId, ...values })

@@ -1,3 +1,4 @@
+import { dbNow } from '../../db/index';
 import { AppError, NotFoundError } from '../../http/errors';
 import { verifyPassword } from '../auth/passwords';
 import type { User } from '../users/users.repository';
@@ -166,7 +167,7 @@ export const sealsService = {
       );
     }
 
-    const sealedAt = new Date();
+    const sealedAt = await dbNow(deps.db);
     const payload = {
       canonicalTextDigest: rev.digests.canonicalText,
       resultsDigest: rev.digests.results,
