@@ -372,6 +372,46 @@ describe('remark carry-over on issue of the next revision', () => {
     expect(old.body.remarks).toHaveLength(3);
     expect(onF.status).toBe(201);
   });
+
+  it('brings the thread of the earlier revisions with a carried remark, oldest first', async () => {
+    const sheetId = await newSheet();
+    const rev1 = await issued(author, sheetId);
+    const made = await checker.post(`/api/revisions/${rev1}/remarks`, {
+      blockId: 'calc',
+      line: 2,
+      type: 'query',
+      text: 'Does 18 t include the finishes?',
+    });
+    await author.post(`/api/remarks/${made.body.remark.id}/replies`, { text: 'No; added.' });
+    await checker.post(`/api/revisions/${rev1}/return`);
+    await putDraft(author, sheetId, baseBlocks);
+    const rev2 = await issued(author, sheetId);
+    const onRev2 = (await checker.get(`/api/revisions/${rev2}/remarks`)).body.remarks[0];
+    await checker.post(`/api/remarks/${onRev2.id}/replies`, { text: 'Where is it added?' });
+    await checker.post(`/api/revisions/${rev2}/return`);
+    const rev3 = await issued(author, sheetId);
+
+    const [carried] = (await checker.get(`/api/revisions/${rev3}/remarks`)).body.remarks;
+    expect(carried.carriedFrom).toMatchObject({ revisionNumber: 2, line: 2 });
+    expect(carried.replies).toEqual([]);
+    expect(carried.earlier).toMatchObject([
+      {
+        remarkId: made.body.remark.id,
+        revisionNumber: 1,
+        line: 2,
+        author: { id: team.checker.id, name: team.checker.name },
+        createdAt: made.body.remark.createdAt,
+        replies: [{ text: 'No; added.', author: { id: team.author.id } }],
+      },
+      {
+        remarkId: onRev2.id,
+        revisionNumber: 2,
+        replies: [{ text: 'Where is it added?', author: { id: team.checker.id } }],
+      },
+    ]);
+    // A remark made on the revision itself has no earlier thread.
+    expect(made.body.remark.earlier).toEqual([]);
+  });
 });
 
 describe('GET /api/sheets/:sheetId/activity', () => {

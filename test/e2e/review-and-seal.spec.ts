@@ -181,6 +181,8 @@ describe('review and seal, the whole flow (browser)', () => {
     await page.getByLabel('1 remark on line 4').waitFor();
     const remarks = page.getByRole('complementary', { name: 'Remarks' });
     await remarks.getByText('Carried from Rev 1, line 3').waitFor();
+    // Made on Rev 1, by whom and when (the thread before it: test/api/revisions.test.ts).
+    await remarks.getByText(new RegExp(`^${demoPeople.tomasz.name}, .* UTC, on Rev 1$`)).waitFor();
     await remarks.getByRole('button', { name: 'Close remark' }).click();
     await remarks.getByTestId('remark-state').getByText('Closed', { exact: true }).waitFor();
     await page.getByRole('button', { name: 'Sign off' }).click();

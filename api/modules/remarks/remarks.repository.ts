@@ -16,6 +16,16 @@ export interface RemarkReply {
   createdAt: string;
 }
 
+/** A remark as it stood on an earlier revision, before it was carried to this one. */
+export interface EarlierRemark {
+  remarkId: number;
+  revisionNumber: number;
+  line: number;
+  author: PersonRef;
+  createdAt: string;
+  replies: RemarkReply[];
+}
+
 export interface Remark {
   id: number;
   revisionId: number;
@@ -32,6 +42,11 @@ export interface Remark {
   closedBy: PersonRef | null;
   closedAt: string | null;
   replies: RemarkReply[];
+  /**
+   * The thread on earlier revisions, oldest first, for a carried remark: who made it and when, and
+   * what was answered there (the checker of the new revision reads the author's answer).
+   */
+  earlier: EarlierRemark[];
 }
 
 export interface NewRemark {
@@ -84,8 +99,7 @@ function baseQuery(db: DbOrTx): Knex.QueryBuilder {
     .select('m.*', 'a.name as author_name', 'c.name as closed_by_name');
 }
 
-async function withReplies(db: DbOrTx, rows: RemarkRow[]): Promise<Remark[]> {
-  const ids = rows.map((r) => r.id);
+async function repliesOf(db: DbOrTx, ids: number[]): Promise<Map<number, RemarkReply[]>> {
   const replies: ReplyRow[] =
     ids.length === 0
       ? []
@@ -113,6 +127,52 @@ async function withReplies(db: DbOrTx, rows: RemarkRow[]): Promise<Remark[]> {
     });
     byRemark.set(p.remark_id, list);
   }
+  return byRemark;
+}
+
+/** The rows each remark was carried from, back to the first, keyed by id. */
+async function predecessors(
+  db: DbOrTx,
+  rows: RemarkRow[],
+): Promise<Map<number, RemarkRow & { revision_number: number }>> {
+  const found = new Map<number, RemarkRow & { revision_number: number }>();
+  let wanted = rows.map((r) => r.carried_from_remark_id);
+  // One query per revision back; a chain is as long as the sheet's revisions.
+  for (;;) {
+    const ids = [...new Set(wanted)].filter((id): id is number => id !== null && !found.has(id));
+    if (ids.length === 0) return found;
+    const more = (await baseQuery(db)
+      .join('revisions as rv', 'rv.id', 'm.revision_id')
+      .select('rv.number as revision_number')
+      .whereIn('m.id', ids)) as (RemarkRow & { revision_number: number })[];
+    if (more.length === 0) return found;
+    for (const r of more) found.set(r.id, r);
+    wanted = more.map((r) => r.carried_from_remark_id);
+  }
+}
+
+async function withReplies(db: DbOrTx, rows: RemarkRow[]): Promise<Remark[]> {
+  const before = await predecessors(db, rows);
+  const byRemark = await repliesOf(db, [...rows.map((r) => r.id), ...before.keys()]);
+  const earlierOf = (row: RemarkRow): EarlierRemark[] => {
+    const chain: EarlierRemark[] = [];
+    const seen = new Set<number>();
+    for (let id = row.carried_from_remark_id; id !== null && !seen.has(id);) {
+      seen.add(id);
+      const prev = before.get(id);
+      if (!prev) break;
+      chain.unshift({
+        remarkId: prev.id,
+        revisionNumber: prev.revision_number,
+        line: prev.line,
+        author: { id: prev.author_id, name: prev.author_name },
+        createdAt: new Date(prev.created_at).toISOString(),
+        replies: byRemark.get(prev.id) ?? [],
+      });
+      id = prev.carried_from_remark_id;
+    }
+    return chain;
+  };
   return rows.map((r) => ({
     id: r.id,
     revisionId: r.revision_id,
@@ -137,6 +197,7 @@ async function withReplies(db: DbOrTx, rows: RemarkRow[]): Promise<Remark[]> {
       r.closed_by === null ? null : { id: r.closed_by, name: r.closed_by_name ?? '(removed)' },
     closedAt: r.closed_at === null ? null : new Date(r.closed_at).toISOString(),
     replies: byRemark.get(r.id) ?? [],
+    earlier: earlierOf(r),
   }));
 }
 

@@ -66,8 +66,19 @@ export type Remark = {
   createdAt: string;
   closedBy: PersonRef | null;
   closedAt: string | null;
-  replies: { id: number; text: string; author: PersonRef; createdAt: string }[];
+  replies: RemarkReply[];
+  /** For a carried remark, the thread on the earlier revisions, oldest first. */
+  earlier: {
+    remarkId: number;
+    revisionNumber: number;
+    line: number;
+    author: PersonRef;
+    createdAt: string;
+    replies: RemarkReply[];
+  }[];
 };
+
+export type RemarkReply = { id: number; text: string; author: PersonRef; createdAt: string };
 
 export const REVISION_STATUS_LABELS: Record<RevisionStatus, string> = {
   in_check: 'In check',

@@ -83,7 +83,8 @@ export function DraftRemarks({
 }
 
 function PendingRemark({ remark, where }: { remark: Remark; where: string }) {
-  const last = remark.replies.at(-1);
+  // A carried remark's thread goes on from the earlier revision's answers.
+  const last = remark.replies.at(-1) ?? remark.earlier.flatMap((e) => e.replies).at(-1);
   return (
     <li className="flex flex-wrap items-baseline gap-x-3 gap-y-1 rounded-sm bg-paper-deep px-2 py-1">
       <span className="rounded-sm border border-rule-strong px-1.5 text-xs font-medium">

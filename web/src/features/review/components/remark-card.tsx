@@ -3,7 +3,12 @@ import { Button } from '../../../components/ui/button';
 import { Alert } from '../../../components/ui/alert';
 import { formatUtc } from '../../../lib/format';
 import { useReplyToRemark, useSetRemarkState } from '../api/remark-mutations';
-import { REMARK_STATE_LABELS, REMARK_TYPE_LABELS, type Remark } from '../api/types';
+import {
+  REMARK_STATE_LABELS,
+  REMARK_TYPE_LABELS,
+  type Remark,
+  type RemarkReply,
+} from '../api/types';
 
 const stateTone: Record<Remark['state'], string> = {
   open: 'border-fail text-fail',
@@ -29,6 +34,14 @@ export function RemarkCard({
   const [reply, setReply] = useState('');
   const replyMutation = useReplyToRemark(remark.revisionId);
   const stateMutation = useSetRemarkState(remark.revisionId);
+  // A carried remark: who made it on which revision, and the answers given there before these.
+  const first = remark.earlier[0];
+  const thread: { reply: RemarkReply; onRev: number | null }[] = [
+    ...remark.earlier.flatMap((e) =>
+      e.replies.map((reply) => ({ reply, onRev: e.revisionNumber })),
+    ),
+    ...remark.replies.map((reply) => ({ reply, onRev: null })),
+  ];
 
   function submit(event: FormEvent) {
     event.preventDefault();
@@ -78,15 +91,24 @@ export function RemarkCard({
       ) : null}
       <p className="whitespace-pre-wrap text-ink">{remark.text}</p>
       <p className="text-xs text-ink-faint">
-        {remark.author.name}, {formatUtc(remark.createdAt)}
+        {first ? (
+          <>
+            {first.author.name}, {formatUtc(first.createdAt)}, on Rev {first.revisionNumber}
+          </>
+        ) : (
+          <>
+            {remark.author.name}, {formatUtc(remark.createdAt)}
+          </>
+        )}
       </p>
-      {remark.replies.length > 0 ? (
+      {thread.length > 0 ? (
         <ol aria-label="Replies" className="flex flex-col gap-1 border-l-2 border-rule pl-3">
-          {remark.replies.map((r) => (
-            <li key={r.id}>
-              <p className="whitespace-pre-wrap">{r.text}</p>
+          {thread.map(({ reply, onRev }) => (
+            <li key={reply.id}>
+              <p className="whitespace-pre-wrap">{reply.text}</p>
               <p className="text-xs text-ink-faint">
-                {r.author.name}, {formatUtc(r.createdAt)}
+                {reply.author.name}, {formatUtc(reply.createdAt)}
+                {onRev === null ? null : `, on Rev ${onRev}`}
               </p>
             </li>
           ))}
