@@ -68,6 +68,8 @@ describe('sheet editor: three-storey frame (browser)', () => {
     );
     const cumulative = await column(table, 'Cumulative');
     expect(Math.abs(cumulative[2]! - 100)).toBeLessThan(0.06);
+    // The dense method is direct: no iteration count, a dash in each row rather than a 0.
+    expect(await table.locator('tbody tr td:last-child').allInnerTexts()).toEqual(['—', '—', '—']);
     // …shares of rᵀMr, the three floors of 20 t.
     await page.getByText('Effective masses are shares of rᵀMr = 60 t in the direction x').waitFor();
     await page.getByText(/Sturm check/).waitFor();

@@ -86,7 +86,8 @@ export function ModesResult({ result, digits }: { result: ModesBlockResult; digi
                 <Td className="py-1 text-right">
                   {m.backwardError === null ? '—' : m.backwardError.toExponential(1)}
                 </Td>
-                <Td className="py-1 text-right">{m.iterations ?? '—'}</Td>
+                {/* A direct method (dense) takes no iterations: a dash, not a 0. */}
+                <Td className="py-1 text-right">{m.iterations ? m.iterations : '—'}</Td>
               </tr>
             ))}
           </tbody>
