@@ -1,6 +1,7 @@
 // Issue 6, browser: the author builds a three-storey frame sheet from storey data, runs the
 // modes, sees the frequencies and the mass ratios, adds a criterion that fails and sees it fail.
 // Screenshots of the text, calc, modes and criteria blocks go to test-results/screenshots/.
+import { readFile } from 'node:fs/promises';
 import { describe, expect, it } from 'vitest';
 import { saveScreenshot } from '../support/browser';
 import {
@@ -70,6 +71,22 @@ describe('sheet editor: three-storey frame (browser)', () => {
     expect(Math.abs(cumulative[2]! - 100)).toBeLessThan(0.06);
     // The dense method is direct: no iteration count, a dash in each row rather than a 0.
     expect(await table.locator('tbody tr td:last-child').allInnerTexts()).toEqual(['—', '—', '—']);
+    // The table as CSV, every value in full: the closed form to 1e-12, not to the 4 figures shown.
+    const [file] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByRole('button', { name: 'Modes table' }).click(),
+    ]);
+    expect(file.suggestedFilename()).toBe('sway_modes.csv');
+    const csv = await readFile(await file.path(), 'utf8');
+    const rows = csv
+      .trim()
+      .split('\r\n')
+      .map((line) => line.split(','));
+    expect(rows[0]!.slice(0, 2)).toEqual(['mode', 'f (Hz)']);
+    expect(rows).toHaveLength(4);
+    rows
+      .slice(1)
+      .forEach((row, i) => expect(relative(Number(row[1]), expected[i]!.f)).toBeLessThan(1e-12));
     // …shares of rᵀMr, the three floors of 20 t.
     await page.getByText('Effective masses are shares of rᵀMr = 60 t in the direction x').waitFor();
     await page.getByText(/Sturm check/).waitFor();

@@ -10,6 +10,7 @@ import type {
 import { lazy, Suspense } from 'react';
 import { participationFactor, percent, sig } from '../../lib/format';
 import { handParts } from './hand-parts';
+import { ModesDownloads } from './modes-downloads';
 import { ModesWarnings } from './modes-warnings';
 import { ParticipationNote } from './participation-note';
 import { Tex } from './tex';
@@ -84,7 +85,7 @@ function Matrix({ result }: { result: MatrixBlockResult }) {
   );
 }
 
-function Modes({ result }: { result: ModesBlockResult }) {
+function Modes({ result, fileStem }: { result: ModesBlockResult; fileStem?: string }) {
   return (
     <div className="overflow-x-auto">
       <table className="w-full border-collapse text-sm" aria-label={`Modes ${result.name ?? ''}`}>
@@ -139,6 +140,7 @@ function Modes({ result }: { result: ModesBlockResult }) {
       ) : null}
       <div className="mt-1 flex flex-col gap-1">
         <ModesWarnings result={result} compact />
+        {fileStem ? <ModesDownloads result={result} fileStem={fileStem} /> : null}
       </div>
       {result.shapes && result.shapes.length > 0 ? (
         <div className="mt-2 max-w-xl break-inside-avoid">
@@ -155,8 +157,18 @@ function Modes({ result }: { result: ModesBlockResult }) {
   );
 }
 
-/** The frozen results of one block; nothing for a text block. */
-export function BlockResultView({ result }: { result: BlockResult | undefined }) {
+/**
+ * The frozen results of one block; nothing for a text block. With `fileStem`, a modes block offers
+ * its table and shapes as CSV files so named ("DYN-01_Rev2" gives DYN-01_Rev2_deck_v_modes.csv);
+ * without it (print, compare), no downloads.
+ */
+export function BlockResultView({
+  result,
+  fileStem,
+}: {
+  result: BlockResult | undefined;
+  fileStem?: string;
+}) {
   if (!result) return null;
   switch (result.kind) {
     case 'calc':
@@ -166,7 +178,12 @@ export function BlockResultView({ result }: { result: BlockResult | undefined })
     case 'matrix':
       return <Matrix result={result} />;
     case 'modes':
-      return <Modes result={result} />;
+      return (
+        <Modes
+          result={result}
+          {...(fileStem ? { fileStem: `${fileStem}_${result.name ?? 'modes'}` } : {})}
+        />
+      );
     default:
       return null;
   }

@@ -3,3 +3,4 @@ export { Tex } from './tex';
 export { handParts } from './hand-parts';
 export { ModesWarnings, splitModesWarnings, powerOfTen } from './modes-warnings';
 export { ParticipationNote } from './participation-note';
+export { ModesDownloads } from './modes-downloads';

@@ -1,6 +1,6 @@
 import { lazy, Suspense } from 'react';
 import type { ModesBlockResult } from '../api/results';
-import { ModesWarnings, ParticipationNote } from '../../../components/results';
+import { ModesDownloads, ModesWarnings, ParticipationNote } from '../../../components/results';
 import { Table, Td, Th } from '../../../components/ui/table';
 import { participationFactor, percent, sig } from '../../../lib/format';
 import { Spinner } from '../../../components/ui/spinner';
@@ -112,6 +112,7 @@ export function ModesResult({ result, digits }: { result: ModesBlockResult; digi
         </p>
       ) : null}
       <ModesWarnings result={result} />
+      <ModesDownloads result={result} />
       {(result.shapes && result.shapes.length > 0) || result.histories.length > 0 ? (
         <Suspense fallback={<Spinner label="Drawing the plots…" />}>
           <div className="flex flex-col gap-4 md:flex-row">

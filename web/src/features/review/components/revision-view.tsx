@@ -370,7 +370,10 @@ function Blocks({
             </ol>
             {result && result.kind !== 'text' ? (
               <div className="border-t border-rule px-3 py-2">
-                <BlockResultView result={result} />
+                <BlockResultView
+                  result={result}
+                  fileStem={`${rev.sheet.number}_Rev${rev.number}`}
+                />
               </div>
             ) : null}
           </section>

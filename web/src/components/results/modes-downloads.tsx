@@ -1,0 +1,59 @@
+import type { ModesBlockResult } from '../../../../core/index';
+import { modesCsv, shapesCsv } from './modes-csv';
+
+/** Hands the text to the browser as a file download (no server round trip: the results are here). */
+function download(fileName: string, text: string): void {
+  const url = URL.createObjectURL(new Blob([text], { type: 'text/csv;charset=utf-8' }));
+  const link = document.createElement('a');
+  link.href = url;
+  link.download = fileName;
+  document.body.append(link);
+  link.click();
+  link.remove();
+  // Revoked after the click has been handled, so the download has started.
+  setTimeout(() => URL.revokeObjectURL(url), 0);
+}
+
+/** A file name safe on every system: letters, digits, dot, dash and underscore. */
+function safeName(text: string): string {
+  return text.replace(/[^A-Za-z0-9._-]+/g, '_').replace(/^_+|_+$/g, '') || 'modes';
+}
+
+/**
+ * "Download" links for a modes block: the modes table and the mode shapes as CSV, every value in
+ * full and in SI, for a response-spectrum spreadsheet or a report. `fileStem` names the files
+ * (e.g. "DYN-01_Rev2_deck_v"); the block's name when not given. Not printed.
+ */
+export function ModesDownloads({
+  result,
+  fileStem,
+}: {
+  result: ModesBlockResult;
+  fileStem?: string;
+}) {
+  if (result.modes.length === 0) return null;
+  const stem = safeName(fileStem ?? result.name ?? 'modes');
+  const hasShapes = !!result.shapes && result.shapes.length > 0;
+  const link = 'text-xs text-accent-strong underline underline-offset-2 hover:text-accent';
+  return (
+    <p className="flex flex-wrap items-baseline gap-x-3 text-xs text-ink-soft print:hidden">
+      <span>Download as CSV:</span>
+      <button
+        type="button"
+        className={link}
+        onClick={() => download(`${stem}_modes.csv`, modesCsv(result))}
+      >
+        Modes table
+      </button>
+      {hasShapes ? (
+        <button
+          type="button"
+          className={link}
+          onClick={() => download(`${stem}_shapes.csv`, shapesCsv(result) ?? '')}
+        >
+          Mode shapes
+        </button>
+      ) : null}
+    </p>
+  );
+}
