@@ -76,7 +76,7 @@ describe('sheet editor: three-storey frame (browser)', () => {
       page.waitForEvent('download'),
       page.getByRole('button', { name: 'Modes table' }).click(),
     ]);
-    expect(file.suggestedFilename()).toBe('sway_modes.csv');
+    expect(file.suggestedFilename()).toBe(`E2E-F${RUN}_draft_sway_modes.csv`);
     const csv = await readFile(await file.path(), 'utf8');
     const rows = csv
       .trim()

@@ -22,17 +22,17 @@ function safeName(text: string): string {
 /**
  * "Download" links for a modes block: the modes table and the mode shapes as CSV, every value in
  * full and in SI, for a response-spectrum spreadsheet or a report. `fileStem` names the files
- * (e.g. "DYN-01_Rev2_deck_v"); the block's name when not given. Not printed.
+ * (e.g. "DYN-01_Rev2_deck_v"). Not printed.
  */
 export function ModesDownloads({
   result,
   fileStem,
 }: {
   result: ModesBlockResult;
-  fileStem?: string;
+  fileStem: string;
 }) {
   if (result.modes.length === 0) return null;
-  const stem = safeName(fileStem ?? result.name ?? 'modes');
+  const stem = safeName(fileStem);
   const hasShapes = !!result.shapes && result.shapes.length > 0;
   const link = 'text-xs text-accent-strong underline underline-offset-2 hover:text-accent';
   return (

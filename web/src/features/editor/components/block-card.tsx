@@ -37,16 +37,32 @@ export type BlockCardProps = {
   onDragOver: (event: DragEvent) => void;
   onDrop: (event: DragEvent) => void;
   dropTarget: boolean;
+  /** Names the CSV files of a modes block: "DYN-03_draft" gives DYN-03_draft_vert_modes.csv. */
+  fileStem: string;
 };
 
-function Results({ result, digits }: { result: BlockResult; digits: number }) {
+function Results({
+  result,
+  digits,
+  fileStem,
+}: {
+  result: BlockResult;
+  digits: number;
+  fileStem: string;
+}) {
   switch (result.kind) {
     case 'calc':
       return <CalcResult result={result} />;
     case 'matrix':
       return <MatrixResult result={result} digits={digits} />;
     case 'modes':
-      return <ModesResult result={result} digits={digits} />;
+      return (
+        <ModesResult
+          result={result}
+          digits={digits}
+          fileStem={`${fileStem}_${result.name ?? 'modes'}`}
+        />
+      );
     case 'criteria':
       return <CriteriaResult result={result} />;
     default:
@@ -194,7 +210,7 @@ export function BlockCard(props: BlockCardProps) {
             className={`px-1 transition-opacity ${stale ? 'opacity-60' : ''}`}
             aria-live="polite"
           >
-            <Results result={result} digits={props.digits} />
+            <Results result={result} digits={props.digits} fileStem={props.fileStem} />
           </div>
         ) : null}
       </div>

@@ -18,7 +18,16 @@ const ConvergencePlot = lazy(() =>
  * The modes table, the Sturm check, warnings (and the conditioning note, which is information)
  * and the two plots of one eigen-solve.
  */
-export function ModesResult({ result, digits }: { result: ModesBlockResult; digits: number }) {
+export function ModesResult({
+  result,
+  digits,
+  fileStem,
+}: {
+  result: ModesBlockResult;
+  digits: number;
+  /** Names the CSV files ("DYN-03_draft_vert"). */
+  fileStem: string;
+}) {
   const name = result.name ?? 'modes';
   return (
     <div className="flex flex-col gap-3 text-sm">
@@ -112,7 +121,7 @@ export function ModesResult({ result, digits }: { result: ModesBlockResult; digi
         </p>
       ) : null}
       <ModesWarnings result={result} />
-      <ModesDownloads result={result} />
+      <ModesDownloads result={result} fileStem={fileStem} />
       {(result.shapes && result.shapes.length > 0) || result.histories.length > 0 ? (
         <Suspense fallback={<Spinner label="Drawing the plots…" />}>
           <div className="flex flex-col gap-4 md:flex-row">

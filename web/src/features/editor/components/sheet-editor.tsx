@@ -235,6 +235,7 @@ function EditorSurface({
                 {...(remarks?.get(block.id) ? { remarks: remarks.get(block.id)! } : {})}
                 stale={evaluation.stale}
                 digits={settings.significantFigures}
+                fileStem={`${sheet.number}_draft`}
                 names={(line) => namesInScope(blocks, index, line, results?.blocks)}
                 uploads={() => uploadNames.current}
                 onChange={(source) => update(block.id, source)}
