@@ -154,13 +154,12 @@ async function predecessors(
 async function withReplies(db: DbOrTx, rows: RemarkRow[]): Promise<Remark[]> {
   const before = await predecessors(db, rows);
   const byRemark = await repliesOf(db, [...rows.map((r) => r.id), ...before.keys()]);
+  // The row a remark was carried from; each points at an older one, so a walk ends at the first.
+  const from = (r: RemarkRow) =>
+    r.carried_from_remark_id === null ? undefined : before.get(r.carried_from_remark_id);
   const earlierOf = (row: RemarkRow): EarlierRemark[] => {
     const chain: EarlierRemark[] = [];
-    const seen = new Set<number>();
-    for (let id = row.carried_from_remark_id; id !== null && !seen.has(id);) {
-      seen.add(id);
-      const prev = before.get(id);
-      if (!prev) break;
+    for (let prev = from(row); prev; prev = from(prev)) {
       chain.unshift({
         remarkId: prev.id,
         revisionNumber: prev.revision_number,
@@ -169,7 +168,6 @@ async function withReplies(db: DbOrTx, rows: RemarkRow[]): Promise<Remark[]> {
         createdAt: new Date(prev.created_at).toISOString(),
         replies: byRemark.get(prev.id) ?? [],
       });
-      id = prev.carried_from_remark_id;
     }
     return chain;
   };

@@ -135,9 +135,8 @@ export function BlockSource({
 
   // Errors from the last evaluation, underlined at their line; the message shows on hover.
   useEffect(() => {
-    const v = view;
-    if (!v) return;
-    const doc = v.state.doc;
+    if (view === null) return;
+    const doc = view.state.doc;
     const diagnostics: Diagnostic[] = issues.map((issue) => {
       const lineNo = Math.min(Math.max(issue.line, 1), doc.lines);
       const line = doc.line(lineNo);
@@ -163,7 +162,7 @@ export function BlockSource({
         source: 'remark',
       });
     }
-    v.dispatch(setDiagnostics(v.state, diagnostics));
+    view.dispatch(setDiagnostics(view.state, diagnostics));
   }, [issues, remarks, value, view]);
 
   return (
