@@ -8,9 +8,11 @@ import { createDb, waitForDb, type Db } from './db/index';
 import { createSessionStore } from './db/session-store';
 import { loadSessionUser } from './http/auth';
 import type { AppContext } from './http/context';
+import { requireUtf8Body } from './http/body-charset';
 import { csrfProtection } from './http/csrf';
 import { apiNotFound, errorMiddleware } from './http/error-middleware';
 import { createLogger, requestLogger } from './http/logger';
+import { refuseInvalidText } from './http/valid-text';
 import { createAccountRouter } from './modules/account/account.routes';
 import { createActivityRouter } from './modules/activity/activity.routes';
 import { createAuthRouter, SESSION_COOKIE } from './modules/auth/auth.routes';
@@ -96,7 +98,9 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
         strictTransportSecurity: config.secureCookies,
       }),
     );
+    app.use(requireUtf8Body);
     app.use(express.json({ limit: config.bodyLimitBytes }));
+    app.use(refuseInvalidText);
     // Sessions only for the API: the client's files never touch the sessions table.
     app.use(
       '/api',
