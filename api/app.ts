@@ -8,6 +8,7 @@ import { createDb, waitForDb, type Db } from './db/index';
 import { createSessionStore } from './db/session-store';
 import { loadSessionUser } from './http/auth';
 import type { AppContext } from './http/context';
+import { passwordCheckLimiter, signInAddressLimiter } from './http/attempt-limits';
 import { requireUtf8Body } from './http/body-charset';
 import { csrfProtection } from './http/csrf';
 import { apiNotFound, errorMiddleware } from './http/error-middleware';
@@ -130,6 +131,16 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     });
     api.use(csrfProtection);
     api.use(loadSessionUser(db));
+    const window = config.signinWindowMs;
+    api.post(
+      '/auth/sign-in',
+      signInAddressLimiter({ limit: config.signinAddressLimit, windowMs: window }),
+    );
+    const passwordChecks = passwordCheckLimiter({
+      limit: config.passwordCheckLimit,
+      windowMs: window,
+    });
+    api.post(['/auth/password', '/revisions/:revisionId/seal'], passwordChecks);
     api.use('/auth', createAuthRouter(ctx));
     api.use('/auth', createAccountRouter(ctx));
     api.use('/users', createUsersRouter(ctx));

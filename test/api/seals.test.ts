@@ -345,7 +345,7 @@ describe('POST /api/auth/password', () => {
       newPassword: 'a-new-password-of-mine',
     });
     expect(res.status).toBe(200);
-    expect(res.body).toEqual({ signingKeyReencrypted: true });
+    expect(res.body).toEqual({ signingKeyReencrypted: true, otherSessionsEnded: 0 });
     const after = await t.db('signing_keys').where({ user_id: p.id }).first();
     expect(after.public_key).toBe(before.public_key);
     expect(after.encrypted_private_key).not.toBe(before.encrypted_private_key);
