@@ -17,7 +17,7 @@ import {
 } from '../revisions/revisions.service';
 import { revisionsRepository, type RevisionSummary } from '../revisions/revisions.repository';
 import { generateSealCode } from './seal-code';
-import { sealDigest } from './seal-digest';
+import { buildSealPayload } from './seal-payload';
 import { sealsRepository } from './seals.repository';
 import {
   createSigningKey,
@@ -168,18 +168,27 @@ export const sealsService = {
     }
 
     const sealedAt = await dbNow(deps.db);
-    const payload = {
-      canonicalTextDigest: rev.digests.canonicalText,
-      resultsDigest: rev.digests.results,
-      engineVersion: rev.engineVersion,
-      revisionId: rev.id,
-      revisionNumber: rev.number,
-      sheetId: sheet.id,
-      principalId: user.id,
-      licenceNumber: user.licenceNumber,
-      sealedAt: sealedAt.toISOString(),
-    };
-    const digest = sealDigest(payload);
+    const { payloadVersion, payload, digest } = buildSealPayload(
+      {
+        canonicalTextDigest: rev.digests.canonicalText,
+        resultsDigest: rev.digests.results,
+        engineVersion: rev.engineVersion,
+        revisionId: rev.id,
+        revisionNumber: rev.number,
+        sheetId: sheet.id,
+      },
+      {
+        principalId: user.id,
+        principalName: user.name,
+        licenceNumber: user.licenceNumber,
+        jurisdiction: user.jurisdiction,
+        sealedAt: sealedAt.toISOString(),
+        projectName: sheet.projectName,
+        projectJobNumber: sheet.projectJobNumber,
+        sheetNumber: sheet.number,
+        sheetTitle: sheet.title,
+      },
+    );
     const signature = signDigest(privateKey, digest);
 
     let code = '';
@@ -206,9 +215,9 @@ export const sealsService = {
             revisionId: rev.id,
             code,
             principalId: user.id,
-            principalName: user.name,
-            licenceNumber: user.licenceNumber ?? '',
-            jurisdiction: user.jurisdiction ?? '',
+            principalName: payload.principalName,
+            licenceNumber: payload.licenceNumber,
+            jurisdiction: payload.jurisdiction,
             sealedAt,
             canonicalTextDigest: payload.canonicalTextDigest,
             resultsDigest: payload.resultsDigest,
@@ -216,6 +225,11 @@ export const sealsService = {
             digest,
             signature,
             publicKey: key.publicKey,
+            payloadVersion,
+            projectName: payload.projectName,
+            projectJobNumber: payload.projectJobNumber,
+            sheetNumber: payload.sheetNumber,
+            sheetTitle: payload.sheetTitle,
           });
           await revisionsRepository.markSealed(trx, rev.id, user.id, sealedAt);
           await reviewRepository.setSheetStatus(trx, sheet.id, 'sealed');
