@@ -65,7 +65,9 @@ export function createUploadsRouter(ctx: AppContext, options: UploadsRouterOptio
               new ValidationError('Send one file, in the form field "file".', { field: 'file' }),
             );
           }
-          return reject(new ValidationError(`The upload form is not valid: ${err.message}.`));
+          return reject(
+            new ValidationError(`The upload form is not valid: ${err.message}.`, { field: 'file' }),
+          );
         }
         if (isMalformedMultipart(err)) {
           return reject(
