@@ -52,7 +52,7 @@ export class DatabaseUnavailableError extends AppError {
     super(
       503,
       'DATABASE_UNAVAILABLE',
-      'The server cannot reach its database just now; nothing was saved. Try again in a few seconds.',
+      'The server cannot reach its database just now, so this request was not carried out. Try again in a few seconds.',
       { details: { retryAfterSeconds: DATABASE_RETRY_AFTER_SECONDS } },
     );
   }
