@@ -6,11 +6,7 @@ import {
   type TestApp,
 } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
-import * as contentTrigger from '../../migrations/20261203000700_revisions_content_immutable';
-import * as sealedUpdateTrigger from '../../migrations/20261203000710_sealed_revisions_refuse_update';
-import * as sealedDeleteTrigger from '../../migrations/20261203000720_sealed_revisions_refuse_delete';
-import * as sealsUpdateTrigger from '../../migrations/20261203000800_seals_refuse_update';
-import * as sealsDeleteTrigger from '../../migrations/20261203000810_seals_refuse_delete';
+import { withoutTriggers as withoutTriggersIn } from '../support/without-triggers';
 
 // The database refuses to change what was sealed, whatever the API does (issue 7 item 1), and
 // verify notices a changed byte when the triggers are gone (issue 7 item 7).
@@ -23,14 +19,6 @@ let principal: ApiClient;
 
 let revId: number;
 let code: string;
-
-const triggers = [
-  contentTrigger,
-  sealedUpdateTrigger,
-  sealedDeleteTrigger,
-  sealsUpdateTrigger,
-  sealsDeleteTrigger,
-];
 
 async function sealedRevision(): Promise<{ sheetId: number; revId: number; code: string }> {
   const { id } = await createSheetWithDraft(
@@ -50,13 +38,8 @@ async function sealedRevision(): Promise<{ sheetId: number; revId: number; code:
 }
 
 /** Runs fn with every protecting trigger dropped, then puts them all back, whatever happens. */
-async function withoutTriggers(fn: () => Promise<void>): Promise<void> {
-  for (const tr of triggers) await tr.down(t.db);
-  try {
-    await fn();
-  } finally {
-    for (const tr of triggers) await tr.up(t.db);
-  }
+function withoutTriggers(fn: () => Promise<void>): Promise<void> {
+  return withoutTriggersIn(t.db, fn);
 }
 
 /** The MariaDB refusal raised by SIGNAL SQLSTATE '45000' (ER_SIGNAL_EXCEPTION, errno 1644). */

@@ -34,14 +34,15 @@ export interface StoredSealFacts {
 }
 
 /** The revision's values, recomputed from its stored row by whoever checks the seal. */
-export interface RevisionFacts {
-  canonicalTextDigest: string;
-  resultsDigest: string;
-  engineVersion: string;
-  revisionId: number;
-  revisionNumber: number;
-  sheetId: number;
-}
+export type RevisionFacts = Pick<
+  SealPayload,
+  | 'canonicalTextDigest'
+  | 'resultsDigest'
+  | 'engineVersion'
+  | 'revisionId'
+  | 'revisionNumber'
+  | 'sheetId'
+>;
 
 /**
  * The version-2 digest: SHA-256 over the canonical JSON of the payload tagged
