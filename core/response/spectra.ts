@@ -212,3 +212,43 @@ export function tableSpectrum(points: readonly (readonly [number, number])[]): S
     points: () => points.map(([T, a]) => [T, a] as [number, number]),
   };
 }
+
+/**
+ * Reads a spectrum table from CSV text: an optional header row, then `period, S_a` per line
+ * (commas, semicolons, tabs or spaces between; blank lines and lines starting with `#` skipped).
+ * The values are returned as written (the caller applies the acceleration unit).
+ * @throws EngineError MATRIX_FILE_INVALID naming the file and line.
+ * @example readSpectrumTable('T,Sa\n0,2\n1,4\n', 'S.csv') // [[0, 2], [1, 4]]
+ */
+export function readSpectrumTable(text: string, name = 'spectrum file'): [number, number][] {
+  const out: [number, number][] = [];
+  const rows = text.split(/\r?\n/);
+  let seenData = false;
+  rows.forEach((raw, i) => {
+    const line = raw.trim();
+    if (line === '' || line.startsWith('#')) return;
+    const cells = line.split(/[,;\t ]+/).filter((c) => c !== '');
+    const nums = cells.map(Number);
+    const numeric = cells.length > 0 && nums.every((x) => Number.isFinite(x));
+    if (!numeric && !seenData && out.length === 0) {
+      seenData = true; // a header row
+      return;
+    }
+    seenData = true;
+    if (!numeric || cells.length !== 2) {
+      throw new EngineError(
+        'MATRIX_FILE_INVALID',
+        `${name}, line ${i + 1}: expected two numbers, period (s) and pseudo-acceleration; got "${line}".`,
+        { line: i + 1 },
+      );
+    }
+    out.push([nums[0]!, nums[1]!]);
+  });
+  if (out.length < 2) {
+    throw new EngineError(
+      'MATRIX_FILE_INVALID',
+      `${name}: a spectrum table needs at least two rows of period and pseudo-acceleration.`,
+    );
+  }
+  return out;
+}
