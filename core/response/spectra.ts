@@ -214,31 +214,30 @@ export function tableSpectrum(points: readonly (readonly [number, number])[]): S
 }
 
 /**
- * Reads a spectrum table from CSV text: an optional header row, then `period, S_a` per line
+ * Reads a two-column table from CSV text: an optional header row, then two numbers per line
  * (commas, semicolons, tabs or spaces between; blank lines and lines starting with `#` skipped).
- * The values are returned as written (the caller applies the acceleration unit).
+ * `columns` names them for the messages ("period (s) and pseudo-acceleration").
  * @throws EngineError MATRIX_FILE_INVALID naming the file and line.
- * @example readSpectrumTable('T,Sa\n0,2\n1,4\n', 'S.csv') // [[0, 2], [1, 4]]
+ * @example readTwoColumns('t,a\n0,0\n0.01,0.2\n', 'rec.csv', 'time (s) and acceleration')
  */
-export function readSpectrumTable(text: string, name = 'spectrum file'): [number, number][] {
+export function readTwoColumns(text: string, name: string, columns: string): [number, number][] {
   const out: [number, number][] = [];
-  const rows = text.split(/\r?\n/);
-  let seenData = false;
-  rows.forEach((raw, i) => {
+  let header = true;
+  text.split(/\r?\n/).forEach((raw, i) => {
     const line = raw.trim();
     if (line === '' || line.startsWith('#')) return;
     const cells = line.split(/[,;\t ]+/).filter((c) => c !== '');
     const nums = cells.map(Number);
     const numeric = cells.length > 0 && nums.every((x) => Number.isFinite(x));
-    if (!numeric && !seenData && out.length === 0) {
-      seenData = true; // a header row
+    if (!numeric && header) {
+      header = false; // a header row
       return;
     }
-    seenData = true;
+    header = false;
     if (!numeric || cells.length !== 2) {
       throw new EngineError(
         'MATRIX_FILE_INVALID',
-        `${name}, line ${i + 1}: expected two numbers, period (s) and pseudo-acceleration; got "${line}".`,
+        `${name}, line ${i + 1}: expected two numbers, ${columns}; got "${line}".`,
         { line: i + 1 },
       );
     }
@@ -247,8 +246,18 @@ export function readSpectrumTable(text: string, name = 'spectrum file'): [number
   if (out.length < 2) {
     throw new EngineError(
       'MATRIX_FILE_INVALID',
-      `${name}: a spectrum table needs at least two rows of period and pseudo-acceleration.`,
+      `${name}: the table needs at least two rows of ${columns}.`,
     );
   }
   return out;
+}
+
+/**
+ * Reads a spectrum table from CSV text: an optional header row, then `period, S_a` per line. The
+ * values are returned as written (the caller applies the acceleration unit).
+ * @throws EngineError MATRIX_FILE_INVALID naming the file and line.
+ * @example readSpectrumTable('T,Sa\n0,2\n1,4\n', 'S.csv') // [[0, 2], [1, 4]]
+ */
+export function readSpectrumTable(text: string, name = 'spectrum file'): [number, number][] {
+  return readTwoColumns(text, name, 'period (s) and pseudo-acceleration');
 }

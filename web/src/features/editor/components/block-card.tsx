@@ -14,6 +14,7 @@ export const KIND_LABELS: Record<Block['kind'], string> = {
   calc: 'Calculation',
   matrix: 'Matrix',
   modes: 'Modes',
+  response: 'Response',
   criteria: 'Criteria',
 };
 
