@@ -210,7 +210,8 @@ export function spectrumAnalysis(input: SpectrumAnalysisInput): SpectrumAnalysis
     modalDisplacement,
     storeys,
     scaling,
-    scaledBaseShear: baseShear * scale,
+    // scaled to the target exactly, so a criterion V ≥ V_ELF reads true without rounding
+    scaledBaseShear: scaling && scale > 1 ? scaling.share * scaling.elfBaseShear : baseShear,
     closeModes: closeModes(modes.map((m) => m.period)),
     massRatio,
     totalMass,

@@ -44,6 +44,7 @@ import type {
   SpectrumResponseData,
   WalkingResponseData,
 } from '../types';
+import { refuseHiddenUnits } from './calc';
 import { readKeyLines, type KeyLine } from './key-lines';
 
 export const RESPONSE_KEYS = [
@@ -175,11 +176,9 @@ class Reader {
   }
 
   value(key: Key): unknown {
-    return evaluateNode(
-      this.ctx,
-      parseExpression(this.ctx, this.text(key)),
-      new Map(this.ctx.scope),
-    );
+    const node = parseExpression(this.ctx, this.text(key));
+    refuseHiddenUnits(this.ctx, node);
+    return evaluateNode(this.ctx, node, new Map(this.ctx.scope));
   }
 
   /** A plain number (or a quantity without dimension). */
