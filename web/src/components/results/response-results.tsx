@@ -85,7 +85,7 @@ function Direction({ d, several }: { d: SpectrumDirectionResult; several: boolea
       <p className="text-xs text-ink-soft">{d.description}</p>
       <Table
         label="Modal responses"
-        head={['Mode', 'T (s)', 'ζ', 'S_a (m/s²)', 'Γ', 'M* ', 'V_n']}
+        head={['Mode', 'T (s)', 'ζ', 'S_a (m/s²)', 'Γ', 'M*', 'V_n']}
         rows={d.modes.map((m) => [
           String(m.mode),
           sig(m.period, 4),
@@ -106,7 +106,7 @@ function Direction({ d, several }: { d: SpectrumDirectionResult; several: boolea
             kN(d.storeys!.shear[i]!),
             `${sig(d.storeys!.overturning[i]! / 1000, 4)} kN·m`,
             mm(d.storeys!.drift[i]!),
-            percent(d.storeys!.driftRatio[i]!),
+            `${sig(d.storeys!.driftRatio[i]! * 100, 3)} %`,
             mm(d.displacement[i]!),
           ])}
         />
