@@ -67,3 +67,23 @@ export function readKeyLines<K extends string>(
   });
   return { keys, bad };
 }
+
+/**
+ * The `name:` of a block must be a valid name; reports at its line and returns false otherwise.
+ */
+export function checkBlockName(
+  ctx: EvalContext,
+  nameLine: KeyLine | undefined,
+  at: (line: number) => SheetLocation,
+): boolean {
+  if (!nameLine || /^[A-Za-z][A-Za-z0-9_]*$/.test(nameLine.value)) return true;
+  report(
+    ctx,
+    at(nameLine.line),
+    new EngineError(
+      'SHEET_PARSE',
+      `"${nameLine.value}" is not a valid name: use letters, digits and _, starting with a letter.`,
+    ),
+  );
+  return false;
+}

@@ -33,7 +33,7 @@ import { ENGINE_MATRICES, MATRIX_DOFS } from '../generators';
 import { LargeMatrix } from '../large-matrix';
 import { MODAL_RESULTS } from '../modal-registry';
 import type { ModeRow, ModesBlockResult, ModesWarning, SheetBlock, SheetLocation } from '../types';
-import { readKeyLines, type KeyLine } from './key-lines';
+import { checkBlockName, readKeyLines, type KeyLine } from './key-lines';
 
 export const MODES_KEYS = [
   'stiffness',
@@ -298,24 +298,7 @@ interface ModesRun {
   at: (line: number) => SheetLocation;
 }
 
-/** Step 1: the name must be valid; false after reporting. */
-function checkName(run: ModesRun): boolean {
-  const { ctx, keys, name, at } = run;
-  if (keys.name && !/^[A-Za-z][A-Za-z0-9_]*$/.test(name)) {
-    report(
-      ctx,
-      at(keys.name.line),
-      new EngineError(
-        'SHEET_PARSE',
-        `"${name}" is not a valid name: use letters, digits and _, starting with a letter.`,
-      ),
-    );
-    return false;
-  }
-  return true;
-}
-
-/** Step 2: `stiffness:` and `mass:` must be given; false after reporting. */
+/** Step 1 is the name (checkBlockName); step 2: `stiffness:` and `mass:` must be given; false after reporting. */
 function checkRequired(run: ModesRun): boolean {
   const { ctx, keys, at } = run;
   let ok = true;
@@ -631,7 +614,7 @@ export function evaluateModesBlock(
     ctx.scope.delete(name);
     return result;
   };
-  if (!checkName(run)) return result;
+  if (!checkBlockName(ctx, keys.name, at)) return result;
   if (bad || !checkRequired(run)) return markFailed();
   const setup = readSolveSetup(run);
   if (!setup || !checkSizes(run, setup)) return markFailed();

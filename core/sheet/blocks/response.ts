@@ -45,53 +45,12 @@ import type {
   WalkingResponseData,
 } from '../types';
 import { refuseHiddenUnits } from './calc';
-import { readKeyLines, type KeyLine } from './key-lines';
+import { checkBlockName, readKeyLines, type KeyLine } from './key-lines';
 
-export const RESPONSE_KEYS = [
-  'modes',
-  'analysis',
-  'damping',
-  'name',
-  // spectrum
-  'spectrum',
-  'sds',
-  'sd1',
-  'tl',
-  'r',
-  'ie',
-  'ground',
-  'ag',
-  'q',
-  'table',
-  'table unit',
-  'combine',
-  'direction',
-  'directional',
-  'heights',
-  'elf base shear',
-  'elf share',
-  // harmonic
-  'force',
-  'unbalance',
-  'at',
-  'running speed',
-  'range',
-  'points',
-  'rayleigh',
-  'dofs',
-  // history
-  'record',
-  'record unit',
-  'step',
-  'duration',
-  'method',
-  // walking
-  'mode',
-  'limit',
-] as const;
-type Key = (typeof RESPONSE_KEYS)[number];
+const COMMON = ['modes', 'analysis', 'damping', 'name'] as const;
 
-const ANALYSIS_KEYS: Record<ResponseAnalysis, readonly Key[]> = {
+/** The keys of each analysis, besides the common ones. */
+const ANALYSIS_KEYS = {
   spectrum: [
     'spectrum',
     'sds',
@@ -114,8 +73,14 @@ const ANALYSIS_KEYS: Record<ResponseAnalysis, readonly Key[]> = {
   harmonic: ['force', 'unbalance', 'at', 'running speed', 'range', 'points', 'rayleigh', 'dofs'],
   history: ['record', 'record unit', 'force', 'direction', 'step', 'duration', 'method', 'dofs'],
   walking: ['mode', 'at', 'force', 'limit'],
-};
-const COMMON: readonly Key[] = ['modes', 'analysis', 'damping', 'name'];
+} as const satisfies Record<ResponseAnalysis, readonly string[]>;
+
+type Key = (typeof COMMON)[number] | (typeof ANALYSIS_KEYS)[ResponseAnalysis][number];
+
+/** Every key a response block knows, in the order the documentation lists them. */
+export const RESPONSE_KEYS: readonly Key[] = [
+  ...new Set<Key>([...COMMON, ...Object.values(ANALYSIS_KEYS).flat()]),
+];
 
 /** The caution every response result carries (DESIGN §12). */
 export const RESPONSE_CAUTION =
@@ -200,6 +165,20 @@ class Reader {
   /** A quantity in SI, checked against the unit's dimension ('N', 'm', 's', 'm/s^2', 'kg m'). */
   quantity(key: Key, unit: string, words: string): number {
     return this.at_(key, () => toSi(this.ctx, this.value(key), unit, `"${key}:" must be ${words}`));
+  }
+
+  /** The factor to m/s² of an acceleration unit written as a word: `g` (standard gravity) or a unit. */
+  accelerationUnit(key: Key): number {
+    return this.at_(key, () => {
+      const u = this.text(key).trim();
+      if (u === 'g') return STANDARD_GRAVITY;
+      return toSi(
+        this.ctx,
+        unitOf(this.ctx.sm.math, 1, u),
+        'm/s^2',
+        `"${key}:" must be g or an acceleration unit such as m/s^2`,
+      );
+    });
   }
 
   /** A frequency in Hz from Hz, rpm or rad/s. */
@@ -459,18 +438,7 @@ function spectrumOf(ctx: EvalContext, r: Reader, zeta: number): Spectrum {
   if (kind === 'table') {
     need('table', 'an uploaded CSV or a two-column matrix: period (s), pseudo-acceleration');
     const rows = twoColumns(ctx, r, 'table', 'period (s) and pseudo-acceleration');
-    const scale = r.has('table unit')
-      ? r.at_('table unit', () => {
-          const u = r.text('table unit').trim();
-          if (u === 'g') return STANDARD_GRAVITY;
-          return toSi(
-            ctx,
-            unitOf(ctx.sm.math, 1, u),
-            'm/s^2',
-            '"table unit:" must be g or an acceleration unit such as m/s^2',
-          );
-        })
-      : 1;
+    const scale = r.has('table unit') ? r.accelerationUnit('table unit') : 1;
     return r.at_('table', () => tableSpectrum(rows.map(([T, a]) => [T, a * scale])));
   }
   return r.at_('spectrum', () =>
@@ -825,16 +793,7 @@ function runHistory(
     notes.push(`Load: the force pattern ${r.text('force')} times the record's factor.`);
   } else {
     const scale = r.has('record unit')
-      ? r.at_('record unit', () => {
-          const u = r.text('record unit').trim();
-          if (u === 'g') return STANDARD_GRAVITY;
-          return toSi(
-            ctx,
-            unitOf(ctx.sm.math, 1, u),
-            'm/s^2',
-            '"record unit:" must be g or an acceleration unit such as m/s^2',
-          );
-        })
+      ? r.accelerationUnit('record unit')
       : r.at_('record', () =>
           fail(
             'A ground record needs "record unit:" (g or m/s^2), or give "force:" for a force history.',
@@ -1011,17 +970,7 @@ export function evaluateResponseBlock(
     ctx.scope.delete(name);
     return result;
   };
-  if (keys.name && !/^[A-Za-z][A-Za-z0-9_]*$/.test(name)) {
-    report(
-      ctx,
-      at(keys.name.line),
-      new EngineError(
-        'SHEET_PARSE',
-        `"${name}" is not a valid name: use letters, digits and _, starting with a letter.`,
-      ),
-    );
-    return result;
-  }
+  if (!checkBlockName(ctx, keys.name, at)) return result;
   if (bad) return markFailed();
   for (const req of ['modes', 'analysis'] as const) {
     if (!keys[req]) {
