@@ -4,6 +4,7 @@ import {
   STANDARD_GRAVITY,
   type CalcBlockResult,
   type CriteriaBlockResult,
+  type ModesBlockResult,
   type ResponseBlockResult,
   type SheetBlock,
 } from '../../../core/index';
@@ -248,5 +249,124 @@ describe('response blocks: harmonic, history, walking', () => {
     expect(rel(w.acceleration, expected)).toBeLessThan(1e-12);
     expect(w.pass).toBe(expected <= 0.7);
     expect((r.blocks[3] as CriteriaBlockResult).criteria[0]!.pass).toBe(expected <= 0.7);
+  });
+});
+
+describe('response blocks: more of each analysis', () => {
+  const portal: SheetBlock[] = [
+    {
+      id: 'model',
+      kind: 'calc',
+      source:
+        'portal = plane_frame({nodes: [0 m, 0 m; 0 m, 3.5 m; 6 m, 3.5 m; 6 m, 0 m], members: [1, 2; 2, 3; 3, 4], E: 210 GPa, A: 5.4e-3 m^2, I: 8.4e-5 m^4, mass: 42 kg/m, fixed: [1, 4], masses: [6 t, 6 t], mass_nodes: [2, 3]})',
+    },
+    {
+      id: 'solve',
+      kind: 'modes',
+      source: 'stiffness: portal.K\nmass: portal.M\ncount: 6\nname: pm',
+    },
+  ];
+
+  it('EN 1998-1 type 1 spectrum in two directions, combined by SRSS and by 100 %/30 % (§4.3.3.5.1, from memory)', () => {
+    const spec = (rule: string) =>
+      run([
+        ...portal,
+        {
+          id: 'rsa',
+          kind: 'response',
+          source: `modes: pm\nanalysis: spectrum\nspectrum: EN 1998-1 type 1\nground: C\nag: 0.25\nq: 1.5\ndamping: 0.05\ndirection: ux, uy\ndirectional: ${rule}\nname: rsa`,
+        },
+      ]);
+    const srss = spec('srss');
+    expect(srss.errors).toEqual([]);
+    const s = (srss.blocks[2] as ResponseBlockResult).spectrum!;
+    expect(s.directions.map((d) => d.direction)).toEqual(['ux', 'uy']);
+    s.combined!.displacement.forEach((u, i) =>
+      expect(u).toBeCloseTo(
+        Math.hypot(s.directions[0]!.displacement[i]!, s.directions[1]!.displacement[i]!),
+        15,
+      ),
+    );
+    const pct = (spec('100-30').blocks[2] as ResponseBlockResult).spectrum!;
+    pct.combined!.displacement.forEach((u, i) => {
+      const a = Math.abs(pct.directions[0]!.displacement[i]!);
+      const b = Math.abs(pct.directions[1]!.displacement[i]!);
+      expect(u).toBeCloseTo(Math.max(a + 0.3 * b, 0.3 * a + b), 15);
+    });
+    // design spectrum §3.2.2.5 never below 0.2 a_g
+    s.directions[0]!.modes.forEach((m) =>
+      expect(m.sa).toBeGreaterThanOrEqual(0.2 * 0.25 * STANDARD_GRAVITY - 1e-12),
+    );
+  });
+
+  it('harmonic force with Rayleigh damping: the ratio is the one asked at both frequencies (Chopra §11.4, from memory)', () => {
+    const r = run([
+      ...portal,
+      {
+        id: 'h',
+        kind: 'response',
+        source:
+          'modes: pm\nanalysis: harmonic\nforce: [2 kN, 0, 0, 0, 0, 0]\nrunning speed: 600 rpm\nrange: [1 Hz, 40 Hz]\npoints: 50\nrayleigh: [2 Hz, 30 Hz]\ndamping: 0.02\ndofs: [1]\nname: ph',
+      },
+    ]);
+    expect(r.errors).toEqual([]);
+    const h = (r.blocks[2] as ResponseBlockResult).harmonic!;
+    // ζ(ω) = α/(2ω) + βω/2 equals 0.02 at 2 Hz and 30 Hz: below it between them, above outside
+    h.modeFrequencies.forEach((f, i) => {
+      const inside = f > 2 && f < 30;
+      if (inside) expect(h.damping[i]).toBeLessThan(0.02);
+      else expect(h.damping[i]).toBeGreaterThan(0.02);
+    });
+    expect(h.frequencies).toContain(10);
+    expect(h.dofs[0]!.label).toBe((r.blocks[1] as ModesBlockResult).dofLabels![0]);
+  });
+
+  it('a ground record uploaded as CSV in g: the time history names its peak and the central-difference step', () => {
+    const rec = [
+      't_s,a_g',
+      ...Array.from(
+        { length: 101 },
+        (_, i) =>
+          `${(i * 0.01).toFixed(2)},${(0.2 * Math.sin(2 * Math.PI * 2 * i * 0.01)).toFixed(6)}`,
+      ),
+    ].join('\n');
+    const r = run(
+      [
+        ...portal,
+        {
+          id: 'th',
+          kind: 'response',
+          source:
+            'modes: pm\nanalysis: history\nrecord: quake.csv\nrecord unit: g\ndirection: ux\nstep: 0.005 s\nduration: 2 s\nmethod: newmark\ndamping: 0.05\ndofs: [1]\nname: th',
+        },
+        { id: 'c', kind: 'calc', source: 'dt = th.dt_cr\nV_pk = th.V_peak' },
+      ],
+      [{ name: 'quake.csv', text: rec }],
+    );
+    expect(r.errors).toEqual([]);
+    const h = (r.blocks[2] as ResponseBlockResult).history!;
+    expect(h.steps).toBe(400);
+    expect(h.load).toBe('ground');
+    expect(h.baseShear!.peak).toBeGreaterThan(0);
+    expect(h.dtCrDamped).toBeLessThan(h.dtCr);
+  });
+
+  it('names the line of a record row that is not two numbers', () => {
+    const r = run(
+      [
+        ...portal,
+        {
+          id: 'th',
+          kind: 'response',
+          source: 'modes: pm\nanalysis: history\nrecord: quake.csv\nrecord unit: g\ndamping: 0.05',
+        },
+      ],
+      [{ name: 'quake.csv', text: 't,a\n0,0\n0.01,x\n' }],
+    );
+    expect(r.errors).toHaveLength(1);
+    expect(r.errors[0]).toMatchObject({ blockId: 'th', line: 3 });
+    expect(r.errors[0]!.message).toMatch(
+      /quake\.csv, line 3: expected two numbers, time \(s\) and value/,
+    );
   });
 });
