@@ -9,6 +9,8 @@ import {
   block,
   newSheet,
   openDemoRevision,
+  projectHref,
+  shotPath,
   relative,
   setSource,
   useAuthorBrowser,
@@ -103,5 +105,35 @@ describe('response blocks (browser)', () => {
       .waitFor();
     expect(await page.getByRole('note').filter({ hasText: CAUTION }).count()).toBeGreaterThan(0);
     await saveScreenshot(page, 'print-dyn-02-response');
+  });
+
+  it('shows the unbalance response of the pump draft and the walking acceleration of the footbridge draft', async () => {
+    const { page } = session();
+    // seeds/02_demo_sheets.ts: DYN-03 (a draft) adds the unbalance response at 1485 rpm.
+    await page.goto(await projectHref(page));
+    await page.getByRole('link', { name: 'DYN-03' }).first().click();
+    await waitForResults(page);
+    const harmonic = page.getByRole('table', { name: 'Harmonic response' });
+    await harmonic.waitFor();
+    expect(await harmonic.locator('thead th').allInnerTexts()).toContain('At running speed');
+    await page
+      .getByRole('figure', { name: 'Amplitude against frequency, running speed ±20 % marked' })
+      .waitFor();
+    await page.getByText(/Running speed 24\.75 Hz \(1485 rpm\)/).waitFor();
+    await page
+      .locator('section[data-kind="response"]')
+      .first()
+      .screenshot({ path: await shotPath('editor-response-harmonic-block') });
+    // seeds/03_demo_review.ts: after the seal, DYN-01's draft adds the walking check for Rev 3.
+    await page.goto(await projectHref(page));
+    await page.getByRole('link', { name: 'DYN-01' }).first().click();
+    await waitForResults(page);
+    await page.getByRole('table', { name: 'Walking response' }).waitFor();
+    await page.getByText(/against the limit 0\.7 m\/s²/).waitFor();
+    await page.getByText(/AISC Design Guide 11 \(2nd ed\.\) Eq\. 4-1/).waitFor();
+    await page
+      .locator('section[data-kind="response"]')
+      .first()
+      .screenshot({ path: await shotPath('editor-response-walking-block') });
   });
 });

@@ -239,7 +239,7 @@ function Walking({ data }: { data: WalkingResponseData }) {
             massText(data.modalMass),
             kN(data.weight),
             `${sig(data.acceleration, 4)} m/s²`,
-            percent(data.ratio),
+            `${sig(data.ratio * 100, 3)} %`,
           ],
         ]}
       />
