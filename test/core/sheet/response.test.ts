@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
+  diffResults,
   evaluateSheet,
   STANDARD_GRAVITY,
   type CalcBlockResult,
@@ -368,5 +369,26 @@ describe('response blocks: more of each analysis', () => {
     expect(r.errors[0]!.message).toMatch(
       /quake\.csv, line 3: expected two numbers, time \(s\) and value/,
     );
+  });
+});
+
+describe('diffResults on response blocks', () => {
+  it('lists the base shear of a spectrum analysis that changed between revisions, with its relative change', () => {
+    const sheet = (sds: string) => ({
+      blocks: [
+        ...frame,
+        {
+          id: 'rsa',
+          kind: 'response' as const,
+          source: `modes: floor\nanalysis: spectrum\nspectrum: ASCE 7-16\nSDS: ${sds}\nSD1: 0.6\nTL: 8 s\ndamping: 0.05`,
+        },
+      ],
+    });
+    const a = evaluateSheet(sheet('1.0'));
+    const b = evaluateSheet(sheet('1.2'));
+    const { results } = diffResults(a, b);
+    const shear = results.find((r) => r.blockId === 'rsa' && r.key === 'base shear x');
+    // both modes on the plateau (T = 0.444 s, 0.222 s ≤ T_S = 0.5 s): V scales with S_DS
+    expect(shear?.relativeChange).toBeCloseTo(0.2, 10);
   });
 });
