@@ -86,6 +86,9 @@ export const RESPONSE_KEYS: readonly Key[] = [
 export const RESPONSE_CAUTION =
   'Code checks remain the engineer’s responsibility: these results follow the published methods named here (several clauses from memory) and do not replace the code adopted by the authority having jurisdiction, its National Annex, or licensed professional judgement.';
 
+/** Most DOFs a harmonic or history analysis reports (each is a curve of up to 5 000 points). */
+const MAX_OUTPUT_DOFS = 12;
+
 /** Largest number of points a history keeps for display. */
 const HISTORY_POINTS = 2000;
 
@@ -193,6 +196,11 @@ class Reader {
       if (!xs || xs.length === 0 || xs.some((x) => !Number.isInteger(x) || x < 1 || x > n)) {
         fail(
           `"${key}:" must list DOF numbers from 1 to ${n}, such as [1, 3] (got "${this.text(key)}").`,
+        );
+      }
+      if (xs.length > MAX_OUTPUT_DOFS) {
+        fail(
+          `"${key}:" lists ${xs.length} DOFs; a response block reports at most ${MAX_OUTPUT_DOFS}.`,
         );
       }
       return xs.map((x) => x - 1);
@@ -690,7 +698,14 @@ function runHarmonic(
     : 400;
   const dofs = r.has('dofs')
     ? r.dofList('dofs', n)
-    : Array.from(load.pattern.keys()).filter((i) => load.pattern[i] !== 0);
+    : Array.from(load.pattern.keys())
+        .filter((i) => load.pattern[i] !== 0)
+        .slice(0, MAX_OUTPUT_DOFS);
+  if (dofs.length === 0) {
+    r.at_('force', () =>
+      fail('"force:" is zero at every DOF; give the force amplitude where it acts.'),
+    );
+  }
   const grid = frequencyGrid(f1, f2, points, [
     ...(running !== null ? [running, 0.8 * running, 1.2 * running] : []),
     ...modeHz,
@@ -835,7 +850,8 @@ function runHistory(
       ...(duration !== undefined ? { duration } : {}),
       method,
       dofs,
-      maxSteps: 200_000,
+      // the modal coordinates are modes × steps numbers: bounded by the sheet's value limit
+      maxSteps: Math.min(200_000, Math.floor(ctx.maxMatrixEntries / reg.basis.omega.length)),
     }),
   );
   const stride = Math.max(1, Math.ceil(res.time.length / HISTORY_POINTS));

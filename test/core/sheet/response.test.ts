@@ -149,6 +149,18 @@ describe('response blocks: refusals name the block and line', () => {
       /ratio of mode 1 is 5/,
     ],
     [
+      'more output DOFs than a block reports',
+      'modes: floor\nanalysis: harmonic\nforce: [1 kN, 0]\ndofs: [1,2,1,2,1,2,1,2,1,2,1,2,1]\ndamping: 0.02',
+      4,
+      /lists 13 DOFs; a response block reports at most 12/,
+    ],
+    [
+      'a force that is zero everywhere',
+      'modes: floor\nanalysis: harmonic\nforce: [0, 0]\ndamping: 0.02',
+      3,
+      /zero at every DOF/,
+    ],
+    [
       'a spectrum without its parameters',
       'modes: floor\nanalysis: spectrum\nspectrum: ASCE 7-16\nSDS: 1\ndamping: 0.05',
       3,
