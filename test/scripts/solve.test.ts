@@ -132,4 +132,26 @@ describe('scripts/solve.ts', () => {
     expect(bad.status).toBe(2);
     expect(bad.stderr).toMatch(/--combine is srss or cqc/);
   });
+
+  it('takes the influence vector from --influence: the effective masses of all modes add up to rᵀMr (REFERENCES.md, "Properties"; relative 1e-10)', () => {
+    const m = 1.0e5;
+    const { K, M } = storeyChain({ masses: [2 * m, m], stiffnesses: [8e7, 4e7] });
+    const kf = join(dir, 'K2i.mtx');
+    const mf = join(dir, 'M2i.mtx');
+    const rf = join(dir, 'r.mtx');
+    writeFileSync(kf, writeMatrixMarket(K));
+    writeFileSync(mf, writeMatrixMarket(M));
+    writeFileSync(rf, '%%MatrixMarket matrix array real general\n2 1\n1\n0\n');
+    const sf = join(dir, 'S2.csv');
+    writeFileSync(sf, '0,3\n10,3\n');
+    const r = run(['--stiffness', kf, '--mass', mf, '--spectrum', sf, '--influence', rf, '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    const out = JSON.parse(r.stdout).response;
+    expect(out.combination).toBe('cqc');
+    const total = out.modes.reduce(
+      (a: number, x: { effectiveMass: number }) => a + x.effectiveMass,
+      0,
+    );
+    expect(Math.abs(total / (2 * m) - 1)).toBeLessThan(1e-10);
+  });
 });
