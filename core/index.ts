@@ -3,3 +3,4 @@ export * from './linalg/index';
 export * from './eigen/index';
 export * from './models/index';
 export * from './sheet/index';
+export * from './response/index';

@@ -4,6 +4,11 @@
  *   npm run --silent solve -- --stiffness K.mtx --mass M.mtx [--count N]
  *     [--method auto|inverse|forward|shifted|dense|subspace|lanczos] [--shift-hz F]
  *     [--tolerance T] [--max-iterations I] [--seed S] [--json]
+ *     [--spectrum S.csv --damping 0.05 --combine srss|cqc [--influence r.mtx]]
+ *
+ * With --spectrum, a response-spectrum analysis of the modes found (core/response): S.csv has an
+ * optional header row, then period (s), pseudo-acceleration (m/s²), linear in period; the
+ * influence vector defaults to ones. The JSON gains `response` in SI (N, m).
  *
  * Files are Matrix Market (.mtx) or CSV (dense rows, or `i,j,value` triplets). Prints a table, or
  * with --json one object. Errors go to stderr with exit code 1 (2 for a wrong command line).
@@ -11,11 +16,19 @@
 import { readFileSync } from 'node:fs';
 import { basename } from 'node:path';
 import { parseArgs } from 'node:util';
-import { isEngineError, readSymmetricMatrix, solveModes } from '../core/index';
-import type { MethodName, SolveOptions } from '../core/index';
+import {
+  isEngineError,
+  parseMatrixMarket,
+  readSpectrumTable,
+  readSymmetricMatrix,
+  solveModes,
+  spectrumAnalysis,
+  tableSpectrum,
+} from '../core/index';
+import type { MethodName, ModalResult, SolveOptions } from '../core/index';
 
 const USAGE =
-  'usage: solve --stiffness K.mtx --mass M.mtx [--count N] [--method auto|inverse|forward|shifted|dense|subspace|lanczos] [--shift-hz F] [--tolerance T] [--max-iterations I] [--seed S] [--json]';
+  'usage: solve --stiffness K.mtx --mass M.mtx [--count N] [--method auto|inverse|forward|shifted|dense|subspace|lanczos] [--shift-hz F] [--tolerance T] [--max-iterations I] [--seed S] [--json] [--spectrum S.csv --damping 0.05 --combine srss|cqc [--influence r.mtx]]';
 
 class UsageError extends Error {}
 
@@ -30,17 +43,110 @@ function numberArg(value: string | undefined, flag: string, integer: boolean): n
   return v;
 }
 
-function readMatrix(path: string, what: string) {
-  let text: string;
+function readText(path: string, what: string): string {
   try {
-    text = readFileSync(path, 'utf8');
+    return readFileSync(path, 'utf8');
   } catch (e) {
     throw new UsageError(`cannot read the ${what} file '${path}': ${(e as Error).message}`);
   }
+}
+
+function readMatrix(path: string, what: string) {
+  const text = readText(path, what);
   return readSymmetricMatrix(text, {
     name: basename(path),
     format: /\.csv$/i.test(path) ? 'csv' : 'auto',
   });
+}
+
+/** An influence vector from a Matrix Market or CSV file with one column (or one row). */
+function readInfluence(path: string, n: number): Float64Array {
+  const text = readText(path, 'influence');
+  const p = /\.csv$/i.test(path)
+    ? {
+        values: Float64Array.from(
+          text
+            .split(/[\s,;]+/)
+            .filter((x) => x !== '')
+            .map(Number),
+        ),
+      }
+    : (() => {
+        const m = parseMatrixMarket(text, basename(path));
+        if (Math.min(m.rows, m.cols) !== 1) {
+          throw new UsageError(
+            `--influence needs a vector (one column); '${path}' is ${m.rows}×${m.cols}.`,
+          );
+        }
+        const v = new Float64Array(Math.max(m.rows, m.cols));
+        m.values.forEach((x, k) => (v[Math.max(m.rowIdx[k]!, m.colIdx[k]!)] = x));
+        return { values: v };
+      })();
+  if (p.values.length !== n || p.values.some((x) => !Number.isFinite(x))) {
+    throw new UsageError(
+      `--influence needs ${n} finite numbers, one per DOF; '${path}' has ${p.values.length}.`,
+    );
+  }
+  return p.values;
+}
+
+interface ResponseFlags {
+  spectrum: string;
+  damping: number;
+  combine: 'srss' | 'cqc';
+  influence?: string;
+}
+
+function responseFlags(values: Record<string, string | boolean | undefined>): ResponseFlags | null {
+  const spectrum = values.spectrum as string | undefined;
+  const others = ['damping', 'combine', 'influence'].filter((k) => values[k] !== undefined);
+  if (!spectrum) {
+    if (others.length > 0) throw new UsageError(`--${others[0]} needs --spectrum.`);
+    return null;
+  }
+  const damping = numberArg(values.damping as string | undefined, 'damping', false) ?? 0.05;
+  if (!(damping >= 0 && damping < 1)) {
+    throw new UsageError(`--damping is a ratio from 0 to below 1 (0.05 for 5 %), got ${damping}.`);
+  }
+  const combine = (values.combine as string | undefined) ?? 'cqc';
+  if (combine !== 'srss' && combine !== 'cqc') {
+    throw new UsageError(`--combine is srss or cqc, got '${combine}'.`);
+  }
+  return {
+    spectrum,
+    damping,
+    combine,
+    ...(values.influence ? { influence: values.influence as string } : {}),
+  };
+}
+
+function runResponse(flags: ResponseFlags, r: ModalResult, M: ReturnType<typeof readMatrix>) {
+  const table = readSpectrumTable(readText(flags.spectrum, 'spectrum'), basename(flags.spectrum));
+  const influence = flags.influence
+    ? readInfluence(flags.influence, r.n)
+    : new Float64Array(r.n).fill(1);
+  const modes = r.modes.filter((m) => m.omega > 0);
+  const res = spectrumAnalysis({
+    basis: { omega: modes.map((m) => m.omega), shapes: modes.map((m) => m.shape), M },
+    influence,
+    spectrum: tableSpectrum(table),
+    damping: flags.damping,
+    combination: flags.combine,
+  });
+  return {
+    combination: res.combination,
+    damping: flags.damping,
+    modes: res.modes.map((m, i) => ({
+      mode: modes[i]!.index,
+      period: m.period,
+      Sa: m.sa,
+      gamma: m.gamma,
+      effectiveMass: m.effectiveMass,
+      baseShear: m.baseShear,
+    })),
+    baseShear: res.baseShear,
+    displacement: res.displacement,
+  };
 }
 
 function fmt(x: number, digits = 6): string {
@@ -63,6 +169,10 @@ function main(argv: string[]): number {
       'max-iterations': { type: 'string' },
       seed: { type: 'string' },
       json: { type: 'boolean', default: false },
+      spectrum: { type: 'string' },
+      damping: { type: 'string' },
+      combine: { type: 'string' },
+      influence: { type: 'string' },
       help: { type: 'boolean', default: false },
     },
     strict: true,
@@ -73,6 +183,7 @@ function main(argv: string[]): number {
   }
   if (!values.stiffness || !values.mass)
     throw new UsageError('both --stiffness and --mass are required.');
+  const response = responseFlags(values);
   const started = performance.now();
   const K = readMatrix(values.stiffness, 'stiffness');
   const M = readMatrix(values.mass, 'mass');
@@ -88,7 +199,9 @@ function main(argv: string[]): number {
   if (maxIt !== undefined) options.maxIterations = maxIt;
   const seed = numberArg(values.seed, 'seed', true);
   if (seed !== undefined) options.seed = seed;
+  if (response) options.normalize = 'mass';
   const r = solveModes(K, M, options);
+  const spectrumResult = response ? runResponse(response, r, M) : null;
   const seconds = (performance.now() - started) / 1000;
   if (values.json) {
     const out = {
@@ -112,6 +225,7 @@ function main(argv: string[]): number {
       conditioning: r.conditioning,
       options: r.options,
       warnings: r.warnings,
+      ...(spectrumResult ? { response: spectrumResult } : {}),
       seconds,
     };
     process.stdout.write(`${JSON.stringify(out, null, 2)}\n`);
@@ -156,6 +270,21 @@ function main(argv: string[]): number {
   if (r.criticalTimeStep)
     lines.push(`critical time step 2/ω_max = ${fmt(r.criticalTimeStep.dtCr)} s`);
   for (const w of r.warnings) lines.push(`warning (${w.code}): ${w.message}`);
+  if (spectrumResult) {
+    lines.push('');
+    lines.push(
+      `response spectrum (${spectrumResult.combination.toUpperCase()}, ζ = ${spectrumResult.damping}): base shear ${fmt(spectrumResult.baseShear)} N`,
+    );
+    for (const m of spectrumResult.modes) {
+      lines.push(
+        `  mode ${m.mode}: T ${fmt(m.period)} s, Sa ${fmt(m.Sa)} m/s², Γ ${fmt(m.gamma)}, M* ${fmt(m.effectiveMass)} kg, V ${fmt(m.baseShear)} N`,
+      );
+    }
+    lines.push(
+      `  peak displacement (m): ${spectrumResult.displacement.map((x) => fmt(x)).join(', ')}`,
+    );
+    lines.push("  Code checks remain the engineer's responsibility.");
+  }
   lines.push(`${seconds.toFixed(2)} s`);
   process.stdout.write(`${lines.join('\n')}\n`);
   return 0;

@@ -17,9 +17,13 @@ interface DemoSheet {
   template: TemplateKey;
   /** Per block id: lines to replace, keyed by the text the template's line starts with. */
   edits: Record<string, Record<string, string>>;
+  /** Blocks the author added after the template's (response analyses of the modes). */
+  append?: SheetBlock[];
 }
 
-const demoSheets: DemoSheet[] = [
+const lines = (...l: string[]) => l.join('\n');
+
+export const demoSheets: DemoSheet[] = [
   {
     number: 'DYN-01',
     title: 'East Basin footbridge — deck natural frequencies',
@@ -52,6 +56,58 @@ const demoSheets: DemoSheet[] = [
         'k_4 = ': 'k_4 = 226 kN/mm',
       },
     },
+    append: [
+      {
+        id: 'spectrum-scope',
+        kind: 'text',
+        source: lines(
+          '## Response spectrum analysis, east–west',
+          '',
+          'Site class D, S_DS = 1.0 and S_D1 = 0.55 from the geotechnical report; special steel',
+          'moment frame, R = 8, C_d = 5.5, I_e = 1.0. Modal forces are scaled to the equivalent',
+          'lateral force base shear; drifts are combined mode by mode and amplified by C_d/I_e.',
+        ),
+      },
+      {
+        id: 'elf',
+        kind: 'calc',
+        source: lines(
+          'W_s = (m_1 + m_2 + m_3 + m_4) * 9.80665 m/s^2  # seismic weight',
+          'R_f = 8  # special steel moment frame (ASCE 7-16 Table 12.2-1, from memory)',
+          'C_d = 5.5  # deflection amplification factor, same table',
+          'T_elf = min(T_1, 1.4 * T_a)  # ASCE 7-16 §12.8.2: computed period, at most C_u T_a with C_u = 1.4 (from memory)',
+          'C_s = min(1.0 / R_f, 0.55 / (T_elf / (1 s) * R_f))  # ASCE 7-16 Eq. 12.8-2 and 12.8-3 (from memory)',
+          'V_elf = C_s * W_s  # ASCE 7-16 Eq. 12.8-1',
+        ),
+      },
+      {
+        id: 'spectrum',
+        kind: 'response',
+        source: lines(
+          'modes: sway',
+          'analysis: spectrum',
+          'spectrum: ASCE 7-16',
+          'SDS: 1.0',
+          'SD1: 0.55',
+          'TL: 8 s',
+          'R: 8',
+          'Ie: 1.0',
+          'damping: 0.05',
+          'combine: cqc',
+          'heights: h',
+          'elf base shear: V_elf',
+          'name: rsa',
+        ),
+      },
+      {
+        id: 'spectrum-criteria',
+        kind: 'criteria',
+        source: lines(
+          'rsa.V >= rsa.V_elf  # ASCE 7-16 §12.9.1.4.1: modal base shear at least 100 % of V_ELF after scaling (from memory)',
+          'C_d * max(rsa.drift_ratio) <= 0.020  # ASCE 7-16 Table 12.12-1, risk category II: 0.020 h_sx, drifts × C_d/I_e (from memory)',
+        ),
+      },
+    ],
   },
   {
     number: 'DYN-03',
@@ -68,10 +124,39 @@ const demoSheets: DemoSheet[] = [
       },
       'near-running-speed': { 'shift: ': 'shift: 1485 rpm  # the running speed of P-02' },
     },
+    append: [
+      {
+        id: 'unbalance',
+        kind: 'response',
+        source: lines(
+          'modes: vert',
+          'analysis: harmonic',
+          'unbalance: 0.02 kg m  # impeller and coupling at balance grade G 6.3 (ISO 21940-11, from memory)',
+          'at: 2  # the machine on its mounts',
+          'running speed: n_run',
+          'range: [5 Hz, 60 Hz]',
+          'damping: 0.05  # soil and grout pads, assumed',
+          'dofs: [1, 2]',
+          'name: pump_h',
+        ),
+      },
+      {
+        id: 'amplitude-criteria',
+        kind: 'criteria',
+        source: lines(
+          'pump_h.separation >= 0.20  # nearest mode at least 20 % from the running speed (ACI 351.3R, from memory)',
+          'max(pump_h.v_run) <= 2.5 mm/s  # vibration velocity at the running speed (common practice, no source)',
+        ),
+      },
+    ],
   },
 ];
 
-function applyEdits(blocks: SheetBlock[], edits: DemoSheet['edits'], number: string): SheetBlock[] {
+export function applyEdits(
+  blocks: SheetBlock[],
+  edits: DemoSheet['edits'],
+  number: string,
+): SheetBlock[] {
   return blocks.map((block) => {
     const wanted = edits[block.id];
     if (!wanted) return block;
@@ -124,7 +209,10 @@ async function sheets(knex: Knex, at: SetDemoClock): Promise<void> {
     if (!current) throw new Error(`seed ${demo.number}: the sheet just made is missing`);
     await at(...when.saved);
     await sheetsService.saveDraft(knex, ines, sheet.id, current.draftVersion, {
-      blocks: applyEdits(current.draft.blocks, demo.edits, demo.number),
+      blocks: [
+        ...applyEdits(current.draft.blocks, demo.edits, demo.number),
+        ...(demo.append ?? []),
+      ],
       settings: current.draft.settings,
     });
   }

@@ -153,6 +153,40 @@ async function footbridge(
   await revisionsService.signOff(deps, p.tomasz, rev2.id);
   await at(10, '09:15');
   await sealsService.seal(deps, p.priya, rev2.id, DEMO_PASSWORD);
+
+  // After the seal the client asks for the comfort check itself: Ines adds the walking
+  // acceleration to the draft, for Rev 3 (the sealed Rev 2 stays as it is).
+  const sealed = await findSheetById(knex, sheet.id);
+  if (!sealed) throw new Error('seed 03: DYN-01 vanished');
+  const outcomeAt = sealed.draft.blocks.findIndex((b) => b.id === 'outcome');
+  const walking: SheetBlock[] = [
+    {
+      id: 'walking',
+      kind: 'response',
+      source: [
+        'modes: deck_v',
+        'analysis: walking',
+        'mode: 1',
+        'force: 0.41 kN  # P_o for footbridges (AISC Design Guide 11, from memory)',
+        'damping: 0.005  # welded steel box girder, no finishes (common practice)',
+        'limit: 0.7 meter/s^2  # EN 1990 A2 §A2.4.3.2, vertical, normal use (from memory); m is the mass per length here',
+        'name: walk',
+      ].join('\n'),
+    },
+    {
+      id: 'walking-criteria',
+      kind: 'criteria',
+      source:
+        'walk.a <= walk.limit  # vertical deck acceleration under one walker (EN 1990 A2 §A2.4.3.2, from memory)',
+    },
+  ];
+  const next = [...sealed.draft.blocks];
+  next.splice(outcomeAt < 0 ? next.length : outcomeAt, 0, ...walking);
+  await at(9, '11:20');
+  await sheetsService.saveDraft(knex, p.ines, sheet.id, sealed.draftVersion, {
+    blocks: next,
+    settings: sealed.draft.settings,
+  });
 }
 
 async function frame(

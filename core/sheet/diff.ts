@@ -8,7 +8,14 @@
  */
 import { diffArrays } from 'diff';
 import { blockLines } from './source';
-import type { BlockKind, BlockResult, Sheet, SheetResults, SheetValue } from './types';
+import type {
+  BlockKind,
+  BlockResult,
+  ResponseBlockResult,
+  Sheet,
+  SheetResults,
+  SheetValue,
+} from './types';
 
 /** One run of changed lines within a block (1-based line numbers; count 0 for pure inserts). */
 export interface LineHunk {
@@ -165,6 +172,42 @@ interface Entry {
   value: SheetValue | null;
 }
 
+function quantityEntry(key: string, si: number, siUnit: string, shown: string): Entry {
+  return {
+    key,
+    line: 0,
+    display: `${si} ${shown}`,
+    value: { type: 'quantity', value: si, unit: shown, si, siUnit },
+  };
+}
+
+/** The headline numbers of a response block, in SI, for comparing revisions. */
+function responseEntries(b: ResponseBlockResult): Entry[] {
+  const out: Entry[] = [];
+  for (const d of b.spectrum?.directions ?? []) {
+    out.push(quantityEntry(`base shear ${d.direction}`, d.scaledBaseShear, 'kg m s^-2', 'N'));
+    d.displacement.forEach((u, i) =>
+      out.push(quantityEntry(`displacement ${d.direction} ${i + 1}`, u, 'm', 'm')),
+    );
+    d.storeys?.drift.forEach((u, i) =>
+      out.push(quantityEntry(`drift ${d.direction} ${i + 1}`, u, 'm', 'm')),
+    );
+  }
+  for (const a of b.harmonic?.atRunning ?? []) {
+    out.push(quantityEntry(`amplitude at running speed DOF ${a.dof}`, a.amplitude, 'm', 'm'));
+  }
+  for (const d of b.history?.dofs ?? []) {
+    out.push(quantityEntry(`peak displacement ${d.label}`, d.peak, 'm', 'm'));
+  }
+  if (b.history?.baseShear) {
+    out.push(quantityEntry('peak base shear', b.history.baseShear.peak, 'kg m s^-2', 'N'));
+  }
+  if (b.walking) {
+    out.push(quantityEntry('walking acceleration', b.walking.acceleration, 'm s^-2', 'm/s^2'));
+  }
+  return out;
+}
+
 function entriesOf(b: BlockResult): Entry[] {
   switch (b.kind) {
     case 'calc':
@@ -203,6 +246,8 @@ function entriesOf(b: BlockResult): Entry[] {
               },
             ]),
       ]);
+    case 'response':
+      return responseEntries(b);
     case 'criteria':
       return b.criteria.map((c) => ({
         key: `criterion ${c.label}`,

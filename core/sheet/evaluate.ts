@@ -8,6 +8,7 @@ import { evaluateCalcBlock } from './blocks/calc';
 import { evaluateCriteriaBlock } from './blocks/criteria';
 import { evaluateMatrixBlock } from './blocks/matrix';
 import { evaluateModesBlock } from './blocks/modes';
+import { evaluateResponseBlock } from './blocks/response';
 import { DEFAULT_MAX_MATRIX_ENTRIES, type EvalContext } from './context';
 import './generators';
 import { setMatrixEntryLimit, sheetMath } from './math';
@@ -85,6 +86,9 @@ export function evaluateSheet(sheet: Sheet, options: EvaluateOptions = {}): Shee
           break;
         case 'modes':
           blocks.push(evaluateModesBlock(ctx, block, blockIndex));
+          break;
+        case 'response':
+          blocks.push(evaluateResponseBlock(ctx, block, blockIndex));
           break;
       }
     } catch (err) {

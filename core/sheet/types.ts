@@ -5,10 +5,17 @@
  */
 import type { DenseTeam } from '../eigen/dense/team';
 
-/** The five kinds of block (DESIGN.md §4). */
-export type BlockKind = 'text' | 'calc' | 'matrix' | 'modes' | 'criteria';
+/** The kinds of block (DESIGN.md §4); `response` runs an analysis on a modes result above it. */
+export type BlockKind = 'text' | 'calc' | 'matrix' | 'modes' | 'response' | 'criteria';
 
-export const BLOCK_KINDS: readonly BlockKind[] = ['text', 'calc', 'matrix', 'modes', 'criteria'];
+export const BLOCK_KINDS: readonly BlockKind[] = [
+  'text',
+  'calc',
+  'matrix',
+  'modes',
+  'response',
+  'criteria',
+];
 
 /** One block of a sheet's source. `id` is stable across revisions. */
 export interface SheetBlock {
@@ -221,8 +228,116 @@ export interface CriteriaBlockResult extends BlockResultBase {
   criteria: CriterionResult[];
 }
 
+/** The analyses a response block runs. */
+export type ResponseAnalysis = 'spectrum' | 'harmonic' | 'history' | 'walking';
+
+/** One direction of a response-spectrum analysis (SI: m/s², kg, N, m, N·m). */
+export interface SpectrumDirectionResult {
+  direction: string;
+  description: string;
+  combination: 'srss' | 'cqc';
+  modes: {
+    mode: number;
+    period: number;
+    damping: number;
+    sa: number;
+    gamma: number;
+    effectiveMass: number;
+    baseShear: number;
+  }[];
+  baseShear: number;
+  scaledBaseShear: number;
+  scaling: { elfBaseShear: number; share: number; factor: number } | null;
+  displacement: number[];
+  storeys: {
+    force: number[];
+    shear: number[];
+    overturning: number[];
+    drift: number[];
+    driftRatio: number[];
+  } | null;
+  closeModes: [number, number][];
+  massRatio: number;
+}
+
+export interface SpectrumResponseData {
+  directions: SpectrumDirectionResult[];
+  /** Across directions (two or more): the rule and the combined displacements and drifts. */
+  combined: { rule: 'srss' | '100-30'; displacement: number[]; drift: number[] | null } | null;
+  /** The spectrum for the plot, (T s, S_a m/s²), and the modes' periods to mark on it. */
+  curve: [number, number][];
+  periods: number[];
+}
+
+export interface HarmonicResponseData {
+  load: string;
+  /** Forcing frequencies, Hz. */
+  frequencies: number[];
+  damping: number[];
+  dofs: { dof: number; label: string; amplitude: number[]; phase: number[]; velocity: number[] }[];
+  runningSpeed: number | null;
+  /** Response at the running speed per DOF (m, m/s, rad). */
+  atRunning: { dof: number; amplitude: number; velocity: number; phase: number }[] | null;
+  /** The modes' frequencies, Hz, to mark on the plot. */
+  modeFrequencies: number[];
+  /** Smallest |f_n − f_run| / f_run over the modes; null without a running speed. */
+  separation: number | null;
+}
+
+export interface HistoryResponseData {
+  method: 'exact' | 'newmark';
+  load: 'force' | 'ground';
+  step: number;
+  steps: number;
+  /** Times of the stored points, s (every `stride`-th step, at most 2 000 points). */
+  time: number[];
+  stride: number;
+  dofs: { dof: number; label: string; displacement: number[]; peak: number; time: number }[];
+  baseShear: { values: number[]; peak: number; time: number } | null;
+  dtCr: number;
+  dtCrDamped: number;
+}
+
+export interface WalkingResponseData {
+  mode: number;
+  dof: number;
+  label: string;
+  frequency: number;
+  modalMass: number;
+  weight: number;
+  force: number;
+  damping: number;
+  acceleration: number;
+  ratio: number;
+  limit: number | null;
+  pass: boolean | null;
+}
+
+export interface ResponseBlockResult extends BlockResultBase {
+  kind: 'response';
+  name: string | null;
+  analysis: ResponseAnalysis | null;
+  /** The modes result analysed. */
+  modes: string | null;
+  /** The published method and clauses, shown beside the results. */
+  method: string | null;
+  /** Notes on what was assumed (influence vector, modes left out, scaling). */
+  notes: string[];
+  /** The caution shown with every response result (DESIGN §12). */
+  caution: string;
+  spectrum?: SpectrumResponseData;
+  harmonic?: HarmonicResponseData;
+  history?: HistoryResponseData;
+  walking?: WalkingResponseData;
+}
+
 export type BlockResult =
-  TextBlockResult | CalcBlockResult | MatrixBlockResult | ModesBlockResult | CriteriaBlockResult;
+  | TextBlockResult
+  | CalcBlockResult
+  | MatrixBlockResult
+  | ModesBlockResult
+  | ResponseBlockResult
+  | CriteriaBlockResult;
 
 /** Everything an evaluation produces. Deterministic for the same sheet and uploads. */
 export interface SheetResults {

@@ -136,6 +136,35 @@ describe('POST /api/sheets/:sheetId/evaluate with the templates', () => {
     expect(criteriaOf(results).every((c) => c.pass)).toBe(true);
   });
 
+  it("evaluates a response block on the frame template's modes and returns its results as they are", async () => {
+    const sheet = await newSheet('four-storey-frame');
+    const blocks = [
+      ...sheet.blocks,
+      {
+        id: 'rsa',
+        kind: 'response',
+        source:
+          'modes: sway\nanalysis: spectrum\nspectrum: ASCE 7-16\nSDS: 1.0\nSD1: 0.6\nTL: 8 s\nR: 8\ndamping: 0.05\nheights: h\nname: rsa',
+      },
+      {
+        id: 'bad',
+        kind: 'response',
+        source: 'modes: sway\nanalysis: walking\ndamping: 0.01\nspan: 3',
+      },
+    ];
+    const res = await evaluate(author, sheet.id, blocks);
+    expect(res.status).toBe(200);
+    const rsa = res.body.results.blocks.find((b: { blockId: string }) => b.blockId === 'rsa');
+    expect(rsa).toMatchObject({ kind: 'response', ok: true, analysis: 'spectrum', modes: 'sway' });
+    expect(rsa.spectrum.directions[0].modes).toHaveLength(3);
+    expect(rsa.spectrum.directions[0].storeys.drift).toHaveLength(4);
+    expect(rsa.caution).toMatch(/Code checks remain the engineer’s responsibility/);
+    expect(res.body.results.errors).toEqual([
+      expect.objectContaining({ blockId: 'bad', line: 4, code: 'SHEET_PARSE' }),
+    ]);
+    expect(res.body.results.errors[0].message).toMatch(/Unknown key "span"/);
+  });
+
   it('evaluates the pump foundation template; the shifted solve finds both closed-form modes', async () => {
     const sheet = await newSheet('pump-foundation');
     const res = await evaluate(author, sheet.id, sheet.blocks);

@@ -23,6 +23,7 @@ const KIND_LABEL = {
   calc: 'calculation',
   matrix: 'matrix',
   modes: 'modes',
+  response: 'response',
   criteria: 'criteria',
 } as const;
 export type Kind = keyof typeof KIND_LABEL;
@@ -95,6 +96,7 @@ export async function addBlock(page: Page, kind: Kind, text: string): Promise<nu
     calc: 'Calculation',
     matrix: 'Matrix',
     modes: 'Modes',
+    response: 'Response',
     criteria: 'Criteria',
   }[kind];
   await page

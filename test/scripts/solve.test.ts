@@ -69,4 +69,89 @@ describe('scripts/solve.ts', () => {
     expect(out.warnings.map((w: { code: string }) => w.code)).toContain('ILL_CONDITIONED');
     expect(typeof out.seconds).toBe('number');
   });
+
+  it('adds a response-spectrum analysis: two-storey frame 2m, m / 2k, k with a flat spectrum gives modal base shears 8/9 and 1/9 of 3m·Sa (Chopra, chapter 10 example, from memory; relative 1e-10)', () => {
+    const m = 1.0e5;
+    const k = 4.0e7;
+    const { K, M } = storeyChain({ masses: [2 * m, m], stiffnesses: [2 * k, k] });
+    const kf = join(dir, 'K2s.mtx');
+    const mf = join(dir, 'M2s.mtx');
+    writeFileSync(kf, writeMatrixMarket(K));
+    writeFileSync(mf, writeMatrixMarket(M));
+    const sf = join(dir, 'S.csv');
+    writeFileSync(sf, 'period_s,Sa_m_s2\n0,3\n10,3\n');
+    const r = run([
+      '--stiffness',
+      kf,
+      '--mass',
+      mf,
+      '--spectrum',
+      sf,
+      '--damping',
+      '0.05',
+      '--combine',
+      'srss',
+      '--json',
+    ]);
+    expect(r.status, r.stderr).toBe(0);
+    const out = JSON.parse(r.stdout).response;
+    expect(out.combination).toBe('srss');
+    expect(out.damping).toBe(0.05);
+    expect(out.modes).toHaveLength(2);
+    const [m1, m2] = out.modes;
+    for (const key of ['mode', 'period', 'Sa', 'gamma', 'effectiveMass', 'baseShear'])
+      expect(typeof m1[key]).toBe('number');
+    const rel = (a: number, b: number) => Math.abs(a / b - 1);
+    expect(rel(m1.baseShear, (8 / 9) * 3 * m * 3)).toBeLessThan(1e-10);
+    expect(rel(m2.baseShear, (1 / 9) * 3 * m * 3)).toBeLessThan(1e-10);
+    // Γ_n² S_a for mass-normalized shapes, and peak displacement Γ_n φ_n S_a/ω_n² at the roof
+    expect(rel(m1.gamma ** 2 * m1.Sa, m1.baseShear)).toBeLessThan(1e-12);
+    expect(rel(out.baseShear, Math.hypot(m1.baseShear, m2.baseShear))).toBeLessThan(1e-12);
+    // roof: mode 1 shape [½, 1] with Γ₁φ_roof = 4/3, mode 2 [−1, 1] with Γ₂φ_roof = −1/3
+    const w1 = Math.sqrt(k / (2 * m));
+    const w2 = Math.sqrt((2 * k) / m);
+    expect(
+      rel(out.displacement[1], Math.hypot(((4 / 3) * 3) / w1 ** 2, ((1 / 3) * 3) / w2 ** 2)),
+    ).toBeLessThan(1e-10);
+  });
+
+  it('refuses a spectrum table that does not reach a mode, naming the mode and its period', () => {
+    const { K, M } = storeyChain({ masses: [1e5], stiffnesses: [4e6] }); // T = 2π√(m/k) ≈ 0.993 s
+    const kf = join(dir, 'K1s.mtx');
+    const mf = join(dir, 'M1s.mtx');
+    writeFileSync(kf, writeMatrixMarket(K));
+    writeFileSync(mf, writeMatrixMarket(M));
+    const sf = join(dir, 'short.csv');
+    writeFileSync(sf, '0,3\n0.5,3\n');
+    const r = run(['--stiffness', kf, '--mass', mf, '--spectrum', sf, '--combine', 'cqc']);
+    expect(r.status).toBe(1);
+    expect(r.stderr).toMatch(
+      /INVALID_OPTION: Mode 1 \(T = 0\.9935 s\): The period 0\.9935 s is outside the spectrum table \(0 s to 0\.5 s\)/,
+    );
+    const bad = run(['--stiffness', kf, '--mass', mf, '--spectrum', sf, '--combine', 'abs']);
+    expect(bad.status).toBe(2);
+    expect(bad.stderr).toMatch(/--combine is srss or cqc/);
+  });
+
+  it('takes the influence vector from --influence: the effective masses of all modes add up to rᵀMr (REFERENCES.md, "Properties"; relative 1e-10)', () => {
+    const m = 1.0e5;
+    const { K, M } = storeyChain({ masses: [2 * m, m], stiffnesses: [8e7, 4e7] });
+    const kf = join(dir, 'K2i.mtx');
+    const mf = join(dir, 'M2i.mtx');
+    const rf = join(dir, 'r.mtx');
+    writeFileSync(kf, writeMatrixMarket(K));
+    writeFileSync(mf, writeMatrixMarket(M));
+    writeFileSync(rf, '%%MatrixMarket matrix array real general\n2 1\n1\n0\n');
+    const sf = join(dir, 'S2.csv');
+    writeFileSync(sf, '0,3\n10,3\n');
+    const r = run(['--stiffness', kf, '--mass', mf, '--spectrum', sf, '--influence', rf, '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    const out = JSON.parse(r.stdout).response;
+    expect(out.combination).toBe('cqc');
+    const total = out.modes.reduce(
+      (a: number, x: { effectiveMass: number }) => a + x.effectiveMass,
+      0,
+    );
+    expect(Math.abs(total / (2 * m) - 1)).toBeLessThan(1e-10);
+  });
 });

@@ -8,7 +8,7 @@ export const blockSchema = z.object({
       /^[A-Za-z0-9_.:-]{1,64}$/,
       'a block id is 1–64 letters, digits or _ . : - without spaces',
     ),
-  kind: z.enum(['text', 'calc', 'matrix', 'modes', 'criteria']),
+  kind: z.enum(['text', 'calc', 'matrix', 'modes', 'response', 'criteria']),
   source: z.string().max(2_000_000, 'a block may hold at most 2 000 000 characters'),
 });
 

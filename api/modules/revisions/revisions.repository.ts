@@ -10,7 +10,7 @@ export interface PersonRef {
 
 export interface RevisionBlock {
   id: string;
-  kind: 'text' | 'calc' | 'matrix' | 'modes' | 'criteria';
+  kind: 'text' | 'calc' | 'matrix' | 'modes' | 'response' | 'criteria';
   source: string;
 }
 

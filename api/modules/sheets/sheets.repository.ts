@@ -2,7 +2,7 @@ import type { Knex } from 'knex';
 import { readJson, type DbOrTx } from '../../db/index';
 
 export type SheetStatus = 'draft' | 'in_check' | 'returned' | 'checked' | 'sealed';
-export type BlockKind = 'text' | 'calc' | 'matrix' | 'modes' | 'criteria';
+export type BlockKind = 'text' | 'calc' | 'matrix' | 'modes' | 'response' | 'criteria';
 
 export interface SheetBlock {
   id: string;

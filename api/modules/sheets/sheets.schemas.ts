@@ -9,7 +9,14 @@ export const TEMPLATE_KEYS = [
 ] as const;
 export type TemplateKey = (typeof TEMPLATE_KEYS)[number];
 
-export const BLOCK_KIND_VALUES = ['text', 'calc', 'matrix', 'modes', 'criteria'] as const;
+export const BLOCK_KIND_VALUES = [
+  'text',
+  'calc',
+  'matrix',
+  'modes',
+  'response',
+  'criteria',
+] as const;
 
 const id = z.coerce
   .number({ message: 'must be a whole number' })

@@ -32,8 +32,9 @@ import { evaluateNode, parseExpression, report, type EvalContext } from '../cont
 import { RESULT_MATRIX_LIMIT } from '../format';
 import { ENGINE_MATRICES, MATRIX_DOFS } from '../generators';
 import { LargeMatrix } from '../large-matrix';
-import { blockLines, splitComment } from '../source';
-import type { ModeRow, ModesBlockResult, ModesWarning, SheetBlock } from '../types';
+import { MODAL_RESULTS } from '../modal-registry';
+import type { ModeRow, ModesBlockResult, ModesWarning, SheetBlock, SheetLocation } from '../types';
+import { checkBlockName, readKeyLines, type KeyLine } from './key-lines';
 
 export const MODES_KEYS = [
   'stiffness',
@@ -277,85 +278,31 @@ function memoryRefusal(e: EngineError, advice: string | undefined): string {
   );
 }
 
-export function evaluateModesBlock(
-  ctx: EvalContext,
-  block: SheetBlock,
-  blockIndex: number,
-): ModesBlockResult {
-  const at = (line: number) => ({ blockId: block.id, blockIndex, line });
-  const result = emptyResult(block, blockIndex);
-  const keys: Partial<Record<ModesKey, { value: string; line: number }>> = {};
-  let bad = false;
-  blockLines(block.source).forEach((raw, i) => {
-    const line = i + 1;
-    const { code } = splitComment(raw);
-    if (code.trim() === '') return;
-    const kv = /^\s*([A-Za-z][A-Za-z ]*?)\s*:\s*(.*)$/.exec(code);
-    if (!kv) {
-      report(
-        ctx,
-        at(line),
-        new EngineError(
-          'SHEET_PARSE',
-          `Expected "key: value" (for example "stiffness: K"); the keys are ${MODES_KEYS.join(', ')}.`,
-        ),
-      );
-      bad = true;
-      return;
-    }
-    const key = kv[1]!.toLowerCase().replace(/\s+/g, ' ') as ModesKey;
-    if (!MODES_KEYS.includes(key)) {
-      report(
-        ctx,
-        at(line),
-        new EngineError(
-          'SHEET_PARSE',
-          `Unknown key "${kv[1]}"; the keys of a modes block are ${MODES_KEYS.join(', ')}.`,
-        ),
-      );
-      bad = true;
-      return;
-    }
-    if (keys[key]) {
-      report(
-        ctx,
-        at(line),
-        new EngineError(
-          'SHEET_PARSE',
-          `"${key}:" is given twice (first on line ${keys[key].line}).`,
-        ),
-      );
-      bad = true;
-      return;
-    }
-    if (kv[2]!.trim() === '') {
-      report(ctx, at(line), new EngineError('SHEET_PARSE', `"${key}:" has no value.`));
-      bad = true;
-      return;
-    }
-    keys[key] = { value: kv[2]!.trim(), line };
-  });
+type ModesKeys = Partial<Record<ModesKey, KeyLine>>;
 
-  const name = keys.name?.value ?? 'modes';
-  result.name = name;
-  const nameLine = keys.name?.line ?? 0;
-  const markFailed = () => {
-    ctx.failed.set(name, at(nameLine));
-    ctx.scope.delete(name);
-    return result;
-  };
-  if (keys.name && !/^[A-Za-z][A-Za-z0-9_]*$/.test(name)) {
-    report(
-      ctx,
-      at(nameLine),
-      new EngineError(
-        'SHEET_PARSE',
-        `"${name}" is not a valid name: use letters, digits and _, starting with a letter.`,
-      ),
-    );
-    return result;
-  }
-  if (bad) return markFailed();
+/** What the keys give the solve: the pencil, the options and the influence directions. */
+interface SolveSetup {
+  K: SideMatrix;
+  M: SideMatrix;
+  options: SolveOptions;
+  influence: InfluenceVector[];
+  warnings: ModesWarning[];
+}
+
+/** One evaluation of a modes block: where its messages go and how its name is failed. */
+interface ModesRun {
+  ctx: EvalContext;
+  block: SheetBlock;
+  blockIndex: number;
+  keys: ModesKeys;
+  name: string;
+  at: (line: number) => SheetLocation;
+}
+
+/** Step 1 is the name (checkBlockName); step 2: `stiffness:` and `mass:` must be given; false after reporting. */
+function checkRequired(run: ModesRun): boolean {
+  const { ctx, keys, at } = run;
+  let ok = true;
   for (const req of ['stiffness', 'mass'] as const) {
     if (!keys[req]) {
       report(
@@ -366,21 +313,63 @@ export function evaluateModesBlock(
           `A modes block needs "${req}:" (for example "${req}: ${req === 'stiffness' ? 'K' : 'M'}").`,
         ),
       );
-      bad = true;
+      ok = false;
     }
   }
-  if (bad) return markFailed();
+  return ok;
+}
 
-  // Each key is read at its own line so errors point there.
+/** The generator's result a `stiffness: name.K` came from, for its influence directions. */
+function generatorBase(ctx: EvalContext, keys: ModesKeys): Record<string, unknown> | null {
+  const baseName = /^([A-Za-z][A-Za-z0-9_]*)\.K$/.exec(keys.stiffness!.value)?.[1];
+  if (!baseName) return null;
+  const b = ctx.scope.get(baseName);
+  return b && typeof b === 'object' && Object.getPrototypeOf(b) === Object.prototype
+    ? (b as Record<string, unknown>)
+    : null;
+}
+
+/** The influence directions: `direction:` or, without it, every direction of the generator. */
+function readDirections(
+  run: ModesRun,
+  base: Record<string, unknown> | null,
+  evalAt: (key: ModesKey) => unknown,
+): InfluenceVector[] {
+  const { ctx, keys } = run;
+  const { math } = ctx.sm;
+  const influence: InfluenceVector[] = [];
+  if (keys.direction) {
+    const d = keys.direction.value;
+    const inf = base?.influence as Record<string, unknown> | undefined;
+    let v: unknown;
+    if (/^[A-Za-z][A-Za-z0-9_]*$/.test(d) && inf && d in inf && !ctx.scope.has(d)) v = inf[d];
+    else v = evalAt('direction');
+    const arr = math.isMatrix(v) ? ((v as Matrix).toArray() as unknown[]).flat(2) : null;
+    if (!arr || !arr.every((x) => typeof x === 'number')) {
+      fail(
+        `"direction:" must be an influence vector of plain numbers (for example [1, 1, 1]) or the name of one of the model's directions.`,
+      );
+    }
+    influence.push({ name: d, vector: Float64Array.from(arr as number[]) });
+  } else if (base?.influence && typeof base.influence === 'object') {
+    for (const [nm, v] of Object.entries(base.influence as Record<string, unknown>)) {
+      if (math.isMatrix(v))
+        influence.push({
+          name: nm,
+          vector: Float64Array.from(((v as Matrix).toArray() as number[]).flat()),
+        });
+    }
+  }
+  return influence;
+}
+
+/** Step 3: each key read at its own line (errors point there); null after reporting. */
+function readSolveSetup(run: ModesRun): SolveSetup | null {
+  const { ctx, keys, at } = run;
   const options: SolveOptions = {};
-  const warnings: ModesWarning[] = [];
-  let K: SideMatrix | null = null;
-  let M: SideMatrix | null = null;
-  let base: Record<string, unknown> | null = null;
-  const evalAt = (key: ModesKey) => {
-    const k = keys[key]!;
-    return evaluateNode(ctx, parseExpression(ctx, k.value), new Map(ctx.scope));
-  };
+  let bad = false;
+  const evalAt = (key: ModesKey) =>
+    evaluateNode(ctx, parseExpression(ctx, keys[key]!.value), new Map(ctx.scope));
   const step = <T>(key: ModesKey, fn: () => T): T | undefined => {
     try {
       return fn();
@@ -391,16 +380,11 @@ export function evaluateModesBlock(
       return undefined;
     }
   };
-  K =
-    step('stiffness', () => sideMatrix(ctx, evalAt('stiffness'), 'K', keys.stiffness!.value)) ??
-    null;
-  M = step('mass', () => sideMatrix(ctx, evalAt('mass'), 'M', keys.mass!.value)) ?? null;
-  const baseName = /^([A-Za-z][A-Za-z0-9_]*)\.K$/.exec(keys.stiffness!.value)?.[1];
-  if (baseName) {
-    const b = ctx.scope.get(baseName);
-    if (b && typeof b === 'object' && Object.getPrototypeOf(b) === Object.prototype)
-      base = b as Record<string, unknown>;
-  }
+  const K = step('stiffness', () =>
+    sideMatrix(ctx, evalAt('stiffness'), 'K', keys.stiffness!.value),
+  );
+  const M = step('mass', () => sideMatrix(ctx, evalAt('mass'), 'M', keys.mass!.value));
+  const base = generatorBase(ctx, keys);
   if (keys.method) {
     step('method', () => {
       const m = keys.method!.value.toLowerCase() as MethodName;
@@ -434,52 +418,35 @@ export function evaluateModesBlock(
   }
   if (keys.normalize)
     step('normalize', () => (options.normalize = parseNormalize(keys.normalize!.value)));
-  if (keys.shift) {
-    step('shift', () => {
-      const v = evalAt('shift');
-      const { math } = ctx.sm;
-      if (!math.isUnit(v))
-        fail('"shift:" must be a frequency with its unit, such as 24.5 Hz, 1480 rpm or 150 rad/s.');
-      const u = v as Unit;
-      let lambda: number;
-      if (u.equalBase(math.unit(1, 'Hz'))) lambda = (2 * Math.PI * u.toNumber('Hz')) ** 2;
-      else if (u.equalBase(math.unit(1, 'rad/s'))) lambda = u.toNumber('rad/s') ** 2;
-      else return fail(`"shift:" must be a frequency (Hz, rpm or rad/s); got ${u.toString()}.`);
-      options.shift = lambda;
-    });
-  }
-  const influence: InfluenceVector[] = [];
-  if (keys.direction) {
-    step('direction', () => {
-      const d = keys.direction!.value;
-      const inf = base?.influence as Record<string, unknown> | undefined;
-      let v: unknown;
-      if (/^[A-Za-z][A-Za-z0-9_]*$/.test(d) && inf && d in inf && !ctx.scope.has(d)) v = inf[d];
-      else v = evalAt('direction');
-      const { math } = ctx.sm;
-      const arr = math.isMatrix(v) ? ((v as Matrix).toArray() as unknown[]).flat(2) : null;
-      if (!arr || !arr.every((x) => typeof x === 'number')) {
-        fail(
-          `"direction:" must be an influence vector of plain numbers (for example [1, 1, 1]) or the name of one of the model's directions.`,
-        );
-      }
-      influence.push({ name: d, vector: Float64Array.from(arr as number[]) });
-    });
-  } else if (base?.influence && typeof base.influence === 'object') {
-    const { math } = ctx.sm;
-    for (const [nm, v] of Object.entries(base.influence as Record<string, unknown>)) {
-      if (math.isMatrix(v))
-        influence.push({
-          name: nm,
-          vector: Float64Array.from(((v as Matrix).toArray() as number[]).flat()),
-        });
-    }
-  }
-  if (bad || !K || !M) return markFailed();
+  if (keys.shift) step('shift', () => (options.shift = readShift(ctx, evalAt('shift'))));
+  const influence =
+    (keys.direction
+      ? step('direction', () => readDirections(run, base, evalAt))
+      : readDirections(run, base, evalAt)) ?? [];
+  if (bad || !K || !M) return null;
 
+  const warnings: ModesWarning[] = [];
   const unitsOk = step(K.unit ? 'mass' : 'stiffness', () => checkPencilUnits(ctx, K, M));
-  if (unitsOk === undefined && bad) return markFailed();
+  if (unitsOk === undefined && bad) return null;
   if (unitsOk) warnings.push({ code: 'UNITS_ASSUMED_SI', message: unitsOk });
+  return { K, M, options, influence, warnings };
+}
+
+/** λ = (2πf)² from `shift:` in Hz, rpm or rad/s. */
+function readShift(ctx: EvalContext, v: unknown): number {
+  const { math } = ctx.sm;
+  if (!math.isUnit(v))
+    fail('"shift:" must be a frequency with its unit, such as 24.5 Hz, 1480 rpm or 150 rad/s.');
+  const u = v as Unit;
+  if (u.equalBase(math.unit(1, 'Hz'))) return (2 * Math.PI * u.toNumber('Hz')) ** 2;
+  if (u.equalBase(math.unit(1, 'rad/s'))) return u.toNumber('rad/s') ** 2;
+  return fail(`"shift:" must be a frequency (Hz, rpm or rad/s); got ${u.toString()}.`);
+}
+
+/** Step 4: K and M of one size, and each direction as long; false after reporting. */
+function checkSizes(run: ModesRun, setup: SolveSetup): boolean {
+  const { ctx, keys, at } = run;
+  const { K, M } = setup;
   if (K.n !== M.n) {
     report(
       ctx,
@@ -489,9 +456,9 @@ export function evaluateModesBlock(
         `K is ${K.n}×${K.n} but M is ${M.n}×${M.n}; they must be the same size.`,
       ),
     );
-    return markFailed();
+    return false;
   }
-  for (const inf of influence) {
+  for (const inf of setup.influence) {
     if (inf.vector.length !== K.n) {
       report(
         ctx,
@@ -501,16 +468,22 @@ export function evaluateModesBlock(
           `The direction "${inf.name}" has ${inf.vector.length} entries but the model has ${K.n} DOFs.`,
         ),
       );
-      return markFailed();
+      return false;
     }
   }
-  if (influence.length > 0) options.influence = influence;
+  return true;
+}
+
+/** Step 5: the run's options: directions, cancellation, throttled progress, memory, threads. */
+function attachRunOptions(run: ModesRun, setup: SolveSetup): void {
+  const { ctx, block, blockIndex, name } = run;
+  const { options } = setup;
+  if (setup.influence.length > 0) options.influence = setup.influence;
   options.signal = {
     get aborted() {
       return ctx.options.isCancelled?.() ?? false;
     },
   };
-
   const sendProgress = ctx.options.onProgress;
   if (sendProgress) {
     // The solver reports every iteration; pass on at most one report per interval (and every
@@ -542,10 +515,13 @@ export function evaluateModesBlock(
     options.memoryLimitBytes = ctx.options.memoryLimitBytes;
   }
   if (ctx.options.denseTeam) options.team = ctx.options.denseTeam;
+}
 
-  let r: ModalResult;
+/** Step 6: the solve; a refusal is reported at the line it concerns and null returned. */
+function runSolve(run: ModesRun, setup: SolveSetup): ModalResult | null {
+  const { ctx, keys, at } = run;
   try {
-    r = solveModes(K.engine, M.engine, options);
+    return solveModes(setup.K.engine, setup.M.engine, setup.options);
   } catch (err) {
     if (err instanceof EngineError && err.code === 'CANCELLED') throw err;
     const e =
@@ -566,10 +542,35 @@ export function evaluateModesBlock(
           ? (keys.method?.line ?? keys.stiffness!.line)
           : 0;
     ctx.errors.push({ ...at(line), message: msg, code: e.code });
-    return markFailed();
+    return null;
   }
+}
 
+/**
+ * Step 8: a zero or non-finite K or M can give NaN modes without a solver error; nothing that is
+ * not a finite number may be stored, so say which matrix and entry is at fault.
+ */
+function checkFinite(run: ModesRun, setup: SolveSetup, result: ModesBlockResult): boolean {
+  const notFinite =
+    firstNonFinitePath({ modes: result.modes, shapes: result.shapes }) ??
+    firstNonFinitePath(result);
+  if (!notFinite) return true;
+  const { ctx, keys, at } = run;
+  const why = modesNotFiniteMessage(
+    notFinite.path,
+    notFinite.value,
+    setup.K.engine,
+    setup.M.engine,
+  );
+  const line = why.matrix === 'M' ? keys.mass!.line : keys.stiffness!.line;
+  ctx.errors.push({ ...at(line), message: why.message, code: 'SHEET_EVAL' });
+  return false;
+}
+
+/** Step 7: the block's result (the table, shapes, Sturm check, warnings, engine details). */
+function fillResult(result: ModesBlockResult, setup: SolveSetup, r: ModalResult): void {
   const p = r.participation[0];
+  const { K, M, options } = setup;
   result.method = options.method ?? 'auto';
   result.methodUsed = r.method;
   result.size = r.n;
@@ -598,7 +599,10 @@ export function evaluateModesBlock(
     : null;
   result.participation = p ? { direction: p.name, mass: p.totalMass } : null;
   result.criticalTimeStep = r.criticalTimeStep?.dtCr ?? null;
-  result.warnings = [...warnings, ...r.warnings.map((w) => ({ code: w.code, message: w.message }))];
+  result.warnings = [
+    ...setup.warnings,
+    ...r.warnings.map((w) => ({ code: w.code, message: w.message })),
+  ];
   result.engine = {
     methodNote: r.methodNote,
     options: { ...r.options, shift: r.options.shift },
@@ -609,19 +613,53 @@ export function evaluateModesBlock(
     participation: r.participation,
     ...(r.criticalTimeStep ? { criticalTimeStep: r.criticalTimeStep } : {}),
   };
-  // A zero or non-finite K or M can give NaN modes without a solver error; nothing that is not a
-  // finite number may be stored, so say here which matrix and entry is at fault.
-  const notFinite =
-    firstNonFinitePath({ modes: result.modes, shapes: result.shapes }) ??
-    firstNonFinitePath(result);
-  if (notFinite) {
-    const why = modesNotFiniteMessage(notFinite.path, notFinite.value, K.engine, M.engine);
-    const line = why.matrix === 'M' ? keys.mass!.line : keys.stiffness!.line;
-    ctx.errors.push({ ...at(line), message: why.message, code: 'SHEET_EVAL' });
+}
+
+/**
+ * Evaluates a modes block: read the keys, check the name, read K, M and the options at their
+ * lines, check sizes, solve, then fill the result and bind it under the block's name (with the
+ * engine's basis registered for response blocks below).
+ */
+export function evaluateModesBlock(
+  ctx: EvalContext,
+  block: SheetBlock,
+  blockIndex: number,
+): ModesBlockResult {
+  const at = (line: number) => ({ blockId: block.id, blockIndex, line });
+  const result = emptyResult(block, blockIndex);
+  const { keys, bad } = readKeyLines(ctx, block, at, MODES_KEYS, 'a modes block', 'stiffness: K');
+  const name = keys.name?.value ?? 'modes';
+  result.name = name;
+  const run: ModesRun = { ctx, block, blockIndex, keys, name, at };
+  const markFailed = () => {
+    ctx.failed.set(name, at(keys.name?.line ?? 0));
+    ctx.scope.delete(name);
+    return result;
+  };
+  if (!checkBlockName(ctx, keys.name, at)) return result;
+  if (bad || !checkRequired(run)) return markFailed();
+  const setup = readSolveSetup(run);
+  if (!setup || !checkSizes(run, setup)) return markFailed();
+  attachRunOptions(run, setup);
+  const r = runSolve(run, setup);
+  if (!r) return markFailed();
+  fillResult(result, setup, r);
+  if (!checkFinite(run, setup, result)) {
     Object.assign(result, emptyResult(block, blockIndex));
     return markFailed();
   }
-  ctx.scope.set(name, bindResults(ctx, r));
+  const bound = bindResults(ctx, r);
+  ctx.scope.set(name, bound);
+  MODAL_RESULTS.set(bound, {
+    basis: {
+      omega: r.modes.map((m) => m.omega),
+      shapes: r.modes.map((m) => m.shape),
+      M: setup.M.engine,
+    },
+    influence: setup.influence,
+    dofLabels: result.dofLabels,
+    blockId: block.id,
+  });
   ctx.failed.delete(name);
   result.ok = true;
   return result;

@@ -13,6 +13,7 @@ import { handParts } from './hand-parts';
 import { ModesDownloads } from './modes-downloads';
 import { ModesWarnings } from './modes-warnings';
 import { ParticipationNote } from './participation-note';
+import { ResponseResults } from './response-results';
 import { Tex } from './tex';
 
 export type { BlockResult, SheetResults } from '../../../../core/index';
@@ -184,6 +185,8 @@ export function BlockResultView({
           {...(fileStem ? { fileStem: `${fileStem}_${result.name ?? 'modes'}` } : {})}
         />
       );
+    case 'response':
+      return <ResponseResults result={result} />;
     default:
       return null;
   }

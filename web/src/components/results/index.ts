@@ -4,3 +4,4 @@ export { handParts } from './hand-parts';
 export { ModesWarnings, splitModesWarnings, powerOfTen } from './modes-warnings';
 export { ParticipationNote } from './participation-note';
 export { ModesDownloads } from './modes-downloads';
+export { ResponseResults } from './response-results';

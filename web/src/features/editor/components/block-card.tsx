@@ -2,6 +2,7 @@ import { useMemo, type DragEvent } from 'react';
 import type { BlockResult, SheetIssue } from '../api/results';
 import type { Block } from '../api/types';
 import { renderMarkdown } from '../../../components/results/markdown';
+import { ResponseResults } from '../../../components/results/response-results';
 import type { ScopeName } from '../lib/scope';
 import { BlockSource, type RemarkMark } from './block-source';
 import { CalcResult } from './calc-result';
@@ -14,6 +15,7 @@ export const KIND_LABELS: Record<Block['kind'], string> = {
   calc: 'Calculation',
   matrix: 'Matrix',
   modes: 'Modes',
+  response: 'Response',
   criteria: 'Criteria',
 };
 
@@ -63,6 +65,8 @@ function Results({
           fileStem={`${fileStem}_${result.name ?? 'modes'}`}
         />
       );
+    case 'response':
+      return <ResponseResults result={result} />;
     case 'criteria':
       return <CriteriaResult result={result} />;
     default:

@@ -12,6 +12,8 @@ export const BLOCK_STARTERS: Record<BlockKind, string> = {
   calc: '',
   matrix: 'name: K\nunit: kN/m\n',
   modes: 'stiffness: K\nmass: M\nmethod: auto\ncount: 3\nname: modes\n',
+  response:
+    'modes: modes\nanalysis: spectrum\nspectrum: ASCE 7-16\nSDS: 1.0\nSD1: 0.6\nTL: 8 s\nR: 8\ndamping: 0.05\ncombine: cqc\nname: rsa\n',
   criteria: '',
 };
 

@@ -21,6 +21,39 @@ export const MODES_FIELDS: readonly [string, string][] = [
   ['dt_cr', 'critical time step (forward)'],
 ];
 
+/** What a response block binds, per analysis (core/sheet/README.md). */
+const RESPONSE_FIELDS: Record<string, readonly [string, string][]> = {
+  spectrum: [
+    ['V', 'base shear (scaled)'],
+    ['V_modal', 'base shear before scaling'],
+    ['u', 'peak displacements'],
+    ['drift', 'storey drifts'],
+    ['drift_ratio', 'drift / storey height'],
+    ['storey_shear', 'storey shears'],
+    ['overturning', 'overturning moments'],
+    ['V_elf', 'ELF base shear'],
+    ['scale', 'ELF scale factor'],
+    ['mass_ratio', 'share of the mass in the modes'],
+  ],
+  harmonic: [
+    ['u_run', 'amplitudes at the running speed'],
+    ['v_run', 'velocities at the running speed'],
+    ['u_max', 'largest amplitudes'],
+    ['separation', 'nearest mode from the running speed, 0–1'],
+  ],
+  history: [
+    ['peak', 'peak displacements'],
+    ['t_peak', 'times of the peaks'],
+    ['V_peak', 'peak base shear'],
+    ['dt_cr', 'central-difference stable step'],
+  ],
+  walking: [
+    ['a', 'peak walking acceleration'],
+    ['a_g', 'a / g'],
+    ['limit', 'acceleration limit'],
+  ],
+};
+
 const GENERATOR_FIELDS: readonly [string, string][] = [
   ['K', 'stiffness matrix'],
   ['M', 'mass matrix'],
@@ -92,6 +125,13 @@ export function namesInScope(
         add(name, 'modes');
         MODES_FIELDS.forEach(([field, detail]) => add(`${name}.${field}`, detail));
       }
+    } else if (block.kind === 'response' && index < blockIndex) {
+      const name = header(block.source, 'name') ?? 'response';
+      const analysis = header(block.source, 'analysis')?.toLowerCase() ?? '';
+      add(name, `response (${analysis || 'analysis'})`);
+      (RESPONSE_FIELDS[analysis] ?? []).forEach(([field, detail]) =>
+        add(`${name}.${field}`, detail),
+      );
     }
   });
   return out;

@@ -26,6 +26,58 @@ export const MODES_KEYS = [
 
 export const MATRIX_KEYS = ['name', 'unit', 'symmetric', 'from'] as const;
 
+/** The keys of a response block (core/sheet/blocks/response.ts), lower case. */
+export const RESPONSE_KEYS = [
+  'modes',
+  'analysis',
+  'damping',
+  'name',
+  'spectrum',
+  'sds',
+  'sd1',
+  'tl',
+  'r',
+  'ie',
+  'ground',
+  'ag',
+  'q',
+  'table',
+  'table unit',
+  'combine',
+  'direction',
+  'directional',
+  'heights',
+  'elf base shear',
+  'elf share',
+  'force',
+  'unbalance',
+  'at',
+  'running speed',
+  'range',
+  'points',
+  'rayleigh',
+  'dofs',
+  'record',
+  'record unit',
+  'step',
+  'duration',
+  'method',
+  'mode',
+  'limit',
+] as const;
+
+/** Words a response block's keyword keys take. */
+export const RESPONSE_CHOICES: Record<string, readonly string[]> = {
+  analysis: ['spectrum', 'harmonic', 'history', 'walking'],
+  spectrum: ['ASCE 7-16', 'EN 1998-1 type 1', 'EN 1998-1 type 2', 'table'],
+  combine: ['cqc', 'srss'],
+  directional: ['srss', '100-30'],
+  ground: ['A', 'B', 'C', 'D', 'E'],
+  method: ['exact', 'newmark'],
+  'table unit': ['g', 'm/s^2'],
+  'record unit': ['g', 'm/s^2'],
+};
+
 export const MODES_METHODS = [
   'auto',
   'inverse',
@@ -127,9 +179,12 @@ function keyValueToken(keys: readonly string[]) {
       state.lineStart = true;
       state.afterKey = false;
       state.afterNumber = false;
-      const key = stream.match(/^\s*([A-Za-z][A-Za-z ]*?)\s*:/, false) as RegExpMatchArray | null;
+      const key = stream.match(
+        /^\s*([A-Za-z][A-Za-z0-9 ]*?)\s*:/,
+        false,
+      ) as RegExpMatchArray | null;
       if (key && key[1]) {
-        stream.match(/^\s*[A-Za-z][A-Za-z ]*?(?=\s*:)/);
+        stream.match(/^\s*[A-Za-z][A-Za-z0-9 ]*?(?=\s*:)/);
         state.afterKey = true;
         return keys.includes(key[1].toLowerCase()) ? 'propertyName' : 'invalid';
       }
@@ -186,6 +241,14 @@ const modesLanguage = StreamLanguage.define<State>({
   tokenTable,
 });
 
+const responseLanguage = StreamLanguage.define<State>({
+  name: 'modewright-response',
+  startState,
+  token: keyValueToken(RESPONSE_KEYS),
+  languageData: { commentTokens: { line: '#' } },
+  tokenTable,
+});
+
 const highlight = HighlightStyle.define([
   { tag: t.comment, color: '#6f7379', fontStyle: 'italic' },
   { tag: t.number, color: '#1d2126' },
@@ -212,6 +275,8 @@ export function sheetLanguage(kind: BlockKind): Extension[] {
       return [matrixLanguage, style];
     case 'modes':
       return [modesLanguage, style];
+    case 'response':
+      return [responseLanguage, style];
     default:
       return [style];
   }

@@ -34,7 +34,7 @@ export type SealView = {
 
 export type RevisionBlock = {
   id: string;
-  kind: 'text' | 'calc' | 'matrix' | 'modes' | 'criteria';
+  kind: 'text' | 'calc' | 'matrix' | 'modes' | 'response' | 'criteria';
   source: string;
 };
 
