@@ -125,3 +125,44 @@ export function acceptMassNormalized(
   psis.push(psi);
   return phi;
 }
+
+/** w ← w − Σ q_i (q_iᵀ M w), twice; accumulates the coefficients into h when given. */
+export function orthogonalize(
+  w: Float64Array,
+  Q: Float64Array[],
+  MQ: Float64Array[],
+  count: number,
+  h: Float64Array | null,
+): void {
+  const n = w.length;
+  for (let pass = 0; pass < 2; pass++) {
+    for (let i = 0; i < count; i++) {
+      const mq = MQ[i]!;
+      let c = 0;
+      for (let t = 0; t < n; t++) c += mq[t]! * w[t]!;
+      const q = Q[i]!;
+      for (let t = 0; t < n; t++) w[t]! -= c * q[t]!;
+      if (h) h[i]! += c;
+    }
+  }
+}
+
+/** Σ_i y_i B_i over the first `count` basis vectors. */
+export function combineBasis(B: Float64Array[], y: Float64Array, count: number): Float64Array {
+  const n = B[0]!.length;
+  const out = new Float64Array(n);
+  for (let i = 0; i < count; i++) {
+    const c = y[i]!;
+    if (c === 0) continue;
+    const b = B[i]!;
+    for (let t = 0; t < n; t++) out[t]! += c * b[t]!;
+  }
+  return out;
+}
+
+/** xᵀ y without the checks of `dot` (hot loops of the iterations). */
+export function dotv(x: Float64Array, y: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < x.length; i++) s += x[i]! * y[i]!;
+  return s;
+}
