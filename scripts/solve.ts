@@ -11,8 +11,8 @@
 import { readFileSync } from 'node:fs';
 import { basename } from 'node:path';
 import { parseArgs } from 'node:util';
-import { isEngineError, readSymmetricMatrix, solveModes } from '../core/index';
-import type { MethodName, SolveOptions } from '../core/index';
+import { isEngineError, readSymmetricMatrix, solveModes } from '../core/engine';
+import type { MethodName, SolveOptions } from '../core/engine';
 
 const USAGE =
   'usage: solve --stiffness K.mtx --mass M.mtx [--count N] [--method auto|inverse|forward|shifted|dense|subspace|lanczos] [--shift-hz F] [--tolerance T] [--max-iterations I] [--seed S] [--json]';
