@@ -19,6 +19,7 @@ import { forwardIteration } from './forward-iteration';
 import { inverseIteration } from './inverse-iteration';
 import { assessConditioning, RIGID_BODY_THRESHOLD } from './conditioning';
 import { lanczos, type LanczosResult } from './lanczos';
+import type { LanczosSturm } from './sturm-checks';
 import {
   backwardError,
   closelySpacedPairs,
@@ -227,9 +228,23 @@ export function solveModes(
     options.memoryLimitBytes === undefined
       ? undefined
       : checkMemory(K, M, n, method, opts.count, options.memoryLimitBytes);
-  // stiffness: singular (rigid-body modes) or indefinite?
+  // stiffness: singular (rigid-body modes) or indefinite? For the shift-invert methods at σ = 0
+  // the factor of K − 0·M on the pencil is the one the method iterates with and the Sturm counts
+  // reuse its analysis: one factorization per shift (the method's own pivot tolerance, 1e-14; a
+  // zero pivot there falls back to the check below and lets the method move its shift).
   const scale = lambdaScale(K, M);
-  const kf = tryFactorize(K);
+  let sharedPencil = pencil;
+  let shared: SymmetricFactorization | undefined;
+  const shiftInvert = (method === 'lanczos' && opts.shift === null) || method === 'subspace';
+  if (shiftInvert && K.kind === 'sparse-symmetric' && M.kind === 'sparse-symmetric') {
+    sharedPencil ??= createShiftedPencil(K, M);
+    try {
+      shared = sharedPencil.factorize(0, 1e-14);
+    } catch (e) {
+      if (!(e instanceof EngineError) || e.code !== 'ZERO_PIVOT') throw e;
+    }
+  }
+  const kf = shared ?? tryFactorize(K);
   let rigidBodyModes = 0;
   let shift = 0;
   let factorization: SymmetricFactorization | undefined;
@@ -290,7 +305,10 @@ export function solveModes(
         : shift,
     seed: opts.seed,
     ...(method === 'inverse' && factorization ? { factorization } : {}),
-    ...(pencil && (method === 'lanczos' || method === 'subspace') ? { pencil } : {}),
+    ...(shared ? { factorization: shared } : {}),
+    ...(sharedPencil && (method === 'lanczos' || method === 'subspace')
+      ? { pencil: sharedPencil }
+      : {}),
     ...(options.onProgress ? { onProgress: options.onProgress } : {}),
     ...(options.signal ? { signal: options.signal } : {}),
     ...(options.team ? { team: options.team } : {}),
@@ -324,6 +342,9 @@ export function solveModes(
     influence: options.influence ?? [],
     massless,
     methodWarnings,
+    methodSturm:
+      method === 'lanczos' && opts.shift === null ? (raw as LanczosResult).sturm : undefined,
+    countBelow: (sigma) => sturmCount(K, M, sigma, sharedPencil),
   });
   return result;
 }
@@ -420,6 +441,10 @@ interface BuildContext {
   massless: number;
   /** Warnings the method made itself (Lanczos), used in place of the generic ones here. */
   methodWarnings: { code: string; message: string }[];
+  /** The Sturm proof the method made itself (Lanczos, lowest modes), used as it is. */
+  methodSturm: LanczosSturm | undefined;
+  /** Eigenvalues below σ, on the method's pencil when there is one. */
+  countBelow(sigma: number): number;
 }
 
 function buildResult(
@@ -476,8 +501,17 @@ function buildResult(
     const hi = hiL + delta * Math.max(Math.abs(hiL), floor);
     const lo = loL - delta * Math.max(Math.abs(loL), floor);
     const found = lams.length;
-    if (method === 'forward') {
-      const below = sturmCount(K, M, lo);
+    // Lanczos has made this check already, with locked runs: its verdict, in its words.
+    const said = c.methodWarnings.find(
+      (w) => w.code === 'STURM_MISMATCH' || w.code === 'REPEATED_BEYOND_COUNT',
+    );
+    const proof = c.methodSturm;
+    if (proof && proof.belowSigma === 0 && proof.found === found && (proof.ok || said)) {
+      // Its count just above λ_p was made on the factorization at that shift: not repeated here.
+      sturm = { shift: proof.shift, countBelow: proof.countBelow, found, ok: proof.ok };
+      if (!proof.ok && said) warnings.push(said);
+    } else if (method === 'forward') {
+      const below = c.countBelow(lo);
       const above = n - c.massless - below;
       sturm = { shift: lo, countBelow: below, found, ok: above === found };
       if (!sturm.ok) {
@@ -488,16 +522,12 @@ function buildResult(
       }
     } else {
       const lowest = !(method === 'shifted' || (method === 'lanczos' && opts.shift !== null));
-      const below = sturmCount(K, M, hi);
-      const belowLo = lowest ? 0 : sturmCount(K, M, lo);
+      const below = c.countBelow(hi);
+      const belowLo = lowest ? 0 : c.countBelow(lo);
       const inside = below - belowLo;
       sturm = { shift: hi, countBelow: below, found, ok: inside === found };
-      // Lanczos has made this check already, with locked runs: its verdict, in its words.
-      const own = c.methodWarnings.find(
-        (w) => w.code === 'STURM_MISMATCH' || w.code === 'REPEATED_BEYOND_COUNT',
-      );
-      if (!sturm.ok && own) {
-        warnings.push(own);
+      if (!sturm.ok && said) {
+        warnings.push(said);
       } else if (!sturm.ok) {
         warnings.push({
           code: 'STURM_MISMATCH',

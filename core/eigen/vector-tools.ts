@@ -5,6 +5,7 @@
 import { EngineError } from '../errors';
 import { combine, diagonalOf, factorizeSymmetric } from '../linalg/factorize';
 import { matrixSize, symmetricMultiply } from '../linalg/sparse';
+import type { ShiftedPencil } from '../linalg/sparse-ldlt/shifted';
 import type { SymmetricMatrix } from '../linalg/types';
 
 /**
@@ -54,14 +55,21 @@ export function lambdaScale(K: SymmetricMatrix, M: SymmetricMatrix): number {
 /**
  * Sturm count: the number of eigenvalues of K φ = λ M φ below σ, from the negative pivots of
  * K − σM = LDLᵀ (Sylvester's law of inertia). A zero pivot (σ on an eigenvalue) moves σ up by
- * 1e-9 relative and tries again, at most three times.
+ * 1e-9 relative and tries again, at most three times. With `pencil` (the union pattern of K and M,
+ * analysed once) only the numeric factorization is repeated.
  * @throws EngineError ZERO_PIVOT when σ cannot be moved off an eigenvalue.
  * @example sturmCount(K, M, 1.01 * lambdaTop)
  */
-export function sturmCount(K: SymmetricMatrix, M: SymmetricMatrix, sigma: number): number {
+export function sturmCount(
+  K: SymmetricMatrix,
+  M: SymmetricMatrix,
+  sigma: number,
+  pencil?: ShiftedPencil,
+): number {
   let s = sigma;
   for (let attempt = 0; ; attempt++) {
     try {
+      if (pencil) return pencil.factorize(s).negativePivots;
       return factorizeSymmetric(s === 0 ? K : combine(K, 1, M, -s)).negativePivots;
     } catch (e) {
       if (!(e instanceof EngineError) || e.code !== 'ZERO_PIVOT' || attempt >= 3) throw e;
