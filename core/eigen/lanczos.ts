@@ -13,6 +13,7 @@
 import { EngineError, NoConvergenceError } from '../errors';
 import {
   assessConditioning,
+  estimateEigenvalueErrors,
   RIGID_BODY_THRESHOLD,
   type ConditioningAssessment,
 } from './conditioning';
@@ -60,7 +61,9 @@ export type LanczosResult = RawEigenResult & {
  * (lowest-p mode) or at both ends of the band (band mode: the inertia of K − lo·M and K − hi·M
  * counts the eigenvalues in [lo, hi)). Missing copies of a repeated eigenvalue are found by runs
  * locked against the converged modes; a count that still disagrees is a STURM_MISMATCH warning
- * naming how many are missing. The conditioning λ_max/λ₁ (λ_max ≥ max K_ii/M_ii) is assessed
+ * naming how many are missing. The digits of the lowest modes are estimated after the fact
+ * (`conditioning.ts`: Rayleigh quotients in double-double arithmetic), beside the worst case
+ * λ_max/λ₁ (λ_max ≥ max K_ii/M_ii); this is assessed
  * too: when it costs λ₁ digits beyond the tolerance, an ILL_CONDITIONED warning says how many and,
  * when none survive, that the lowest eigenvalues are not meaningful.
  *
@@ -79,12 +82,9 @@ export function lanczos(input: MethodInput, options: LanczosOptions = {}): Lancz
   const warnings: MethodWarning[] = [];
   const scale = lambdaScale(op.K, op.M);
   const finish = (raw: RawEigenResult, sturm?: LanczosSturm): LanczosResult => {
-    const conditioning = assessConditioning(
-      scale,
-      raw.lambdas,
-      op.singularAtShift ? RIGID_BODY_THRESHOLD * scale : 0,
-      input.tolerance,
-    );
+    const floor = op.singularAtShift ? RIGID_BODY_THRESHOLD * scale : 0;
+    const errors = estimateEigenvalueErrors(op.K, op.M, raw.lambdas, raw.vectors, floor);
+    const conditioning = assessConditioning(scale, raw.lambdas, floor, input.tolerance, errors);
     if (conditioning.message) {
       warnings.push({ code: 'ILL_CONDITIONED', message: conditioning.message });
       notes.push(conditioning.message);

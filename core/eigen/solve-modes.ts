@@ -17,7 +17,7 @@ import type { SymmetricFactorization, SymmetricMatrix } from '../linalg/types';
 import { denseEigensolver } from './dense-eigensolver';
 import { forwardIteration } from './forward-iteration';
 import { inverseIteration } from './inverse-iteration';
-import { assessConditioning, RIGID_BODY_THRESHOLD } from './conditioning';
+import { assessConditioning, estimateEigenvalueErrors, RIGID_BODY_THRESHOLD } from './conditioning';
 import { lanczos, type LanczosResult } from './lanczos';
 import type { LanczosSturm } from './sturm-checks';
 import {
@@ -478,14 +478,19 @@ function buildResult(
   const orthogonality = massOrthogonality(M, vectors);
   const parts = participation(M, vectors, c.influence);
 
-  // conditioning: λ_max / λ_1 with λ_max ≥ max K_ii/M_ii and λ_1 the lowest flexible mode found
-  // (the same assessment, and so the same words, as Lanczos makes on its own)
-  const cond = assessConditioning(
-    c.scale,
-    raw.lambdas,
-    c.rigidBodyModes > 0 ? RIGID_BODY_THRESHOLD * c.scale : 0,
-    opts.tolerance,
-  );
+  // conditioning: the worst case λ_max / λ_1 (λ_max ≥ max K_ii/M_ii, λ_1 the lowest flexible mode
+  // found) and the estimate after the fact that decides the warning; Lanczos has made it already
+  // (the same assessment, so the same words)
+  const floor = c.rigidBodyModes > 0 ? RIGID_BODY_THRESHOLD * c.scale : 0;
+  const cond =
+    (raw as Partial<LanczosResult>).conditioning ??
+    assessConditioning(
+      c.scale,
+      raw.lambdas,
+      floor,
+      opts.tolerance,
+      estimateEigenvalueErrors(K, M, raw.lambdas, raw.vectors, floor),
+    );
   const estimate = cond.ratio;
   const digitsLost = cond.digitsLost;
   if (cond.message) warnings.push({ code: 'ILL_CONDITIONED', message: cond.message });
@@ -575,7 +580,12 @@ function buildResult(
     closelySpaced,
     ...(critical ? { criticalTimeStep: critical } : {}),
     ...(sturm ? { sturm } : {}),
-    conditioning: { estimate, digitsLost },
+    conditioning: {
+      estimate,
+      digitsLost,
+      relativeError: cond.relativeError,
+      unresolved: cond.unresolved,
+    },
     warnings,
   };
 }
