@@ -10,7 +10,7 @@
 import { EngineError } from '../errors';
 import { norm2 } from '../linalg/factorize';
 import { symmetricMultiply } from '../linalg/sparse';
-import { multiplyAdd } from './dense/kernels';
+import { multiplyAdd } from '../linalg/dense-kernels';
 import type { SymmetricMatrix } from '../linalg/types';
 import type { InfluenceVector, Participation, ShapeNormalization } from './types';
 
