@@ -56,8 +56,9 @@ export default tseslint.config(
             {
               target: ['./api', './web', './scripts', './seeds'],
               from: './core',
-              except: ['./index.ts', './threads.ts'],
-              message: 'Import core/ only through core/index.ts (helper threads: core/threads.ts).',
+              except: ['./index.ts', './threads.ts', './engine.ts'],
+              message:
+                'Import core/ only through core/index.ts (helper threads: core/threads.ts; the solver alone, without the sheet engine: core/engine.ts).',
             },
             {
               target: './web',

@@ -24,8 +24,8 @@ import {
   solveModes,
   spectrumAnalysis,
   tableSpectrum,
-} from '../core/index';
-import type { MethodName, ModalResult, SolveOptions } from '../core/index';
+} from '../core/engine';
+import type { MethodName, ModalResult, SolveOptions } from '../core/engine';
 
 const USAGE =
   'usage: solve --stiffness K.mtx --mass M.mtx [--count N] [--method auto|inverse|forward|shifted|dense|subspace|lanczos] [--shift-hz F] [--tolerance T] [--max-iterations I] [--seed S] [--json] [--spectrum S.csv --damping 0.05 --combine srss|cqc [--influence r.mtx]]';

@@ -8,6 +8,8 @@ export * from './forward-iteration';
 export * from './modal-quantities';
 export * from './solve-modes';
 export * from './lanczos';
+export * from './shifted-operator';
+export * from './sturm-checks';
 export * from './subspace-iteration';
 export * from './conditioning';
 export * from './dense/team';

@@ -13,16 +13,23 @@
 import { EngineError, NoConvergenceError } from '../errors';
 import {
   assessConditioning,
+  estimateEigenvalueErrors,
   RIGID_BODY_THRESHOLD,
   type ConditioningAssessment,
 } from './conditioning';
-import { diagonalOf, toSparse } from '../linalg/factorize';
-import { createShiftedPencil, multiplyLower } from '../linalg/sparse-ldlt/shifted';
+import { multiplyLower } from '../linalg/sparse-ldlt/shifted';
 import type { SparseSymmetricMatrix, SymmetricFactorization } from '../linalg/types';
 import { symmetricEigen } from './dense-eigensolver';
 import { seededRandom } from './random';
+import { prepareShiftedOperator } from './shifted-operator';
+import {
+  checkBandSturm,
+  sturmCountAbove,
+  type LanczosSturm,
+  type MethodWarning,
+} from './sturm-checks';
 import type { MethodInput, RawEigenResult } from './types';
-import { lambdaScale } from './vector-tools';
+import { combineBasis, dotv, lambdaScale, orthogonalize } from './vector-tools';
 
 /** Extra options of the Lanczos method. */
 export interface LanczosOptions {
@@ -36,30 +43,6 @@ export interface LanczosOptions {
   /** Memory limit of the factorization, bytes. */
   memoryLimitBytes?: number;
 }
-
-/**
- * The Sturm proof made inside the method. Lowest-p mode: K − σM factored at `shift` = λ_p + δ
- * (δ = 1e-8·|λ_p|) has `countBelow` negative pivots; `belowSigma` eigenvalues lie below the
- * working shift σ (normally 0), so `countBelow − belowSigma` should equal `found`. Band mode:
- * `shift` is the band's upper end hi, `belowSigma` the count below its lower end lo, and `found`
- * the modes returned in [lo, hi).
- */
-export interface LanczosSturm {
-  shift: number;
-  countBelow: number;
-  belowSigma: number;
-  found: number;
-  ok: boolean;
-  /** Band mode only: the band checked. */
-  band?: { lo: number; hi: number };
-}
-
-/** A warning of the method in words, with an UPPER_SNAKE code (also written into `notes`). */
-export interface MethodWarning {
-  code: string;
-  message: string;
-}
-
 /**
  * What `lanczos` returns: the raw result plus its Sturm proof, its conditioning estimate and
  * the warnings (STURM_MISMATCH, ILL_CONDITIONED), each of which is also in `notes`.
@@ -70,98 +53,6 @@ export type LanczosResult = RawEigenResult & {
   warnings: MethodWarning[];
 };
 
-/** The shifted operator used by both subspace iteration and Lanczos. */
-export interface ShiftedOperator {
-  readonly n: number;
-  readonly K: SparseSymmetricMatrix;
-  readonly M: SparseSymmetricMatrix;
-  readonly sigma: number;
-  readonly factorization: SymmetricFactorization;
-  readonly notes: string[];
-  /** True when K − σM was singular at the shift asked for (rigid-body modes) and σ was moved. */
-  readonly singularAtShift: boolean;
-  /** Counts eigenvalues below s (Sturm sequence of K − sM) with the same symbolic analysis. */
-  countBelow(s: number): number;
-  /** LDLᵀ of K − sM with the same symbolic analysis. */
-  factorizeAt(s: number): SymmetricFactorization;
-}
-
-/**
- * Factorizes K − σM for the given shift, reusing `input.factorization` when the caller has one.
- * When K − σM is singular at σ = 0 (rigid-body modes), moves σ to a small negative value and says
- * so in `notes`.
- * @throws EngineError STIFFNESS_SINGULAR when no nearby shift gives a regular K − σM.
- */
-export function prepareShiftedOperator(
-  input: MethodInput,
-  memoryLimitBytes?: number,
-): ShiftedOperator {
-  const K = toSparse(input.K);
-  const M = toSparse(input.M);
-  if (K.n !== M.n) {
-    throw new EngineError(
-      'MATRIX_SIZE_MISMATCH',
-      `K is ${K.n} × ${K.n} but M is ${M.n} × ${M.n}; they must be the same size.`,
-    );
-  }
-  const pencil =
-    input.pencil && input.pencil.n === K.n
-      ? input.pencil
-      : createShiftedPencil(K, M, memoryLimitBytes === undefined ? {} : { memoryLimitBytes });
-  const notes: string[] = [];
-  let sigma = input.shift;
-  let factorization: SymmetricFactorization | undefined = input.factorization;
-  if (!factorization) {
-    // Scale of λ from the diagonals, for a shift past a singular K (rigid-body modes).
-    const dk = diagonalOf(K);
-    const dm = diagonalOf(M);
-    let sk = 0;
-    let sm = 0;
-    for (let i = 0; i < K.n; i++) {
-      sk += Math.abs(dk[i]!);
-      sm += Math.abs(dm[i]!);
-    }
-    const scale = sm > 0 ? sk / sm : 1;
-    const trials = [sigma, sigma - 1e-10 * scale, sigma - 1e-8 * scale, sigma - 1e-6 * scale];
-    for (const trial of trials) {
-      try {
-        // A pivot below 1e-14 of its row is rounding noise of an exactly singular K − σM (a
-        // rigid-body mode at σ): shift past it. A slender model's genuine pivots, (h/L)³ of
-        // the element stiffness, stay above that for h/L > 2e-5.
-        factorization = pencil.factorize(trial, 1e-14);
-        if (trial !== input.shift) {
-          notes.push(
-            `K − σM is singular at σ = ${input.shift.toPrecision(3)} (rigid-body or mechanism ` +
-              `modes); shifted to σ = ${trial.toPrecision(3)} rad²/s².`,
-          );
-        }
-        sigma = trial;
-        break;
-      } catch (e) {
-        if (!(e instanceof EngineError) || e.code !== 'ZERO_PIVOT') throw e;
-      }
-    }
-    if (!factorization) {
-      throw new EngineError(
-        'STIFFNESS_SINGULAR',
-        `K − σM is singular at σ = ${input.shift.toPrecision(3)} and at three shifts below it: a ` +
-          'DOF has neither stiffness nor mass. Restrain it or give it mass.',
-      );
-    }
-  }
-  return {
-    n: K.n,
-    K,
-    M,
-    sigma,
-    factorization,
-    notes,
-    singularAtShift: sigma !== input.shift,
-    countBelow: (s: number) => pencil.factorize(s).negativePivots,
-    factorizeAt: (s: number) => pencil.factorize(s),
-  };
-}
-
 /**
  * The lowest `count` modes (or every mode in `options.band`) by shift-invert Lanczos.
  * Convergence: a Ritz pair is accepted when its residual |β y_m| ≤ tolerance · |θ|.
@@ -170,7 +61,9 @@ export function prepareShiftedOperator(
  * (lowest-p mode) or at both ends of the band (band mode: the inertia of K − lo·M and K − hi·M
  * counts the eigenvalues in [lo, hi)). Missing copies of a repeated eigenvalue are found by runs
  * locked against the converged modes; a count that still disagrees is a STURM_MISMATCH warning
- * naming how many are missing. The conditioning λ_max/λ₁ (λ_max ≥ max K_ii/M_ii) is assessed
+ * naming how many are missing. The digits of the lowest modes are estimated after the fact
+ * (`conditioning.ts`: Rayleigh quotients in double-double arithmetic), beside the worst case
+ * λ_max/λ₁ (λ_max ≥ max K_ii/M_ii); this is assessed
  * too: when it costs λ₁ digits beyond the tolerance, an ILL_CONDITIONED warning says how many and,
  * when none survive, that the lowest eigenvalues are not meaningful.
  *
@@ -189,12 +82,9 @@ export function lanczos(input: MethodInput, options: LanczosOptions = {}): Lancz
   const warnings: MethodWarning[] = [];
   const scale = lambdaScale(op.K, op.M);
   const finish = (raw: RawEigenResult, sturm?: LanczosSturm): LanczosResult => {
-    const conditioning = assessConditioning(
-      scale,
-      raw.lambdas,
-      op.singularAtShift ? RIGID_BODY_THRESHOLD * scale : 0,
-      input.tolerance,
-    );
+    const floor = op.singularAtShift ? RIGID_BODY_THRESHOLD * scale : 0;
+    const errors = estimateEigenvalueErrors(op.K, op.M, raw.lambdas, raw.vectors, floor);
+    const conditioning = assessConditioning(scale, raw.lambdas, floor, input.tolerance, errors);
     if (conditioning.message) {
       warnings.push({ code: 'ILL_CONDITIONED', message: conditioning.message });
       notes.push(conditioning.message);
@@ -367,87 +257,6 @@ export function lanczos(input: MethodInput, options: LanczosOptions = {}): Lancz
     }
   }
   return finish(result, sturm);
-}
-
-/**
- * The Sturm count just above λ_p: K − σM factored at σ = λ_p(1 + δ), δ = 1e-8. When that counts
- * fewer eigenvalues than the modes found up to λ_p — impossible in exact arithmetic, so the
- * pivots are not to be trusted at that margin — δ grows by decades while the margin stays within
- * 100·ε·λ_max (λ_max ≥ `scale` = max K_ii/M_ii), the size of the rounding of the factorization
- * (Wilkinson's backward error of LDLᵀ, common practice for the margin). Null when the shift hits
- * a zero pivot. `widened` is the δ used when it had to grow.
- */
-function sturmCountAbove(
-  op: ShiftedOperator,
-  lambdas: number[],
-  sigma: number,
-  scale: number,
-  belowSigma: number,
-): { above: number; below: number; widened: number | null } | null {
-  const lamP = lambdas[lambdas.length - 1]!;
-  const floor = 1e-12 * Math.abs(sigma) + 1e-300;
-  const limit = 100 * Number.EPSILON * scale;
-  let delta = 1e-8;
-  let widened: number | null = null;
-  for (;;) {
-    const above = lamP + Math.max(delta * Math.abs(lamP), floor);
-    let below: number;
-    try {
-      below = op.countBelow(above);
-    } catch (e) {
-      if (e instanceof EngineError && e.code === 'ZERO_PIVOT') return null;
-      throw e;
-    }
-    const needed = lambdas.filter((l) => l < above).length;
-    const next = delta * 10;
-    if (below - belowSigma >= needed || next * Math.abs(lamP) > limit) {
-      return { above, below, widened };
-    }
-    delta = next;
-    widened = delta;
-  }
-}
-
-/**
- * The Sturm check of a band [lo, hi): the eigenvalues in it are (negative pivots of K − hi·M)
- * − (negative pivots of K − lo·M) by Sylvester's law of inertia; that count is set against the
- * modes found in the band. A mismatch is a STURM_MISMATCH warning naming how many are missing
- * (or how many too many were returned).
- * @example
- * const c = checkBandSturm({ lo, hi, belowLo: count(lo), belowHi: count(hi) }, raw.lambdas);
- * c.sturm.ok; c.warning?.message;
- */
-export function checkBandSturm(
-  band: { lo: number; hi: number; belowLo: number; belowHi: number },
-  lambdas: readonly number[],
-): { sturm: LanczosSturm; note: string; warning: MethodWarning | null } {
-  const { lo, hi, belowLo, belowHi } = band;
-  const counted = belowHi - belowLo;
-  const found = lambdas.filter((l) => l >= lo && l < hi).length;
-  const sturm: LanczosSturm = {
-    shift: hi,
-    countBelow: belowHi,
-    belowSigma: belowLo,
-    found,
-    ok: counted === found,
-    band: { lo, hi },
-  };
-  const range = `[${lo.toPrecision(6)}, ${hi.toPrecision(6)}) rad²/s²`;
-  const note =
-    `Sturm check of the band ${range}: K − λM has ${belowLo} negative pivot` +
-    `${belowLo === 1 ? '' : 's'} at λ = lo and ${belowHi} at λ = hi, so ${counted} ` +
-    `eigenvalue${counted === 1 ? '' : 's'} lie in the band; ${found} found.`;
-  if (counted === found) return { sturm, note, warning: null };
-  const message =
-    counted > found
-      ? `Sturm check failed for the band ${range}: the inertia of K − lo·M and K − hi·M counts ` +
-        `${counted} eigenvalues in it, but ${found} were found: ${counted - found} mode` +
-        `${counted - found === 1 ? ' is' : 's are'} missing (a repeated or closely spaced ` +
-        'eigenvalue was skipped).'
-      : `Sturm check failed for the band ${range}: the inertia of K − lo·M and K − hi·M counts ` +
-        `${counted} eigenvalues in it, but ${found} were returned: ${found - counted} too many ` +
-        '(the model is too ill-conditioned for its pivots to be trusted).';
-  return { sturm, note, warning: { code: 'STURM_MISMATCH', message } };
 }
 
 function mergeResults(a: RawEigenResult, b: RawEigenResult, p: number): RawEigenResult {
@@ -700,46 +509,6 @@ function orthogonalizeOnce(
     }
     if (pass === 0 && before - removed > 0.5 * before) break;
   }
-}
-
-/** w ← w − Σ q_i (q_iᵀ M w), twice; accumulates the coefficients into h when given. */
-export function orthogonalize(
-  w: Float64Array,
-  Q: Float64Array[],
-  MQ: Float64Array[],
-  count: number,
-  h: Float64Array | null,
-): void {
-  const n = w.length;
-  for (let pass = 0; pass < 2; pass++) {
-    for (let i = 0; i < count; i++) {
-      const mq = MQ[i]!;
-      let c = 0;
-      for (let t = 0; t < n; t++) c += mq[t]! * w[t]!;
-      const q = Q[i]!;
-      for (let t = 0; t < n; t++) w[t]! -= c * q[t]!;
-      if (h) h[i]! += c;
-    }
-  }
-}
-
-/** Σ_i y_i B_i over the first `count` basis vectors. */
-export function combineBasis(B: Float64Array[], y: Float64Array, count: number): Float64Array {
-  const n = B[0]!.length;
-  const out = new Float64Array(n);
-  for (let i = 0; i < count; i++) {
-    const c = y[i]!;
-    if (c === 0) continue;
-    const b = B[i]!;
-    for (let t = 0; t < n; t++) out[t]! += c * b[t]!;
-  }
-  return out;
-}
-
-export function dotv(x: Float64Array, y: Float64Array): number {
-  let s = 0;
-  for (let i = 0; i < x.length; i++) s += x[i]! * y[i]!;
-  return s;
 }
 
 function scale(x: Float64Array, c: number): void {

@@ -17,8 +17,9 @@ import type { SymmetricFactorization, SymmetricMatrix } from '../linalg/types';
 import { denseEigensolver } from './dense-eigensolver';
 import { forwardIteration } from './forward-iteration';
 import { inverseIteration } from './inverse-iteration';
-import { assessConditioning, RIGID_BODY_THRESHOLD } from './conditioning';
+import { assessConditioning, estimateEigenvalueErrors, RIGID_BODY_THRESHOLD } from './conditioning';
 import { lanczos, type LanczosResult } from './lanczos';
+import type { LanczosSturm } from './sturm-checks';
 import {
   backwardError,
   closelySpacedPairs,
@@ -227,9 +228,23 @@ export function solveModes(
     options.memoryLimitBytes === undefined
       ? undefined
       : checkMemory(K, M, n, method, opts.count, options.memoryLimitBytes);
-  // stiffness: singular (rigid-body modes) or indefinite?
+  // stiffness: singular (rigid-body modes) or indefinite? For the shift-invert methods at σ = 0
+  // the factor of K − 0·M on the pencil is the one the method iterates with and the Sturm counts
+  // reuse its analysis: one factorization per shift (the method's own pivot tolerance, 1e-14; a
+  // zero pivot there falls back to the check below and lets the method move its shift).
   const scale = lambdaScale(K, M);
-  const kf = tryFactorize(K);
+  let sharedPencil = pencil;
+  let shared: SymmetricFactorization | undefined;
+  const shiftInvert = (method === 'lanczos' && opts.shift === null) || method === 'subspace';
+  if (shiftInvert && K.kind === 'sparse-symmetric' && M.kind === 'sparse-symmetric') {
+    sharedPencil ??= createShiftedPencil(K, M);
+    try {
+      shared = sharedPencil.factorize(0, 1e-14);
+    } catch (e) {
+      if (!(e instanceof EngineError) || e.code !== 'ZERO_PIVOT') throw e;
+    }
+  }
+  const kf = shared ?? tryFactorize(K);
   let rigidBodyModes = 0;
   let shift = 0;
   let factorization: SymmetricFactorization | undefined;
@@ -290,7 +305,10 @@ export function solveModes(
         : shift,
     seed: opts.seed,
     ...(method === 'inverse' && factorization ? { factorization } : {}),
-    ...(pencil && (method === 'lanczos' || method === 'subspace') ? { pencil } : {}),
+    ...(shared ? { factorization: shared } : {}),
+    ...(sharedPencil && (method === 'lanczos' || method === 'subspace')
+      ? { pencil: sharedPencil }
+      : {}),
     ...(options.onProgress ? { onProgress: options.onProgress } : {}),
     ...(options.signal ? { signal: options.signal } : {}),
     ...(options.team ? { team: options.team } : {}),
@@ -324,6 +342,9 @@ export function solveModes(
     influence: options.influence ?? [],
     massless,
     methodWarnings,
+    methodSturm:
+      method === 'lanczos' && opts.shift === null ? (raw as LanczosResult).sturm : undefined,
+    countBelow: (sigma) => sturmCount(K, M, sigma, sharedPencil),
   });
   return result;
 }
@@ -420,6 +441,10 @@ interface BuildContext {
   massless: number;
   /** Warnings the method made itself (Lanczos), used in place of the generic ones here. */
   methodWarnings: { code: string; message: string }[];
+  /** The Sturm proof the method made itself (Lanczos, lowest modes), used as it is. */
+  methodSturm: LanczosSturm | undefined;
+  /** Eigenvalues below σ, on the method's pencil when there is one. */
+  countBelow(sigma: number): number;
 }
 
 function buildResult(
@@ -453,14 +478,19 @@ function buildResult(
   const orthogonality = massOrthogonality(M, vectors);
   const parts = participation(M, vectors, c.influence);
 
-  // conditioning: λ_max / λ_1 with λ_max ≥ max K_ii/M_ii and λ_1 the lowest flexible mode found
-  // (the same assessment, and so the same words, as Lanczos makes on its own)
-  const cond = assessConditioning(
-    c.scale,
-    raw.lambdas,
-    c.rigidBodyModes > 0 ? RIGID_BODY_THRESHOLD * c.scale : 0,
-    opts.tolerance,
-  );
+  // conditioning: the worst case λ_max / λ_1 (λ_max ≥ max K_ii/M_ii, λ_1 the lowest flexible mode
+  // found) and the estimate after the fact that decides the warning; Lanczos has made it already
+  // (the same assessment, so the same words)
+  const floor = c.rigidBodyModes > 0 ? RIGID_BODY_THRESHOLD * c.scale : 0;
+  const cond =
+    (raw as Partial<LanczosResult>).conditioning ??
+    assessConditioning(
+      c.scale,
+      raw.lambdas,
+      floor,
+      opts.tolerance,
+      estimateEigenvalueErrors(K, M, raw.lambdas, raw.vectors, floor),
+    );
   const estimate = cond.ratio;
   const digitsLost = cond.digitsLost;
   if (cond.message) warnings.push({ code: 'ILL_CONDITIONED', message: cond.message });
@@ -476,8 +506,17 @@ function buildResult(
     const hi = hiL + delta * Math.max(Math.abs(hiL), floor);
     const lo = loL - delta * Math.max(Math.abs(loL), floor);
     const found = lams.length;
-    if (method === 'forward') {
-      const below = sturmCount(K, M, lo);
+    // Lanczos has made this check already, with locked runs: its verdict, in its words.
+    const said = c.methodWarnings.find(
+      (w) => w.code === 'STURM_MISMATCH' || w.code === 'REPEATED_BEYOND_COUNT',
+    );
+    const proof = c.methodSturm;
+    if (proof && proof.belowSigma === 0 && proof.found === found && (proof.ok || said)) {
+      // Its count just above λ_p was made on the factorization at that shift: not repeated here.
+      sturm = { shift: proof.shift, countBelow: proof.countBelow, found, ok: proof.ok };
+      if (!proof.ok && said) warnings.push(said);
+    } else if (method === 'forward') {
+      const below = c.countBelow(lo);
       const above = n - c.massless - below;
       sturm = { shift: lo, countBelow: below, found, ok: above === found };
       if (!sturm.ok) {
@@ -488,16 +527,12 @@ function buildResult(
       }
     } else {
       const lowest = !(method === 'shifted' || (method === 'lanczos' && opts.shift !== null));
-      const below = sturmCount(K, M, hi);
-      const belowLo = lowest ? 0 : sturmCount(K, M, lo);
+      const below = c.countBelow(hi);
+      const belowLo = lowest ? 0 : c.countBelow(lo);
       const inside = below - belowLo;
       sturm = { shift: hi, countBelow: below, found, ok: inside === found };
-      // Lanczos has made this check already, with locked runs: its verdict, in its words.
-      const own = c.methodWarnings.find(
-        (w) => w.code === 'STURM_MISMATCH' || w.code === 'REPEATED_BEYOND_COUNT',
-      );
-      if (!sturm.ok && own) {
-        warnings.push(own);
+      if (!sturm.ok && said) {
+        warnings.push(said);
       } else if (!sturm.ok) {
         warnings.push({
           code: 'STURM_MISMATCH',
@@ -545,7 +580,12 @@ function buildResult(
     closelySpaced,
     ...(critical ? { criticalTimeStep: critical } : {}),
     ...(sturm ? { sturm } : {}),
-    conditioning: { estimate, digitsLost },
+    conditioning: {
+      estimate,
+      digitsLost,
+      relativeError: cond.relativeError,
+      unresolved: cond.unresolved,
+    },
     warnings,
   };
 }

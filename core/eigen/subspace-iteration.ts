@@ -11,7 +11,8 @@ import { EngineError, NoConvergenceError } from '../errors';
 import { diagonalOf } from '../linalg/factorize';
 import { multiplyLower } from '../linalg/sparse-ldlt/shifted';
 import { symmetricEigen } from './dense-eigensolver';
-import { combineBasis, prepareShiftedOperator } from './lanczos';
+import { prepareShiftedOperator } from './shifted-operator';
+import { combineBasis } from './vector-tools';
 import { seededRandom } from './random';
 import type { MethodInput, RawEigenResult } from './types';
 

@@ -119,7 +119,17 @@ export interface ModalResult {
   closelySpaced: [number, number][];
   criticalTimeStep?: { dtCr: number; omegaMax: number; dampingRatio?: number; dtCrDamped?: number };
   sturm?: { shift: number; countBelow: number; found: number; ok: boolean };
-  conditioning: { estimate: number; digitsLost: number };
+  /**
+   * estimate: λ_max/λ₁ (a lower bound) and digitsLost its log10, the worst case of rounding;
+   * relativeError: the largest relative error of the lowest modes estimated after the fact
+   * (conditioning.ts), which decides the ILL_CONDITIONED warning; unresolved: that estimate ≥ 1.
+   */
+  conditioning: {
+    estimate: number;
+    digitsLost: number;
+    relativeError: number;
+    unresolved: boolean;
+  };
   warnings: { code: string; message: string }[];
 }
 

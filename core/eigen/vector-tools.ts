@@ -5,6 +5,7 @@
 import { EngineError } from '../errors';
 import { combine, diagonalOf, factorizeSymmetric } from '../linalg/factorize';
 import { matrixSize, symmetricMultiply } from '../linalg/sparse';
+import type { ShiftedPencil } from '../linalg/sparse-ldlt/shifted';
 import type { SymmetricMatrix } from '../linalg/types';
 
 /**
@@ -54,14 +55,21 @@ export function lambdaScale(K: SymmetricMatrix, M: SymmetricMatrix): number {
 /**
  * Sturm count: the number of eigenvalues of K φ = λ M φ below σ, from the negative pivots of
  * K − σM = LDLᵀ (Sylvester's law of inertia). A zero pivot (σ on an eigenvalue) moves σ up by
- * 1e-9 relative and tries again, at most three times.
+ * 1e-9 relative and tries again, at most three times. With `pencil` (the union pattern of K and M,
+ * analysed once) only the numeric factorization is repeated.
  * @throws EngineError ZERO_PIVOT when σ cannot be moved off an eigenvalue.
  * @example sturmCount(K, M, 1.01 * lambdaTop)
  */
-export function sturmCount(K: SymmetricMatrix, M: SymmetricMatrix, sigma: number): number {
+export function sturmCount(
+  K: SymmetricMatrix,
+  M: SymmetricMatrix,
+  sigma: number,
+  pencil?: ShiftedPencil,
+): number {
   let s = sigma;
   for (let attempt = 0; ; attempt++) {
     try {
+      if (pencil) return pencil.factorize(s).negativePivots;
       return factorizeSymmetric(s === 0 ? K : combine(K, 1, M, -s)).negativePivots;
     } catch (e) {
       if (!(e instanceof EngineError) || e.code !== 'ZERO_PIVOT' || attempt >= 3) throw e;
@@ -124,4 +132,45 @@ export function acceptMassNormalized(
   phis.push(phi);
   psis.push(psi);
   return phi;
+}
+
+/** w ← w − Σ q_i (q_iᵀ M w), twice; accumulates the coefficients into h when given. */
+export function orthogonalize(
+  w: Float64Array,
+  Q: Float64Array[],
+  MQ: Float64Array[],
+  count: number,
+  h: Float64Array | null,
+): void {
+  const n = w.length;
+  for (let pass = 0; pass < 2; pass++) {
+    for (let i = 0; i < count; i++) {
+      const mq = MQ[i]!;
+      let c = 0;
+      for (let t = 0; t < n; t++) c += mq[t]! * w[t]!;
+      const q = Q[i]!;
+      for (let t = 0; t < n; t++) w[t]! -= c * q[t]!;
+      if (h) h[i]! += c;
+    }
+  }
+}
+
+/** Σ_i y_i B_i over the first `count` basis vectors. */
+export function combineBasis(B: Float64Array[], y: Float64Array, count: number): Float64Array {
+  const n = B[0]!.length;
+  const out = new Float64Array(n);
+  for (let i = 0; i < count; i++) {
+    const c = y[i]!;
+    if (c === 0) continue;
+    const b = B[i]!;
+    for (let t = 0; t < n; t++) out[t]! += c * b[t]!;
+  }
+  return out;
+}
+
+/** xᵀ y without the checks of `dot` (hot loops of the iterations). */
+export function dotv(x: Float64Array, y: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < x.length; i++) s += x[i]! * y[i]!;
+  return s;
 }

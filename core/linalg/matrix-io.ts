@@ -121,6 +121,11 @@ function parseIndex(
  * @example parseMatrixMarket('%%MatrixMarket matrix coordinate real symmetric\n2 2 3\n1 1 2\n2 1 -1\n2 2 2\n', 'K.mtx')
  */
 export function parseMatrixMarket(text: string, name = 'matrix file'): ParsedMatrix {
+  // A well-formed coordinate file is read in one pass over the text without a string per line or
+  // per number; anything the fast reader does not accept is read again by the full reader below,
+  // which names the line and the reason.
+  const fast = readCoordinateFast(text);
+  if (fast) return fast;
   const lines = text.split(/\r?\n/);
   const header = (lines[0] ?? '').trim();
   const h = header.split(/\s+/).map((t) => t.toLowerCase());
@@ -299,6 +304,144 @@ export function parseMatrixMarket(text: string, name = 'matrix file'): ParsedMat
     colIdx: Int32Array.from(cI),
     values: Float64Array.from(vals),
     lines: Int32Array.from(lns),
+  };
+}
+
+const CH_NL = 10;
+const CH_CR = 13;
+const CH_SPACE = 32;
+const CH_TAB = 9;
+const CH_PERCENT = 37;
+const CH_0 = 48;
+const CH_9 = 57;
+
+/** True for the characters a number token of the file may hold: digits, sign, point, e/E. */
+function numberChar(c: number): boolean {
+  return (c >= CH_0 && c <= CH_9) || c === 43 || c === 45 || c === 46 || c === 101 || c === 69;
+}
+
+/**
+ * The fast path of `parseMatrixMarket` for coordinate files: one scan over the character codes,
+ * typed arrays sized by the size line (bounded by the text's length, since an entry takes at
+ * least four characters), numbers read by `Number` on the token alone. Returns null at the first
+ * thing it does not accept (any other format, a bad header, index or number, a count that
+ * disagrees), so that the full reader reports it.
+ */
+function readCoordinateFast(text: string): ParsedMatrix | null {
+  const len = text.length;
+  let eol = text.indexOf('\n');
+  if (eol < 0) return null;
+  const h = text
+    .slice(0, eol)
+    .trim()
+    .split(/\s+/)
+    .map((t) => t.toLowerCase());
+  if (h.length < 5 || h[0] !== '%%matrixmarket' || h[1] !== 'matrix' || h[2] !== 'coordinate') {
+    return null;
+  }
+  const field = h[3];
+  const symmetry = h[4];
+  if (field !== 'real' && field !== 'integer' && field !== 'pattern' && field !== 'double') {
+    return null;
+  }
+  if (symmetry !== 'general' && symmetry !== 'symmetric') return null;
+  let pos = eol + 1;
+  let line = 2;
+  // comments and blank lines, then the size line
+  let size: string[] | null = null;
+  while (pos < len) {
+    eol = text.indexOf('\n', pos);
+    if (eol < 0) eol = len;
+    const raw = text.slice(pos, eol).trim();
+    pos = eol + 1;
+    line++;
+    if (raw === '' || raw.startsWith('%')) continue;
+    size = raw.split(/\s+/);
+    break;
+  }
+  if (!size || size.length !== 3 || !size.every((t) => /^\d+$/.test(t))) return null;
+  const rows = Number(size[0]);
+  const cols = Number(size[1]);
+  const nnz = Number(size[2]);
+  const symmetric = symmetry === 'symmetric';
+  if ((symmetric && rows !== cols) || nnz > (len - pos) / 4 + 1) return null;
+  const pattern = field === 'pattern';
+  const integer = field === 'integer';
+  const rI = new Int32Array(nnz);
+  const cI = new Int32Array(nnz);
+  const vals = new Float64Array(nnz);
+  const lns = new Int32Array(nnz);
+  let count = 0;
+  // `line` is now the number of the line after the size line
+  const index = (max: number): number => {
+    let v = 0;
+    const start = pos;
+    for (; pos < len; pos++) {
+      const c = text.charCodeAt(pos);
+      if (c < CH_0 || c > CH_9) break;
+      v = v * 10 + (c - CH_0);
+      if (v > max) return -1;
+    }
+    return pos === start || v < 1 ? -1 : v - 1;
+  };
+  const skipBlanks = (): void => {
+    while (pos < len) {
+      const c = text.charCodeAt(pos);
+      if (c !== CH_SPACE && c !== CH_TAB && c !== CH_CR) break;
+      pos++;
+    }
+  };
+  while (pos < len) {
+    skipBlanks();
+    if (pos >= len) break;
+    const c0 = text.charCodeAt(pos);
+    if (c0 === CH_NL) {
+      pos++;
+      line++;
+      continue;
+    }
+    if (c0 === CH_PERCENT) {
+      eol = text.indexOf('\n', pos);
+      pos = eol < 0 ? len : eol;
+      continue;
+    }
+    if (count >= nnz) return null;
+    const i = index(rows);
+    if (i < 0) return null;
+    const a = pos;
+    skipBlanks();
+    if (pos === a) return null;
+    const j = index(cols);
+    if (j < 0 || (symmetric && i < j)) return null;
+    let v = 1;
+    if (!pattern) {
+      const b = pos;
+      skipBlanks();
+      if (pos === b) return null;
+      const t0 = pos;
+      while (pos < len && numberChar(text.charCodeAt(pos))) pos++;
+      if (pos === t0) return null;
+      v = Number(text.slice(t0, pos));
+      if (!Number.isFinite(v) || (integer && !Number.isInteger(v))) return null;
+    }
+    skipBlanks();
+    if (pos < len && text.charCodeAt(pos) !== CH_NL) return null;
+    rI[count] = i;
+    cI[count] = j;
+    vals[count] = v;
+    lns[count] = line;
+    count++;
+  }
+  if (count !== nnz) return null;
+  return {
+    rows,
+    cols,
+    format: 'coordinate',
+    symmetricStorage: symmetric,
+    rowIdx: rI,
+    colIdx: cI,
+    values: vals,
+    lines: lns,
   };
 }
 

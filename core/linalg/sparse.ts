@@ -75,36 +75,56 @@ export function sparseSymmetricFromTriplets(
     rb[p] = r[k] as number;
     vb[p] = values[k] as number;
   }
-  // sort each column by row and sum duplicates
+  // sort each column by row (files and generators almost always list them in order: checked
+  // first, sorted only when not) and sum duplicates
   const colPtr = new Int32Array(n + 1);
-  const outRows: number[] = [];
-  const outVals: number[] = [];
+  const outRows = new Int32Array(nnzIn);
+  const outVals = new Float64Array(nnzIn);
+  let q = 0;
   for (let j = 0; j < n; j++) {
     const start = counts[j] as number;
     const end = counts[j + 1] as number;
-    const idx: number[] = [];
-    for (let p = start; p < end; p++) idx.push(p);
-    idx.sort((a, b) => (rb[a] as number) - (rb[b] as number));
+    let sorted = true;
+    for (let p = start + 1; p < end && sorted; p++)
+      sorted = (rb[p - 1] as number) <= (rb[p] as number);
+    if (!sorted) sortColumn(rb, vb, start, end);
     let last = -1;
-    for (const p of idx) {
+    for (let p = start; p < end; p++) {
       const i = rb[p] as number;
       if (i === last) {
-        outVals[outVals.length - 1] = (outVals[outVals.length - 1] as number) + (vb[p] as number);
+        outVals[q - 1] = (outVals[q - 1] as number) + (vb[p] as number);
       } else {
-        outRows.push(i);
-        outVals.push(vb[p] as number);
+        outRows[q] = i;
+        outVals[q] = vb[p] as number;
+        q++;
         last = i;
       }
     }
-    colPtr[j + 1] = outRows.length;
+    colPtr[j + 1] = q;
   }
   return {
     kind: 'sparse-symmetric',
     n,
     colPtr,
-    rowIdx: Int32Array.from(outRows),
-    values: Float64Array.from(outVals),
+    rowIdx: q === nnzIn ? outRows : outRows.slice(0, q),
+    values: q === nnzIn ? outVals : outVals.slice(0, q),
   };
+}
+
+/**
+ * Sorts rows[start, end) ascending, carrying values along; stable, so duplicates are summed in
+ * the order they were given.
+ */
+function sortColumn(rows: Int32Array, values: Float64Array, start: number, end: number): void {
+  const idx: number[] = [];
+  for (let p = start; p < end; p++) idx.push(p);
+  idx.sort((a, b) => (rows[a] as number) - (rows[b] as number) || a - b);
+  const r = idx.map((p) => rows[p] as number);
+  const v = idx.map((p) => values[p] as number);
+  for (let k = 0; k < r.length; k++) {
+    rows[start + k] = r[k] as number;
+    values[start + k] = v[k] as number;
+  }
 }
 
 /**

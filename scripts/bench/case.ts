@@ -1,6 +1,7 @@
 // One benchmark case in its own process (so its peak memory is its own): builds the problem,
-// writes K and M as Matrix Market, runs our engine `runs` times (and ml-matrix for dense n ≤ 1000)
-// and prints one JSON line. Run by scripts/bench/run.ts.
+// writes K and M as Matrix Market, runs our engine's kernel `runs` times and `solveModes` (the
+// whole engine, checks included) as often (and ml-matrix for dense n ≤ 1000), and prints one JSON
+// line. With `runs` 0 it only writes the files. Run by scripts/bench/run.ts.
 import { mkdirSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
@@ -10,6 +11,7 @@ import {
   denseEigensolver,
   diagonalOf,
   lanczos,
+  solveModes,
   type LanczosSturm,
   type SparseSymmetricMatrix,
 } from '../../core/index';
@@ -43,7 +45,14 @@ async function main(): Promise<void> {
   const mPath = join(outDir, `${problem!.name}.M.mtx`);
   await writeMatrixMarket(kPath, K, `Modewright bench ${problem!.name}: stiffness`);
   await writeMatrixMarket(mPath, M, `Modewright bench ${problem!.name}: mass`);
+  if (runs === 0) {
+    process.stdout.write(
+      JSON.stringify({ name: problem!.name, n: K.n, nnz: nnzFull(K), kPath, mPath }) + '\n',
+    );
+    return;
+  }
   const times: number[] = [];
+  const solveTimes: number[] = [];
   let lambdas: number[] = [];
   let notes: string[] = [];
   let sturm: { shift: number; below: number; found: number };
@@ -66,6 +75,11 @@ async function main(): Promise<void> {
       lambdas = raw.lambdas;
       notes = raw.notes;
       lastSturm = raw.sturm;
+    }
+    for (let r = 0; r < runs; r++) {
+      const t0 = performance.now();
+      solveModes(K, M, { count: problem!.modes });
+      solveTimes.push((performance.now() - t0) / 1000);
     }
     // Sturm proof, made inside the method: K − σM at σ = λ_p(1 + 1e-8), counted by our LDLᵀ.
     const st = lastSturm;
@@ -90,6 +104,11 @@ async function main(): Promise<void> {
       times.push((performance.now() - t0) / 1000);
       lambdas = raw.lambdas;
       notes = raw.notes;
+    }
+    for (let r = 0; r < runs; r++) {
+      const t0 = performance.now();
+      solveModes(K, M, { method: 'dense', team });
+      solveTimes.push((performance.now() - t0) / 1000);
     }
     await team.close();
     const lamP = lambdas[lambdas.length - 1]!;
@@ -144,6 +163,7 @@ async function main(): Promise<void> {
       modes: problem!.modes,
       median: median(times),
       times,
+      solveModesMedian: median(solveTimes),
       lambdas,
       notes,
       sturm,

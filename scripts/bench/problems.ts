@@ -15,6 +15,8 @@ export interface BenchProblem {
   modes: number;
   /** Included in --quick runs. */
   quick: boolean;
+  /** Minutes rather than seconds: only with --large (or --only). */
+  large?: boolean;
   build(): { K: SparseSymmetricMatrix; M: SparseSymmetricMatrix; handbook?: number[] };
 }
 
@@ -102,14 +104,36 @@ export const PROBLEMS: BenchProblem[] = [
   { name: 'cantilever-2k', kind: 'sparse', modes: 10, quick: true, build: () => cantilever(2_000) },
   { name: 'plate-100x50', kind: 'sparse', modes: 10, quick: true, build: plate(100, 50) },
   { name: 'plate-224x112', kind: 'sparse', modes: 10, quick: false, build: plate(224, 112) },
-  { name: 'plate-224x112-p50', kind: 'sparse', modes: 50, quick: false, build: plate(224, 112) },
-  { name: 'plate-316x158', kind: 'sparse', modes: 10, quick: false, build: plate(316, 158) },
-  { name: 'plate-448x224', kind: 'sparse', modes: 10, quick: false, build: plate(448, 224) },
+  {
+    name: 'plate-224x112-p50',
+    kind: 'sparse',
+    modes: 50,
+    quick: false,
+    large: true,
+    build: plate(224, 112),
+  },
+  {
+    name: 'plate-316x158',
+    kind: 'sparse',
+    modes: 10,
+    quick: false,
+    large: true,
+    build: plate(316, 158),
+  },
+  {
+    name: 'plate-448x224',
+    kind: 'sparse',
+    modes: 10,
+    quick: false,
+    large: true,
+    build: plate(448, 224),
+  },
   {
     name: 'building-20x20x20',
     kind: 'sparse',
     modes: 10,
     quick: false,
+    large: true,
     build: () => {
       const b = buildBuildingFrame(STEEL_BUILDING_DEFAULTS);
       return { K: b.K, M: b.M };
@@ -129,5 +153,12 @@ export const PROBLEMS: BenchProblem[] = [
   { name: 'dense-plate-200', kind: 'dense', modes: 0, quick: true, build: plate(10, 9) },
   { name: 'dense-plate-500', kind: 'dense', modes: 0, quick: true, build: plate(25, 9) },
   { name: 'dense-plate-1000', kind: 'dense', modes: 0, quick: false, build: plate(25, 19) },
-  { name: 'dense-plate-2000', kind: 'dense', modes: 0, quick: false, build: plate(50, 19) },
+  {
+    name: 'dense-plate-2000',
+    kind: 'dense',
+    modes: 0,
+    quick: false,
+    large: true,
+    build: plate(50, 19),
+  },
 ];

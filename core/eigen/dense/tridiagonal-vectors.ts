@@ -16,7 +16,7 @@
  * converge within five solves the function returns null and the caller takes the QL route.
  */
 import { seededRandom } from '../random';
-import type { Block } from './kernels';
+import type { Block } from '../../linalg/dense-kernels';
 import {
   DENSE_PARTS,
   type DenseTask,

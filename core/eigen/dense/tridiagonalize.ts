@@ -19,7 +19,7 @@
  * Step k reduces row k (equivalently column k); its reflector H_k = I − τ_k v vᵀ has v_j = 0 for
  * j ≤ k, v_{k+1} = 1, and v_{k+2…n−1} left in row k of A where the reduced entries were.
  */
-import { type Block, multiplyAdd } from './kernels';
+import { type Block, multiplyAdd } from '../../linalg/dense-kernels';
 import {
   DENSE_PARTS,
   type DenseTask,

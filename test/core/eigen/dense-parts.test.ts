@@ -2,7 +2,7 @@
 // with its back-transformation, and inverse iteration on tridiagonal matrices with known spectra.
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
-import { multiplyAdd } from '../../../core/eigen/dense/kernels';
+import { multiplyAdd } from '../../../core/linalg/dense-kernels';
 import { symmetricEigenColumns } from '../../../core/eigen/dense/symmetric-eigen';
 import { tridiagonalEigenvectors } from '../../../core/eigen/dense/tridiagonal-vectors';
 import { backTransform, tridiagonalize } from '../../../core/eigen/dense/tridiagonalize';

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { checkBandSturm, lanczos } from '../../../core/eigen/lanczos';
+import { lanczos } from '../../../core/eigen/lanczos';
+import { checkBandSturm } from '../../../core/eigen/sturm-checks';
 import { createShiftedPencil, multiplyLower } from '../../../core/linalg/sparse-ldlt';
 import { denseEigenvalues } from '../models/dense-pencil';
 import { checkModes, doubled, input, randomPencil } from './pencils';

@@ -1,7 +1,8 @@
 /**
- * The one matrix-product kernel of the dense solver: C += s · P U on row-major blocks, where a
- * row of C is updated with a combination of `terms` rows of U. It serves the rank-2k update of
- * the blocked tridiagonalization and both products of the compact-WY back-transformation.
+ * The one matrix-product kernel: C += s · P U on row-major blocks, where a row of C is updated
+ * with a combination of `terms` rows of U. It serves the rank-2k update of the dense solver's
+ * blocked tridiagonalization and both products of its compact-WY back-transformation, the Schur
+ * complements of the sparse LDLᵀ's large fronts, and ΦᵀMΦ over many modes.
  *
  * Register blocking: sixteen rows of C and eight rows of U per pass keep 128 coefficients of P in
  * locals (most of them spilled to the stack, from where they reload at L1 speed) and update
