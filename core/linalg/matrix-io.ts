@@ -364,6 +364,8 @@ function readCoordinateFast(text: string): ParsedMatrix | null {
   const cols = Number(size[1]);
   const nnz = Number(size[2]);
   const symmetric = symmetry === 'symmetric';
+  // a size past the largest order is left to the full reader, which refuses it at its line
+  if (rows > MAX_MATRIX_ORDER || cols > MAX_MATRIX_ORDER) return null;
   if ((symmetric && rows !== cols) || nnz > (len - pos) / 4 + 1) return null;
   const pattern = field === 'pattern';
   const integer = field === 'integer';
