@@ -24,10 +24,16 @@
 import os from 'node:os';
 import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
-import type { Sheet, SheetProgress, SheetResults, SheetUpload } from '../../core/index';
+import {
+  EngineError,
+  type EngineErrorCode,
+  type MatrixAnalysis,
+  type Sheet,
+  type SheetProgress,
+  type SheetResults,
+  type SheetUpload,
+} from '../../core/index';
 import { AppError, RateLimitedError } from '../http/errors';
-import type { MatrixFileShape } from '../modules/uploads/uploads.parse';
-import type { UploadFormat } from '../modules/uploads/uploads.repository';
 import type {
   DescribeMatrixReply,
   DescribeMatrixTask,
@@ -64,10 +70,15 @@ export interface EvaluationPool {
   /** Evaluates a sheet in a worker. Same contract as the sheets module's SheetRunner. */
   run(sheet: Sheet, uploads: SheetUpload[], options?: RunOptions): Promise<SheetResults>;
   /**
-   * Reads an uploaded matrix file in a worker: its shape, or the 422 MATRIX_FILE_INVALID naming
-   * file and line that `describeMatrixFile` (uploads.parse.ts) raises.
+   * Reads an uploaded matrix file in a worker (core's describeMatrixText): its analysis, or the
+   * engine's EngineError naming the line; a file that takes too long or too much memory is a
+   * 422 MATRIX_FILE_INVALID.
    */
-  describeMatrixFile(text: string, format: UploadFormat, name: string): Promise<MatrixFileShape>;
+  describeMatrixFile(
+    text: string,
+    format: 'matrix-market' | 'csv',
+    name: string,
+  ): Promise<MatrixAnalysis>;
   stats(): {
     threads: number;
     queued: number;
@@ -218,9 +229,9 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
 
   async function describeMatrixFile(
     text: string,
-    format: UploadFormat,
+    format: 'matrix-market' | 'csv',
     name: string,
-  ): Promise<MatrixFileShape> {
+  ): Promise<MatrixAnalysis> {
     if (piscina.queueSize >= maxQueue) throw queueFull(timeLimitMs);
     const controller = new AbortController();
     let timedOut = false;
@@ -264,11 +275,8 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
     }
     described++;
     if (reply.ok) return reply.shape;
-    const { status, code, message, field, details } = reply.error;
-    throw new AppError(status, code, message, {
-      ...(field ? { field } : {}),
-      ...(details ? { details } : {}),
-    });
+    const { code, message, details } = reply.error;
+    throw new EngineError(code as EngineErrorCode, message, details);
   }
 
   return {
