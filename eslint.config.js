@@ -84,7 +84,8 @@ export default tseslint.config(
             {
               target: ['./web/src/components', './web/src/lib', './web/src/config'],
               from: ['./web/src/features', './web/src/app'],
-              message: 'Shared client code never imports a feature or the app; pass what it needs in.',
+              message:
+                'Shared client code never imports a feature or the app; pass what it needs in.',
             },
             {
               target: './web/src/features',
@@ -174,7 +175,8 @@ export default tseslint.config(
             {
               group: ['**/modules/**'],
               allowTypeImports: true,
-              message: 'Infrastructure imports no resource module; createApp hands it what it needs.',
+              message:
+                'Infrastructure imports no resource module; createApp hands it what it needs.',
             },
           ],
         },

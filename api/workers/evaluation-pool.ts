@@ -18,8 +18,8 @@
  *   large upload (seconds of parsing) never blocks the event loop. Same threads, queue and
  *   limits as the evaluations.
  *
- * The worker file is TypeScript, loaded with `--import tsx` both under `npm start` (the server
- * runs with tsx) and under Vitest.
+ * Under `npm start` the worker is compiled JavaScript (dist/server/evaluate.worker.js); from
+ * source (Vitest, `npm run dev`) it is TypeScript loaded with `--import tsx`.
  */
 import os from 'node:os';
 import { MessageChannel } from 'node:worker_threads';
@@ -124,7 +124,15 @@ export function poolOptionsFromEnv(): EvaluationPoolOptions {
   return o;
 }
 
-const WORKER_FILE = new URL('./evaluate.worker.ts', import.meta.url).href;
+/**
+ * Compiled (scripts/build-server.mjs puts every bundle in dist/server/, the worker beside the
+ * server) or from source through tsx (Vitest, `npm run dev`): the worker file and how to load it.
+ */
+const COMPILED = import.meta.url.endsWith('.js');
+const WORKER_FILE = new URL(
+  COMPILED ? './evaluate.worker.js' : './evaluate.worker.ts',
+  import.meta.url,
+).href;
 
 /** Creates the pool. Close it when the server stops. */
 export function createEvaluationPool(options: EvaluationPoolOptions = {}): EvaluationPool {
@@ -147,7 +155,7 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
     maxQueue,
     // Keep idle workers: mathjs costs ~1.5 s to load in each new thread.
     idleTimeout: 10 * 60 * 1000,
-    execArgv: ['--import', 'tsx'],
+    execArgv: COMPILED ? [] : ['--import', 'tsx'],
     resourceLimits: {
       maxOldGenerationSizeMb: memoryLimitMb,
       maxYoungGenerationSizeMb: Math.max(16, Math.min(64, Math.floor(memoryLimitMb / 8))),
