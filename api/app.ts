@@ -9,9 +9,12 @@ import { createDb, waitForDb, type Db } from './db/index';
 import { createSessionStore } from './db/session-store';
 import { loadSessionUser } from './http/auth';
 import type { AppContext } from './http/context';
+import { passwordCheckLimiter, signInAddressLimiter } from './http/attempt-limits';
+import { requireUtf8Body } from './http/body-charset';
 import { csrfProtection } from './http/csrf';
 import { apiNotFound, errorMiddleware } from './http/error-middleware';
 import { createLogger, requestLogger } from './http/logger';
+import { refuseInvalidText } from './http/valid-text';
 import type { Mailer } from './mail/mailer';
 import { createAccountRouter } from './modules/account/account.routes';
 import { createActivityRouter } from './modules/activity/activity.routes';
@@ -111,7 +114,9 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
         strictTransportSecurity: config.secureCookies,
       }),
     );
+    app.use(requireUtf8Body);
     app.use(express.json({ limit: config.bodyLimitBytes }));
+    app.use(refuseInvalidText);
     // Sessions only for the API: the client's files never touch the sessions table.
     app.use(
       '/api',
@@ -141,6 +146,16 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     });
     api.use(csrfProtection);
     api.use(loadSessionUser((userId) => usersService.findById(db, userId)));
+    const window = config.signinWindowMs;
+    api.post(
+      '/auth/sign-in',
+      signInAddressLimiter({ limit: config.signinAddressLimit, windowMs: window }),
+    );
+    const passwordChecks = passwordCheckLimiter({
+      limit: config.passwordCheckLimit,
+      windowMs: window,
+    });
+    api.post(['/auth/password', '/revisions/:revisionId/seal'], passwordChecks);
     api.use('/auth', createAuthRouter(ctx));
     api.use('/auth', createAccountRouter(ctx));
     api.use('/users', createUsersRouter(ctx));

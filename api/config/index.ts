@@ -15,7 +15,11 @@ export interface AppConfig {
   trustProxyHops: number;
   /** Sign-in attempts allowed per client IP and e-mail within signinWindowMs. */
   signinLimit: number;
+  /** Failed sign-ins allowed per client IP, whatever the e-mail, within signinWindowMs. */
+  signinAddressLimit: number;
   signinWindowMs: number;
+  /** Wrong current passwords (password change, seal) allowed per person within signinWindowMs. */
+  passwordCheckLimit: number;
   dataDir: string;
   /** Folder of the built client; served with an SPA fallback when present. */
   clientDir: string;
@@ -87,7 +91,9 @@ export function loadConfig(overrides: Partial<AppConfig> = {}): AppConfig {
         ? intFromEnv('MW_TRUST_PROXY', 1)
         : 0,
     signinLimit: intFromEnv('MW_SIGNIN_LIMIT', 10),
+    signinAddressLimit: intFromEnv('MW_SIGNIN_ADDRESS_LIMIT', 20),
     signinWindowMs: 15 * 60 * 1000,
+    passwordCheckLimit: intFromEnv('MW_PASSWORD_CHECK_LIMIT', 5),
     dataDir,
     clientDir: path.join(projectRoot, 'dist', 'client'),
     logRequests: process.env.MW_LOG_REQUESTS !== '0',

@@ -1,6 +1,6 @@
 import { ConnectSessionKnexStore } from 'connect-session-knex';
 import type { SessionData } from 'express-session';
-import type { Db } from './index';
+import type { Db, DbOrTx } from './index';
 
 /**
  * connect-session-knex 5 with its rough edges filed off:
@@ -81,4 +81,20 @@ export async function createSessionStore(
       if (store.nextDbCleanup) clearTimeout(store.nextDbCleanup);
     },
   };
+}
+
+/**
+ * Ends every session of a person except `keepSid` (the one that asked): after a password change
+ * a session opened with the old password, perhaps by someone else, is worth nothing. Returns how
+ * many were ended.
+ */
+export async function endOtherSessions(
+  db: DbOrTx,
+  userId: number,
+  keepSid: string,
+): Promise<number> {
+  return db('sessions')
+    .whereRaw("JSON_VALUE(sess, '$.userId') = ?", [userId])
+    .whereNot('sid', keepSid)
+    .del();
 }

@@ -2,14 +2,9 @@ import { randomUUID } from 'node:crypto';
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { isEngineError } from '../../core/index';
 import { duplicateKeyIndex, isDuplicateKeyError } from '../db/index';
-import {
-  AppError,
-  BadRequestError,
-  ConflictError,
-  NotFoundError,
-  PayloadTooLargeError,
-} from './errors';
+import { AppError, ConflictError, NotFoundError } from './errors';
 import type { Logger } from './logger';
+import { requestErrorFrom } from './request-errors';
 import { isZodError, validationErrorFrom } from './validate';
 
 /** Which field a unique index protects, so a duplicate can be attached to the form input. */
@@ -49,13 +44,8 @@ export function normaliseError(err: unknown, log: Logger, where: string): AppErr
   if (isEngineFailure(err)) {
     return new AppError(422, err.code, err.message, err.details ? { details: err.details } : {});
   }
-  const bodyError = err as { type?: unknown; status?: unknown };
-  if (bodyError?.type === 'entity.too.large') {
-    return new PayloadTooLargeError('The request body is too large.');
-  }
-  if (bodyError?.type === 'entity.parse.failed') {
-    return new BadRequestError('The request body is not valid JSON.');
-  }
+  const fromRequest = requestErrorFrom(err);
+  if (fromRequest) return fromRequest;
   if (isDuplicateKeyError(err)) {
     const known = uniqueIndexFields[duplicateKeyIndex(err) ?? ''];
     return new ConflictError(known?.message ?? 'This record already exists.', {
@@ -77,6 +67,10 @@ export function errorMiddleware(log: Logger): ErrorRequestHandler {
     if (res.headersSent) {
       res.end();
       return;
+    }
+    const retryAfter = appError.details?.retryAfterSeconds;
+    if (typeof retryAfter === 'number' && !res.getHeader('Retry-After')) {
+      res.set('Retry-After', String(retryAfter));
     }
     res.status(appError.status).json({
       error: {

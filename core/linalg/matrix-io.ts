@@ -26,6 +26,13 @@ export interface ParsedMatrix {
   lines: Int32Array;
 }
 
+/**
+ * Largest order a matrix file may declare: a size line is read before any entry, and the readers
+ * allocate per row, so a lying size line is refused before it allocates. Ten million rows is far
+ * past any model a sheet solves (common practice: bound untrusted sizes before allocating).
+ */
+export const MAX_MATRIX_ORDER = 10_000_000;
+
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eEdD][+-]?\d+)?$/;
 const NON_FINITE = /^[+-]?(nan|inf|infinity)$/i;
 
@@ -172,6 +179,14 @@ export function parseMatrixMarket(text: string, name = 'matrix file'): ParsedMat
   }
   const rows = Number(sizeLine.toks[0]);
   const cols = Number(sizeLine.toks[1]);
+  if (rows > MAX_MATRIX_ORDER || cols > MAX_MATRIX_ORDER) {
+    throw fileError(
+      name,
+      sizeLine.line,
+      `the size line says ${sizeLine.toks[0]} × ${sizeLine.toks[1]}; a matrix file may have at most ${MAX_MATRIX_ORDER.toLocaleString('en')} rows and columns.`,
+      { rows, cols },
+    );
+  }
   const symmetric = symmetry === 'symmetric';
   if (symmetric && rows !== cols) {
     throw new EngineError(

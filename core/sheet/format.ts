@@ -12,6 +12,7 @@
  * 4. Any other dimension is shown in SI base units.
  */
 import type { MathJsInstance, Matrix, Unit } from 'mathjs';
+import { beyond } from './not-finite';
 import { EngineError } from '../errors';
 import { LargeMatrix } from './large-matrix';
 import type { SheetValue } from './types';
@@ -182,13 +183,21 @@ function isUnit(math: MathJsInstance, v: unknown): v is Unit {
   return math.isUnit(v);
 }
 
+/**
+ * Refuses a value that is not finite. `details.notFinite` carries it, so the calc line can put
+ * the operation that produced it into words (./not-finite.ts).
+ */
 function checkFinite(x: number, where: string): void {
   if (!Number.isFinite(x)) {
-    throw new EngineError(
-      'SHEET_EVAL',
-      `Division by zero: ${where} is ${Number.isNaN(x) ? 'undefined (0/0)' : 'infinite'}.`,
-    );
+    const what = Number.isNaN(x)
+      ? 'is not a number (NaN): an undefined operation such as 0/0 or ∞ − ∞'
+      : `is ${beyond(x)}, past the largest number a calculation can hold (an overflow, or a division by zero)`;
+    throw new EngineError('SHEET_EVAL', `${capitalise(where)} ${what}.`, { notFinite: x });
   }
+}
+
+function capitalise(s: string): string {
+  return s.charAt(0).toUpperCase() + s.slice(1);
 }
 
 function quantity(u: Unit, unit: string): { value: number; si: number } {

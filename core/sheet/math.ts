@@ -93,6 +93,26 @@ function sizeArguments(math: MathJsInstance, args: unknown[]): number[] {
   }
   return out;
 }
+/** Entries a range would hold, from numeric bounds and step (1 when not numbers: mathjs checks). */
+function rangeCount(args: unknown[]): number {
+  if (typeof args[0] === 'string') {
+    // 'start:end' or 'start:step:end'
+    const parts = args[0].split(':').map(Number);
+    const [a, b, c] = parts;
+    return rangeCount(parts.length === 3 ? [a, c, b] : [a, b]);
+  }
+  const numbers = args.map((a) =>
+    typeof a === 'number'
+      ? a
+      : typeof a === 'object' && a !== null && typeof (a as { value?: unknown }).value === 'number'
+        ? (a as { value: number }).value
+        : Number.NaN,
+  );
+  const [start, end, step = 1] = numbers;
+  if (start === undefined || end === undefined || !Number.isFinite(start)) return 1;
+  if (!Number.isFinite(end) || step === 0) return Infinity;
+  return Math.floor(Math.abs((end - start) / step)) + 1;
+}
 const extraFunctions: Record<string, unknown> = {};
 
 /**
@@ -130,6 +150,19 @@ export function sheetMath(): SheetMath {
       return original(...args);
     };
   }
+  // range(a, b[, step]) and a:b[:step] (a range node calls range): the count is known from the
+  // bounds, so a range past the limit is refused before it is made.
+  const range = math.range as unknown as (...args: unknown[]) => unknown;
+  guarded.range = (...args: unknown[]) => {
+    const entries = rangeCount(args);
+    if (entries > matrixEntryLimit) {
+      throw new EngineError(
+        'SHEET_LIMIT',
+        `This range would make ${entries.toExponential(2)} entries; a sheet value may hold at most ${matrixEntryLimit}.`,
+      );
+    }
+    return range(...args);
+  };
   math.import(guarded, { override: true });
   const refusals: Record<string, () => never> = {};
   for (const name of FORBIDDEN_FUNCTIONS) {

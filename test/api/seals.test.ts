@@ -97,8 +97,18 @@ describe('POST /api/revisions/:revisionId/seal', () => {
     const principalRow = await t.db('users').where({ id: team.principal.id }).first();
     expect(row.canonical_text_digest).toBe(sha(rev.canonical_text));
     expect(row.results_digest).toBe(sha(rev.results));
+    const sheetRow = await t.db('sheets').where({ id: sheetId }).first();
+    const projectRow = await t.db('projects').where({ id: sheetRow.project_id }).first();
+    // Version 2 of the payload: the names verify shows are signed too.
+    expect(row.payload_version).toBe(2);
     const payload = {
-      format: 'modewright-seal-v1',
+      format: 'modewright-seal-v2',
+      projectName: projectRow.name,
+      projectJobNumber: projectRow.job_number,
+      sheetNumber: sheetRow.number,
+      sheetTitle: sheetRow.title,
+      principalName: principalRow.name,
+      jurisdiction: principalRow.jurisdiction,
       canonicalTextDigest: sha(rev.canonical_text),
       resultsDigest: sha(rev.results),
       engineVersion: rev.engine_version,
@@ -345,7 +355,7 @@ describe('POST /api/auth/password', () => {
       newPassword: 'a-new-password-of-mine',
     });
     expect(res.status).toBe(200);
-    expect(res.body).toEqual({ signingKeyReencrypted: true });
+    expect(res.body).toEqual({ signingKeyReencrypted: true, otherSessionsEnded: 0 });
     const after = await t.db('signing_keys').where({ user_id: p.id }).first();
     expect(after.public_key).toBe(before.public_key);
     expect(after.encrypted_private_key).not.toBe(before.encrypted_private_key);

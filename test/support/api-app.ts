@@ -27,6 +27,8 @@ export async function createTestApp(options: AppOptions = {}): Promise<TestApp> 
     logRequests: false,
     sessionCleanupMs: 0,
     signinLimit: 1000,
+    signinAddressLimit: 1000,
+    passwordCheckLimit: 1000,
     ...options,
   });
   return created;

@@ -10,7 +10,7 @@ export function createAccountRouter({ db }: AppContext): Router {
   const router = Router();
   router.post('/password', requireSignedIn, async (req, res) => {
     const input = parse(changePasswordBody, req.body);
-    res.json(await accountService.changePassword(db, currentUser(req), input));
+    res.json(await accountService.changePassword(db, currentUser(req), input, req.sessionID));
   });
   return router;
 }

@@ -51,8 +51,11 @@ export function createAuthRouter({ db, config }: AppContext): Router {
     },
   });
 
-  router.get('/csrf', (req, res) => {
-    res.json({ csrfToken: ensureCsrfToken(req) });
+  router.get('/csrf', async (req, res) => {
+    const csrfToken = ensureCsrfToken(req);
+    // Stored before it is handed out: a token the session store never kept is worth nothing.
+    await save(req);
+    res.json({ csrfToken });
   });
 
   router.post('/sign-in', signInLimiter, async (req, res) => {

@@ -16,6 +16,13 @@ export interface SealRecord {
   digest: string;
   signature: string;
   publicKey: string;
+  /** 1: the digest covers the revision, principal, licence and time; 2: the names too. */
+  payloadVersion: number;
+  /** As at sealing; null on a version-1 seal. */
+  projectName: string | null;
+  projectJobNumber: string | null;
+  sheetNumber: string | null;
+  sheetTitle: string | null;
 }
 
 export type NewSeal = Omit<SealRecord, 'id' | 'sealedAt'> & { sealedAt: Date };
@@ -35,6 +42,11 @@ interface SealRow {
   digest: string;
   signature: string;
   public_key: string;
+  payload_version: number;
+  project_name: string | null;
+  project_job_number: string | null;
+  sheet_number: string | null;
+  sheet_title: string | null;
 }
 
 interface SigningKeyRow {
@@ -64,6 +76,11 @@ function toSeal(row: SealRow): SealRecord {
     digest: row.digest,
     signature: row.signature,
     publicKey: row.public_key,
+    payloadVersion: row.payload_version,
+    projectName: row.project_name,
+    projectJobNumber: row.project_job_number,
+    sheetNumber: row.sheet_number,
+    sheetTitle: row.sheet_title,
   };
 }
 
@@ -107,6 +124,11 @@ export const sealsRepository = {
       digest: s.digest,
       signature: s.signature,
       public_key: s.publicKey,
+      payload_version: s.payloadVersion,
+      project_name: s.projectName,
+      project_job_number: s.projectJobNumber,
+      sheet_number: s.sheetNumber,
+      sheet_title: s.sheetTitle,
     });
     if (id === undefined) throw new Error('seals insert returned no id');
     return id;

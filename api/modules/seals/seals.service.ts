@@ -12,7 +12,7 @@ import type { RevisionSummary } from '../revisions/revisions.repository';
 import { lockStatusIs, revisionsService, sheetOf } from '../revisions/revisions.service';
 import { sheetsService } from '../sheets/sheets.service';
 import { generateSealCode } from './seal-code';
-import { sealDigest } from './seal-digest';
+import { buildSealPayload } from './seal-payload';
 import { compareResults, REPRODUCE_RELATIVE_TOLERANCE } from './seals.reproduce';
 import { sealsRepository, type SealRecord } from './seals.repository';
 import {
@@ -182,18 +182,27 @@ export const sealsService = {
     }
 
     const sealedAt = await dbNow(db);
-    const payload = {
-      canonicalTextDigest: rev.digests.canonicalText,
-      resultsDigest: rev.digests.results,
-      engineVersion: rev.engineVersion,
-      revisionId: rev.id,
-      revisionNumber: rev.number,
-      sheetId: sheet.id,
-      principalId: user.id,
-      licenceNumber: user.licenceNumber,
-      sealedAt: sealedAt.toISOString(),
-    };
-    const digest = sealDigest(payload);
+    const { payloadVersion, payload, digest } = buildSealPayload(
+      {
+        canonicalTextDigest: rev.digests.canonicalText,
+        resultsDigest: rev.digests.results,
+        engineVersion: rev.engineVersion,
+        revisionId: rev.id,
+        revisionNumber: rev.number,
+        sheetId: sheet.id,
+      },
+      {
+        principalId: user.id,
+        principalName: user.name,
+        licenceNumber: user.licenceNumber,
+        jurisdiction: user.jurisdiction,
+        sealedAt: sealedAt.toISOString(),
+        projectName: sheet.projectName,
+        projectJobNumber: sheet.projectJobNumber,
+        sheetNumber: sheet.number,
+        sheetTitle: sheet.title,
+      },
+    );
     const signature = signDigest(privateKey, digest);
 
     let code = '';
@@ -215,9 +224,9 @@ export const sealsService = {
             revisionId: rev.id,
             code,
             principalId: user.id,
-            principalName: user.name,
-            licenceNumber: user.licenceNumber ?? '',
-            jurisdiction: user.jurisdiction ?? '',
+            principalName: payload.principalName,
+            licenceNumber: payload.licenceNumber,
+            jurisdiction: payload.jurisdiction,
             sealedAt,
             canonicalTextDigest: payload.canonicalTextDigest,
             resultsDigest: payload.resultsDigest,
@@ -225,6 +234,11 @@ export const sealsService = {
             digest,
             signature,
             publicKey: key.publicKey,
+            payloadVersion,
+            projectName: payload.projectName,
+            projectJobNumber: payload.projectJobNumber,
+            sheetNumber: payload.sheetNumber,
+            sheetTitle: payload.sheetTitle,
           });
           await revisionsService.markSealed(trx, rev.id, user.id, sealedAt);
           await sheetsService.setStatus(trx, sheet.id, 'sealed');

@@ -4,6 +4,7 @@ import multer from 'multer';
 import { currentUser, requireSignedIn } from '../../http/auth';
 import type { AppContext } from '../../http/context';
 import { AppError, PayloadTooLargeError, ValidationError } from '../../http/errors';
+import { isMalformedMultipart } from '../../http/request-errors';
 import { parse } from '../../http/validate';
 import { sheetParams } from '../sheets/sheets.schemas';
 import { uploadsService, type ReceivedFile } from './uploads.service';
@@ -52,15 +53,16 @@ export function createUploadsRouter(ctx: AppContext): Router {
               new ValidationError('Send one file, in the form field "file".', { field: 'file' }),
             );
           }
-          return reject(new ValidationError(`The upload form is not valid: ${err.message}.`));
+          return reject(
+            new ValidationError(`The upload form is not valid: ${err.message}.`, { field: 'file' }),
+          );
         }
-        const message = err instanceof Error ? err.message : String(err);
-        if (/multipart|boundary/i.test(message)) {
+        if (isMalformedMultipart(err)) {
           return reject(
             new AppError(
               400,
               'BAD_REQUEST',
-              'Send the file as multipart/form-data with the form field "file".',
+              'The upload arrived cut off or malformed; send the file again as multipart/form-data with the form field "file".',
               { field: 'file' },
             ),
           );

@@ -2,12 +2,21 @@ import { canonicalJson, canonicalText, sha256Hex, type SheetBlock } from '../../
 import type { Db } from '../../db/index';
 import { revisionsService } from '../revisions/revisions.service';
 import { normalizeSealCode } from '../seals/seal-code';
-import { sealDigest } from '../seals/seal-digest';
+import { recomputeSealDigest } from '../seals/seal-payload';
+import type { SealRecord } from '../seals/seals.repository';
 import { sealsService } from '../seals/seals.service';
 import { verifyDigest } from '../seals/signing-keys';
+import type { SheetContext } from '../sheets/sheets.repository';
 import { sheetsService } from '../sheets/sheets.service';
 
 export type Verdict = 'genuine' | 'does-not-match' | 'unknown-code';
+
+export interface NowNames {
+  sheetNumber?: string;
+  sheetTitle?: string;
+  projectJobNumber?: string;
+  projectName?: string;
+}
 
 export interface VerifyResult {
   verdict: Verdict;
@@ -18,6 +27,14 @@ export interface VerifyResult {
   principal: { name: string; licenceNumber: string; jurisdiction: string } | null;
   sealedAt: string | null;
   digest: string | null;
+  /**
+   * 2: sheet, project and principal above are the values signed at sealing. 1 (older seals): the
+   * digest covers the revision, licence and time only; sheet, project, principal name and
+   * jurisdiction are shown as stored and are not part of the seal.
+   */
+  payloadVersion: number | null;
+  /** Today's names where they differ from the sealed ones: shown as "now titled …", not sealed. */
+  now: NowNames | null;
   /** Why it does not match (empty when genuine); notes that do not change the verdict follow. */
   reasons: string[];
   notes: string[];
@@ -32,6 +49,8 @@ const unknown = (code: string | null, reason: string): VerifyResult => ({
   principal: null,
   sealedAt: null,
   digest: null,
+  payloadVersion: null,
+  now: null,
   reasons: [reason],
   notes: [],
 });
@@ -50,6 +69,37 @@ function safeCanonicalText(blocks: unknown): string | null {
   } catch {
     return null;
   }
+}
+
+/**
+ * The sheet and project names to show: on a version-2 seal the sealed ones, with today's names
+ * where they differ (never in their place); on a version-1 seal today's, which were never sealed.
+ */
+function shownNames(
+  seal: SealRecord,
+  sheet: SheetContext | undefined,
+): Pick<VerifyResult, 'sheet' | 'project' | 'now'> {
+  if (seal.payloadVersion < 2) {
+    return {
+      sheet: sheet ? { number: sheet.number, title: sheet.title } : null,
+      project: sheet ? { jobNumber: sheet.projectJobNumber, name: sheet.projectName } : null,
+      now: null,
+    };
+  }
+  const sealed = {
+    sheet: { number: seal.sheetNumber ?? '', title: seal.sheetTitle ?? '' },
+    project: { jobNumber: seal.projectJobNumber ?? '', name: seal.projectName ?? '' },
+  };
+  const now: NowNames = {};
+  if (sheet) {
+    if (sheet.number !== sealed.sheet.number) now.sheetNumber = sheet.number;
+    if (sheet.title !== sealed.sheet.title) now.sheetTitle = sheet.title;
+    if (sheet.projectJobNumber !== sealed.project.jobNumber) {
+      now.projectJobNumber = sheet.projectJobNumber;
+    }
+    if (sheet.projectName !== sealed.project.name) now.projectName = sheet.projectName;
+  }
+  return { ...sealed, now: Object.keys(now).length > 0 ? now : null };
 }
 
 export const verifyService = {
@@ -93,18 +143,22 @@ export const verifyService = {
       if (rev.status !== 'sealed' && rev.status !== 'superseded') {
         reasons.push(`The revision is recorded as ${rev.status}, not sealed.`);
       }
-      const digest = sealDigest({
-        canonicalTextDigest: textDigest,
-        resultsDigest,
-        engineVersion: rev.engineVersion,
-        revisionId: rev.id,
-        revisionNumber: rev.number,
-        sheetId: rev.sheetId,
-        principalId: seal.principalId,
-        licenceNumber: seal.licenceNumber,
-        sealedAt: seal.sealedAt,
-      });
-      if (digest !== seal.digest) {
+      const digest = recomputeSealDigest(
+        {
+          canonicalTextDigest: textDigest,
+          resultsDigest,
+          engineVersion: rev.engineVersion,
+          revisionId: rev.id,
+          revisionNumber: rev.number,
+          sheetId: rev.sheetId,
+        },
+        seal,
+      );
+      if (digest === null) {
+        reasons.push(
+          `The seal is of a format (version ${seal.payloadVersion}) this server does not know.`,
+        );
+      } else if (digest !== seal.digest) {
         reasons.push(
           'The seal digest recomputed from the stored revision differs from the digest that was signed.',
         );
@@ -124,11 +178,16 @@ export const verifyService = {
         );
       }
     }
+    const shown = shownNames(seal, sheet);
+    if (seal.payloadVersion === 1) {
+      notes.push(
+        "This seal was made before names were sealed: the sheet and project names, the principal's name and the jurisdiction are shown as stored today and are not part of the seal.",
+      );
+    }
     return {
       verdict: reasons.length === 0 ? 'genuine' : 'does-not-match',
       code,
-      sheet: sheet ? { number: sheet.number, title: sheet.title } : null,
-      project: sheet ? { jobNumber: sheet.projectJobNumber, name: sheet.projectName } : null,
+      ...shown,
       revision: rev
         ? { number: rev.number, status: rev.status, supersededAt: rev.supersededAt }
         : null,
@@ -139,6 +198,7 @@ export const verifyService = {
       },
       sealedAt: seal.sealedAt,
       digest: seal.digest,
+      payloadVersion: seal.payloadVersion,
       reasons,
       notes,
     };

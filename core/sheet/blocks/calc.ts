@@ -12,9 +12,10 @@ import {
   writtenUnits,
   type EvalContext,
 } from '../context';
-import { EngineError } from '../../errors';
+import { EngineError, isEngineError } from '../../errors';
 import { formatValue } from '../format';
 import { refuseLargeMatrices } from '../large-matrix';
+import { nonFiniteMessage } from '../not-finite';
 import { expressionTex, latexName, substitutionTex } from '../latex';
 import { evaluateStatements } from './statements';
 import type { CalcBlockResult, CalcLineResult, SheetBlock } from '../types';
@@ -162,6 +163,13 @@ export function evaluateCalcLine(
   } catch (err) {
     // The assignment happened; a line that fails must not leave its name behind.
     if (name) ctx.scope.delete(name);
+    // A scalar that is not finite: say which operation made it (a matrix names its entry).
+    const notFinite = isEngineError(err) ? err.details?.notFinite : undefined;
+    if (typeof notFinite === 'number' && (typeof value === 'number' || ctx.sm.math.isUnit(value))) {
+      const scope = new Map(ctx.scope);
+      const words = nonFiniteMessage(rhs, notFinite, (n) => evaluateNode(ctx, n, scope));
+      throw new EngineError('SHEET_EVAL', words, { notFinite });
+    }
     throw err;
   }
 }

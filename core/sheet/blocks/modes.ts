@@ -18,6 +18,7 @@
 import type { Matrix, Unit } from 'mathjs';
 import { EngineError, NoConvergenceError } from '../../errors';
 import { solveModes } from '../../eigen/solve-modes';
+import { firstNonFinitePath, modesNotFiniteMessage } from '../not-finite';
 import type {
   InfluenceVector,
   MethodName,
@@ -608,6 +609,18 @@ export function evaluateModesBlock(
     participation: r.participation,
     ...(r.criticalTimeStep ? { criticalTimeStep: r.criticalTimeStep } : {}),
   };
+  // A zero or non-finite K or M can give NaN modes without a solver error; nothing that is not a
+  // finite number may be stored, so say here which matrix and entry is at fault.
+  const notFinite =
+    firstNonFinitePath({ modes: result.modes, shapes: result.shapes }) ??
+    firstNonFinitePath(result);
+  if (notFinite) {
+    const why = modesNotFiniteMessage(notFinite.path, notFinite.value, K.engine, M.engine);
+    const line = why.matrix === 'M' ? keys.mass!.line : keys.stiffness!.line;
+    ctx.errors.push({ ...at(line), message: why.message, code: 'SHEET_EVAL' });
+    Object.assign(result, emptyResult(block, blockIndex));
+    return markFailed();
+  }
   ctx.scope.set(name, bindResults(ctx, r));
   ctx.failed.delete(name);
   result.ok = true;

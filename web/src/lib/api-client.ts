@@ -1,5 +1,6 @@
 // The one way the client talks to the server: JSON in and out, the error shape of DESIGN.md §9
 // turned into ApiError, and the CSRF synchronizer token sent on every state-changing request.
+import { noteApiAnswer } from './database-status';
 
 export type ApiErrorBody = {
   code: string;
@@ -106,7 +107,12 @@ async function request<T>(
         'Could not reach the Modewright server. Check the connection and that it is running.',
     });
   }
-  if (!response.ok) throw await readError(response);
+  if (!response.ok) {
+    const error = await readError(response);
+    noteApiAnswer(response.status, error.code);
+    throw error;
+  }
+  noteApiAnswer(response.status);
   if (response.status === 204) return undefined as T;
   const text = await response.text();
   return (text ? JSON.parse(text) : undefined) as T;

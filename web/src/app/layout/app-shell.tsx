@@ -6,6 +6,7 @@ import { paths } from '../../config/paths';
 import { useSignOut } from '../../features/auth/api/sign-out';
 import type { User } from '../../types/api';
 import { Caution } from './caution';
+import { DatabaseBanner } from './database-banner';
 import { Wordmark } from './wordmark';
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
@@ -68,6 +69,7 @@ export function AppShell({ user, children }: { user: User; children: ReactNode }
           </div>
         ) : null}
       </header>
+      <DatabaseBanner />
       <main id="main" className="mx-auto w-full max-w-6xl flex-1 px-6 py-6">
         {children}
       </main>

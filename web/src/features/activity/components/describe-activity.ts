@@ -74,7 +74,14 @@ const DESCRIBERS: Record<string, Describer> = {
   'auth.signed_out': () => ({ text: 'signed out', facts: [] }),
   'account.password_changed': (_e, d) => ({
     text: 'changed their password',
-    facts: d.signingKeyReencrypted === true ? ['signing key re-encrypted with it'] : [],
+    facts: [
+      ...(d.signingKeyReencrypted === true ? ['signing key re-encrypted with it'] : []),
+      ...(typeof d.otherSessionsEnded === 'number' && d.otherSessionsEnded > 0
+        ? [
+            `signed out elsewhere (${d.otherSessionsEnded} session${d.otherSessionsEnded === 1 ? '' : 's'})`,
+          ]
+        : []),
+    ],
   }),
   'signing_key.created': () => ({ text: 'created a signing key', facts: [] }),
   'sheet.created': (e, d) => ({

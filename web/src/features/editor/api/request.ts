@@ -2,6 +2,7 @@
 // streamed evaluation. They keep the client's conventions: the same error shape (ApiError), the
 // CSRF token from `/api/auth/csrf` on every write, fetched again once when the server refuses it.
 import { api, ApiError, isApiError } from '../../../lib/api-client';
+import { noteApiAnswer } from '../../../lib/database-status';
 
 let token: string | null = null;
 
@@ -18,6 +19,7 @@ export async function readApiError(response: Response): Promise<ApiError> {
     // Not JSON: a generic message below.
   }
   const error = (body as { error?: Record<string, unknown> } | null)?.error;
+  noteApiAnswer(response.status, typeof error?.code === 'string' ? error.code : undefined);
   if (error && typeof error.code === 'string' && typeof error.message === 'string') {
     return new ApiError(response.status, {
       code: error.code,
@@ -75,6 +77,7 @@ export async function writeRequest(
     }
     throw error;
   }
+  noteApiAnswer(response.status);
   return response;
 }
 

@@ -11,7 +11,8 @@ const OFFLINE_RETRY_MS = 5000;
 /**
  * Saves the draft a second after the author stops typing, one request at a time, against the
  * version it was loaded at. A refused stale save becomes `conflict` with the server's draft; a
- * lost connection becomes `offline` and is retried until it goes through.
+ * lost connection or a server without its database becomes `offline` and is retried until it
+ * goes through.
  */
 export function useAutosave({
   sheetId,
@@ -64,11 +65,16 @@ export function useAutosave({
       }
     } catch (e) {
       failed = true;
-      if (isApiError(e) && e.status === 0) {
+      // The server or its database cannot be reached: keep the text and try again.
+      if (isApiError(e) && (e.status === 0 || e.code === 'DATABASE_UNAVAILABLE')) {
         setState('offline');
         setError(e.message);
         if (timer.current) clearTimeout(timer.current);
-        timer.current = setTimeout(() => void flush(), OFFLINE_RETRY_MS);
+        const retryAfter = Number(e.details?.retryAfterSeconds) * 1000;
+        timer.current = setTimeout(
+          () => void flush(),
+          retryAfter > 0 ? retryAfter : OFFLINE_RETRY_MS,
+        );
       } else {
         setState('error');
         setError(e instanceof Error ? e.message : 'The draft could not be saved.');

@@ -10,6 +10,15 @@ export type Verification = {
   principal: { name: string; licenceNumber: string; jurisdiction: string } | null;
   sealedAt: string | null;
   digest: string | null;
+  /** 2: sheet, project and principal are the sealed values; 1: an older seal, names not sealed. */
+  payloadVersion: number | null;
+  /** Today's names where they differ from the sealed ones; not part of the seal. */
+  now: {
+    sheetNumber?: string;
+    sheetTitle?: string;
+    projectJobNumber?: string;
+    projectName?: string;
+  } | null;
   reasons: string[];
   notes: string[];
 };

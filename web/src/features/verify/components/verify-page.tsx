@@ -62,6 +62,33 @@ const VERDICT: Record<Verification['verdict'], { title: string; tone: string; te
   },
 };
 
+/**
+ * A rename after sealing: shown under the sealed value, never in its place, and marked as not
+ * part of the seal.
+ */
+function NowNamed({
+  number,
+  title,
+  label,
+}: {
+  number: string | undefined;
+  title: string | undefined;
+  label: string;
+}) {
+  if (number === undefined && title === undefined) return null;
+  const words = [
+    number !== undefined ? `now numbered ${number}` : null,
+    title !== undefined ? `now titled “${title}”` : null,
+  ]
+    .filter(Boolean)
+    .join(', ');
+  return (
+    <span className="block text-xs text-ink-soft" aria-label={`Later change of the ${label}`}>
+      {words} — not part of the seal
+    </span>
+  );
+}
+
 /** The public verdict on one seal code, recomputed by the server on every visit. */
 export function VerifyResult({ code }: { code: string }) {
   const verification = useVerification(code);
@@ -106,10 +133,12 @@ export function VerifyResult({ code }: { code: string }) {
           <dt className="text-ink-soft">Project</dt>
           <dd>
             {v.project?.jobNumber} — {v.project?.name}
+            <NowNamed number={v.now?.projectJobNumber} title={v.now?.projectName} label="project" />
           </dd>
           <dt className="text-ink-soft">Sheet</dt>
           <dd>
             {v.sheet.number} — {v.sheet.title}
+            <NowNamed number={v.now?.sheetNumber} title={v.now?.sheetTitle} label="sheet" />
           </dd>
           <dt className="text-ink-soft">Revision</dt>
           <dd>
