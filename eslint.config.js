@@ -5,14 +5,25 @@ import { importX } from 'eslint-plugin-import-x';
 import { createTypeScriptImportResolver } from 'eslint-import-resolver-typescript';
 import reactHooks from 'eslint-plugin-react-hooks';
 import globals from 'globals';
+import { readdirSync } from 'node:fs';
 
-const featureZones = (features) =>
-  features.map((f) => ({
-    target: `./web/src/features/${f}`,
-    from: './web/src/features',
-    except: [`./${f}`],
-    message: 'A feature never imports another feature; features meet in web/src/app.',
-  }));
+// The folders are the list: a new feature or resource is fenced in the day it is made.
+const foldersOf = (dir) =>
+  readdirSync(new URL(dir, import.meta.url), { withFileTypes: true })
+    .filter((d) => d.isDirectory())
+    .map((d) => d.name);
+
+const featureZones = foldersOf('./web/src/features/').map((f) => ({
+  target: `./web/src/features/${f}`,
+  from: './web/src/features',
+  except: [`./${f}`],
+  message: 'A feature never imports another feature; features meet in web/src/app.',
+}));
+
+const noDriver = [
+  { name: 'knex', message: 'Only repositories and api/db import Knex.', allowTypeImports: true },
+  { name: 'mysql2', message: 'Only api/db talks to the driver.' },
+];
 
 export default tseslint.config(
   {
@@ -56,30 +67,49 @@ export default tseslint.config(
             {
               target: ['./api', './web', './scripts', './seeds'],
               from: './core',
-              except: ['./index.ts', './threads.ts', './engine.ts'],
+              except: ['./index.ts', './threads.ts', './engine.ts', './vocabulary.ts'],
               message:
-                'Import core/ only through core/index.ts (helper threads: core/threads.ts; the solver alone, without the sheet engine: core/engine.ts).',
+                'Import core/ only through core/index.ts (helper threads: core/threads.ts; the solver alone, without the sheet engine: core/engine.ts; the stored words: core/vocabulary.ts).',
+            },
+            {
+              target: './core/vocabulary.ts',
+              from: ['./core', './api', './web'],
+              message: 'core/vocabulary.ts is the words both sides read: it imports nothing.',
             },
             {
               target: './web',
               from: ['./api', './migrations', './seeds'],
               message: 'The client talks to the server over HTTP only.',
             },
-            ...featureZones([
-              'auth',
-              'projects',
-              'members',
-              'sheets',
-              'editor',
-              'revisions',
-              'review',
-              'seal',
-              'verify',
-              'print',
-              'admin',
-              'outbox',
-              'activity',
-            ]),
+            // Shared code of the client serves every feature and knows none of them.
+            {
+              target: ['./web/src/components', './web/src/lib', './web/src/config'],
+              from: ['./web/src/features', './web/src/app'],
+              message:
+                'Shared client code never imports a feature or the app; pass what it needs in.',
+            },
+            {
+              target: './web/src/features',
+              from: './web/src/app',
+              message: 'Features do not import the app; the app composes the features.',
+            },
+            // The layers of a resource point down: routes → services → repositories → db.
+            {
+              target: './api/modules/**/*.repository.ts',
+              from: ['./api/modules/**/*.service.ts', './api/modules/**/*.routes.ts'],
+              message: 'A repository owns SQL only; it never calls a service or a route.',
+            },
+            {
+              target: './api/modules/**/*.service.ts',
+              from: './api/modules/**/*.routes.ts',
+              message: 'A service never imports a route.',
+            },
+            {
+              target: ['./api/http', './api/mail', './api/workers', './api/db', './api/config'],
+              from: ['./api/app.ts', './api/app-context.ts', './api/server.ts'],
+              message: 'Infrastructure does not import the app that composes it.',
+            },
+            ...featureZones,
           ],
         },
       ],
@@ -130,16 +160,46 @@ export default tseslint.config(
     files: ['api/**/*.ts', 'web/**/*.{ts,tsx}'],
     ignores: ['api/db/**', 'api/**/*.repository.ts'],
     rules: {
+      '@typescript-eslint/no-restricted-imports': ['error', { paths: noDriver }],
+    },
+  },
+  {
+    // Infrastructure is free of resources: what it needs from them is handed in by createApp
+    // (types excepted: the signed-in person's shape).
+    files: ['api/http/**/*.ts', 'api/mail/**/*.ts', 'api/workers/**/*.ts'],
+    rules: {
       '@typescript-eslint/no-restricted-imports': [
         'error',
         {
-          paths: [
+          paths: noDriver,
+          patterns: [
             {
-              name: 'knex',
-              message: 'Only repositories and api/db import Knex.',
+              group: ['**/modules/**'],
               allowTypeImports: true,
+              message:
+                'Infrastructure imports no resource module; createApp hands it what it needs.',
             },
-            { name: 'mysql2', message: 'Only api/db talks to the driver.' },
+          ],
+        },
+      ],
+    },
+  },
+  {
+    // The client may read the engine's types, never its runtime (mathjs stays on the server);
+    // values both sides need live in core/vocabulary.ts, which imports nothing.
+    files: ['web/**/*.{ts,tsx}'],
+    rules: {
+      '@typescript-eslint/no-restricted-imports': [
+        'error',
+        {
+          paths: noDriver,
+          patterns: [
+            {
+              group: ['**/core/**', '**/core/index', '**/core', '!**/core/vocabulary'],
+              allowTypeImports: true,
+              message:
+                'The client imports core/ as types only (import type); shared values live in core/vocabulary.ts.',
+            },
           ],
         },
       ],

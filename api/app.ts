@@ -3,6 +3,7 @@ import path from 'node:path';
 import express from 'express';
 import session from 'express-session';
 import helmet from 'helmet';
+import { createAppContext } from './app-context';
 import { loadConfig, type AppConfig } from './config/index';
 import { createDb, waitForDb, type Db } from './db/index';
 import { createSessionStore } from './db/session-store';
@@ -14,22 +15,28 @@ import { csrfProtection } from './http/csrf';
 import { apiNotFound, errorMiddleware } from './http/error-middleware';
 import { createLogger, requestLogger } from './http/logger';
 import { refuseInvalidText } from './http/valid-text';
+import type { Mailer } from './mail/mailer';
 import { createAccountRouter } from './modules/account/account.routes';
 import { createActivityRouter } from './modules/activity/activity.routes';
 import { createAuthRouter, SESSION_COOKIE } from './modules/auth/auth.routes';
 import { createMembersRouter } from './modules/members/members.routes';
 import { createOutboxRouter } from './modules/outbox/outbox.routes';
 import { createProjectsRouter } from './modules/projects/projects.routes';
-import { createReviewRouter } from './modules/revisions/review.routes';
+import { createRemarksRouter } from './modules/remarks/remarks.routes';
+import { createRevisionsRouter } from './modules/revisions/revisions.routes';
+import { createSealsRouter } from './modules/seals/seals.routes';
 import { createSheetsRouter } from './modules/sheets/sheets.routes';
 import { createUploadsRouter } from './modules/uploads/uploads.routes';
 import { createUsersRouter } from './modules/users/users.routes';
-import { createEvaluateRouter } from './modules/evaluate/evaluate.routes';
+import { usersService } from './modules/users/users.service';
+import { createVerifyRouter } from './modules/verify/verify.routes';
 import { createEvaluationPool, poolOptionsFromEnv } from './workers/evaluation-pool';
 
 export interface AppOptions extends Partial<AppConfig> {
   /** How often expired sessions are swept, in ms (0 turns the sweep off; tests do). */
   sessionCleanupMs?: number;
+  /** Default: SMTP when MW_SMTP_URL is set, else the outbox table. */
+  mailer?: Mailer;
 }
 
 export interface CreatedApp {
@@ -37,6 +44,8 @@ export interface CreatedApp {
   config: AppConfig;
   /** The app's own pool; tests use it to check the rows written. */
   db: Db;
+  /** What every router was built with; tests build a router of their own from it. */
+  ctx: AppContext;
   close(): Promise<void>;
 }
 
@@ -63,7 +72,7 @@ const strictCsp = {
  * It does not listen; api/server.ts does.
  */
 export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
-  const { sessionCleanupMs, ...overrides } = options;
+  const { sessionCleanupMs, mailer, ...overrides } = options;
   const config = loadConfig(overrides);
   const log = createLogger(config.logRequests);
   const db = createDb(config.db);
@@ -80,12 +89,18 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     });
     closers.push(() => sessions.close());
 
-    const ctx: AppContext = { db, config, log };
-    // Every evaluation (editor, issue for check, seal) runs in the worker pool, never on the
-    // event loop.
+    // Every evaluation (editor, issue for check, compare, seal) and every uploaded file's read
+    // runs in the worker pool, never on the event loop.
     const pool = createEvaluationPool(poolOptionsFromEnv());
     closers.push(() => pool.close());
-    const runner = pool.run.bind(pool);
+    const ctx = createAppContext({
+      db,
+      config,
+      log,
+      ...(mailer ? { mailer } : {}),
+      runner: pool.run.bind(pool),
+      describeMatrixFile: pool.describeMatrixFile,
+    });
     const app = express();
     app.disable('x-powered-by');
     // The sign-in limit is keyed on the client address: behind a proxy, say how many hops to trust.
@@ -130,7 +145,7 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
       next();
     });
     api.use(csrfProtection);
-    api.use(loadSessionUser(db));
+    api.use(loadSessionUser((userId) => usersService.findById(db, userId)));
     const window = config.signinWindowMs;
     api.post(
       '/auth/sign-in',
@@ -147,11 +162,13 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     api.use('/projects/:projectId/members', createMembersRouter(ctx));
     api.use('/projects/:projectId/activity', createActivityRouter(ctx));
     api.use('/projects', createProjectsRouter(ctx));
-    api.use(createEvaluateRouter(ctx, { run: runner }));
-    api.use(createSheetsRouter(ctx, { runner }));
-    api.use(createUploadsRouter(ctx, { describeMatrixFile: pool.describeMatrixFile }));
+    api.use(createSheetsRouter(ctx));
+    api.use(createUploadsRouter(ctx));
+    api.use(createRevisionsRouter(ctx));
+    api.use(createRemarksRouter(ctx));
+    api.use(createSealsRouter(ctx));
+    api.use(createVerifyRouter(ctx));
     api.use('/outbox', createOutboxRouter(ctx));
-    api.use(createReviewRouter(ctx, { runner }));
     api.use(apiNotFound);
     app.use('/api', api);
 
@@ -165,7 +182,7 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     }
 
     app.use(errorMiddleware(log));
-    return { app, config, db, close };
+    return { app, config, db, ctx, close };
   } catch (e) {
     await close();
     throw e;

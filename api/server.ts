@@ -1,4 +1,5 @@
-// The one place that listens. npm start runs this through tsx after building the client.
+// The one place that listens. npm start runs it compiled (dist/server/server.js, built by
+// scripts/build-server.mjs) after building the client; npm run dev runs it through tsx.
 import { createApp } from './app';
 
 const DEMO_PEOPLE = [

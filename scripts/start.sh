@@ -11,4 +11,6 @@ log "migrating the database; demo data when it is empty"
 npx tsx api/db/prepare.ts
 log "building the client"
 npx vite build --logLevel warn
-exec npx tsx api/server.ts
+log "compiling the server (when a source changed since the last build)"
+node scripts/build-server.mjs
+exec node --enable-source-maps dist/server/server.js

@@ -1,4 +1,6 @@
 import type { Knex } from 'knex';
+import { createAppContext } from '../api/app-context';
+import { loadConfig } from '../api/config/index';
 import { usersRepository } from '../api/modules/users/users.repository';
 import { findSheetById, type SheetBlock } from '../api/modules/sheets/sheets.repository';
 import type { TemplateKey } from '../api/modules/sheets/sheets.schemas';
@@ -180,6 +182,13 @@ const STARTED: Record<string, { made: [number, string]; saved: [number, string] 
   'DYN-03': { made: [2, '09:30'], saved: [1, '15:40'] },
 };
 
+const seedLog = {
+  info() {},
+  error(message: string) {
+    process.stderr.write(`seed 02: ${message}\n`);
+  },
+};
+
 export async function seed(knex: Knex): Promise<void> {
   await withDemoClock(knex, (db, at) => sheets(db, at));
 }
@@ -187,6 +196,7 @@ export async function seed(knex: Knex): Promise<void> {
 async function sheets(knex: Knex, at: SetDemoClock): Promise<void> {
   const project = (await knex('projects').where({ job_number: 'BW-2611' }).first('id')) as
     { id: number } | undefined;
+  const ctx = createAppContext({ db: knex, config: loadConfig(), log: seedLog });
   const ines = await usersRepository.findByEmail(knex, 'ines.marlow@brackwater.example');
   if (!project || !ines) {
     throw new Error('seeds/02_demo_sheets needs project BW-2611 and Ines Marlow from seeds/01.');
@@ -199,7 +209,7 @@ async function sheets(knex: Knex, at: SetDemoClock): Promise<void> {
     const when = STARTED[demo.number];
     if (!when) throw new Error(`seed ${demo.number}: no day for it in STARTED`);
     await at(...when.made);
-    const sheet = await sheetsService.create(knex, ines, project.id, {
+    const sheet = await sheetsService.create(ctx, ines, project.id, {
       number: demo.number,
       title: demo.title,
       subject: demo.subject,
@@ -208,7 +218,7 @@ async function sheets(knex: Knex, at: SetDemoClock): Promise<void> {
     const current = await findSheetById(knex, sheet.id);
     if (!current) throw new Error(`seed ${demo.number}: the sheet just made is missing`);
     await at(...when.saved);
-    await sheetsService.saveDraft(knex, ines, sheet.id, current.draftVersion, {
+    await sheetsService.saveDraft(ctx, ines, sheet.id, current.draftVersion, {
       blocks: [
         ...applyEdits(current.draft.blocks, demo.edits, demo.number),
         ...(demo.append ?? []),

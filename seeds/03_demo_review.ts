@@ -1,10 +1,14 @@
 import type { Knex } from 'knex';
+import { createAppContext } from '../api/app-context';
+import { loadConfig } from '../api/config/index';
+import type { AppContext } from '../api/http/context';
 import type { Logger } from '../api/http/logger';
-import { createMailer } from '../api/mail/mailer';
 import { remarksService } from '../api/modules/remarks/remarks.service';
-import { evaluatorFrom, inProcessResults } from '../api/modules/revisions/evaluator';
-import type { ReviewDeps } from '../api/modules/revisions/review-deps';
-import { revisionsService } from '../api/modules/revisions/revisions.service';
+import {
+  remarkRevisionAccess,
+  revisionAccess,
+  revisionsService,
+} from '../api/modules/revisions/revisions.service';
 import { sealsService } from '../api/modules/seals/seals.service';
 import { findSheetById, type SheetBlock } from '../api/modules/sheets/sheets.repository';
 import { sheetsService } from '../api/modules/sheets/sheets.service';
@@ -28,6 +32,11 @@ const quietLog: Logger = {
     process.stderr.write(`seed 03: ${message} ${error instanceof Error ? error.message : ''}\n`);
   },
 };
+
+/** The revision in scope for a checker's remark, as the route asks the access policy for it. */
+function asChecker(ctx: AppContext, user: User, revisionId: number) {
+  return revisionAccess(ctx, user, revisionId, 'remark.add');
+}
 
 async function person(knex: Knex, email: string): Promise<User> {
   const user = await usersRepository.findByEmail(knex, email);
@@ -68,24 +77,18 @@ async function review(knex: Knex, at: SetDemoClock): Promise<void> {
     person(knex, 'tomasz.reyes@brackwater.example'),
     person(knex, 'priya.anand@brackwater.example'),
   ]);
-  const mailer = createMailer({ db: knex });
-  const deps: ReviewDeps = {
-    db: knex,
-    mailer,
-    evaluate: evaluatorFrom(inProcessResults),
-    log: quietLog,
-  };
+  const deps = createAppContext({ db: knex, config: loadConfig(), log: quietLog });
   try {
     await footbridge(knex, deps, at, project.id, { ines, tomasz, priya });
     await frame(knex, deps, at, project.id, { ines, tomasz });
   } finally {
-    mailer.close();
+    deps.mailer.close();
   }
 }
 
 async function footbridge(
   knex: Knex,
-  deps: ReviewDeps,
+  deps: AppContext,
   at: SetDemoClock,
   projectId: number,
   p: { ines: User; tomasz: User; priya: User },
@@ -96,20 +99,26 @@ async function footbridge(
   const rev1 = await revisionsService.issue(deps, p.ines, sheet.id, 'For check');
   await at(13, '10:05');
   const massLine = lineStarting(sheet.draft.blocks, 'deck-data', 'm = ');
-  const remark = await remarksService.create(deps, p.tomasz, rev1.id, {
-    blockId: 'deck-data',
-    line: massLine,
-    type: 'query',
-    text:
-      'The 0.15 t/m for parapets and services looks light: the lighting conduits and the ' +
-      'handrail heating cable are on drawing KQ-E-402. Please confirm the allowance.',
-  });
+  const remark = await remarksService.create(
+    deps,
+    p.tomasz,
+    await asChecker(deps, p.tomasz, rev1.id),
+    {
+      blockId: 'deck-data',
+      line: massLine,
+      type: 'query',
+      text:
+        'The 0.15 t/m for parapets and services looks light: the lighting conduits and the ' +
+        'handrail heating cable are on drawing KQ-E-402. Please confirm the allowance.',
+    },
+  );
   await at(13, '10:12');
   await revisionsService.returnRevision(deps, p.tomasz, rev1.id);
   await at(12, '09:30');
   await remarksService.reply(
     deps,
     p.ines,
+    await remarkRevisionAccess(deps, p.ines, remark.id, 'remark.reply'),
     remark.id,
     'Agreed: services are 0.20 t/m with the conduits and heating cable. Mass revised and the ' +
       'source of each part noted above the line.',
@@ -132,7 +141,7 @@ async function footbridge(
     return { ...b, source: lines.join('\n') };
   });
   await at(12, '09:48');
-  await sheetsService.saveDraft(knex, p.ines, sheet.id, current.draftVersion, {
+  await sheetsService.saveDraft(deps, p.ines, sheet.id, current.draftVersion, {
     blocks,
     settings: current.draft.settings,
   });
@@ -144,15 +153,18 @@ async function footbridge(
     'For construction — services mass revised after check',
   );
   await at(11, '14:20');
-  const carried = await remarksService.list(deps, p.tomasz, rev2.id);
+  const rev2Scope = await revisionAccess(deps, p.tomasz, rev2.id, 'remark.set_state');
+  const carried = await remarksService.list(deps, rev2Scope);
   for (const r of carried) {
-    await remarksService.reply(deps, p.tomasz, r.id, 'Checked against KQ-E-402: agreed.');
-    await remarksService.setState(deps, p.tomasz, r.id, 'closed');
+    const scope = await remarkRevisionAccess(deps, p.tomasz, r.id, 'remark.reply');
+    await remarksService.reply(deps, p.tomasz, scope, r.id, 'Checked against KQ-E-402: agreed.');
+    await remarksService.setState(deps, p.tomasz, scope, r.id, 'closed');
   }
   await at(11, '14:26');
   await revisionsService.signOff(deps, p.tomasz, rev2.id);
   await at(10, '09:15');
-  await sealsService.seal(deps, p.priya, rev2.id, DEMO_PASSWORD);
+  const sealScope = await revisionAccess(deps, p.priya, rev2.id, 'revision.seal');
+  await sealsService.seal(deps, p.priya, sealScope, DEMO_PASSWORD);
 
   // After the seal the client asks for the comfort check itself: Ines adds the walking
   // acceleration to the draft, for Rev 3 (the sealed Rev 2 stays as it is).
@@ -183,7 +195,7 @@ async function footbridge(
   const next = [...sealed.draft.blocks];
   next.splice(outcomeAt < 0 ? next.length : outcomeAt, 0, ...walking);
   await at(9, '11:20');
-  await sheetsService.saveDraft(knex, p.ines, sheet.id, sealed.draftVersion, {
+  await sheetsService.saveDraft(deps, p.ines, sheet.id, sealed.draftVersion, {
     blocks: next,
     settings: sealed.draft.settings,
   });
@@ -191,7 +203,7 @@ async function footbridge(
 
 async function frame(
   knex: Knex,
-  deps: ReviewDeps,
+  deps: AppContext,
   at: SetDemoClock,
   projectId: number,
   p: { ines: User; tomasz: User },
@@ -201,7 +213,7 @@ async function frame(
   await at(3, '17:10');
   const rev1 = await revisionsService.issue(deps, p.ines, sheet.id, 'For check');
   await at(2, '11:30');
-  await remarksService.create(deps, p.tomasz, rev1.id, {
+  await remarksService.create(deps, p.tomasz, await asChecker(deps, p.tomasz, rev1.id), {
     blockId: 'storeys',
     line: lineStarting(sheet.draft.blocks, 'storeys', 'k_4 = '),
     type: 'error',

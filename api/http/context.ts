@@ -1,13 +1,24 @@
 import type { AppConfig } from '../config/index';
 import type { Db } from '../db/index';
+import type { Mailer } from '../mail/mailer';
+import type { MatrixFileDescriber, SheetRunner } from '../workers/sheet-runner';
+import type { Access } from './access';
 import type { Logger } from './logger';
 import type { User } from '../modules/users/users.repository';
 
-/** What every router factory receives from createApp. */
+/** What every router factory and service receives from createApp: the one dependency shape. */
 export interface AppContext {
   db: Db;
   config: AppConfig;
   log: Logger;
+  /** The one access policy (api/http/access.ts). */
+  access: Access;
+  /** SMTP when MW_SMTP_URL is set, else the outbox table. */
+  mailer: Mailer;
+  /** Every evaluation: the worker pool's runner in the app. */
+  runner: SheetRunner;
+  /** Reads an uploaded matrix file: the worker pool's reader in the app. */
+  describeMatrixFile: MatrixFileDescriber;
 }
 
 declare module 'express-session' {

@@ -1,4 +1,4 @@
-import { ZodError, type z } from 'zod';
+import { ZodError, z } from 'zod';
 import { ValidationError } from './errors';
 
 type Where = 'body' | 'params' | 'query';
@@ -44,3 +44,11 @@ export function isZodError(e: unknown): e is ZodError {
 function capitalise(s: string): string {
   return s.charAt(0).toUpperCase() + s.slice(1);
 }
+
+/** A positive whole id in the address (`:projectId`, `:sheetId`, …), named by `label`. */
+export const idParam = (label: string) =>
+  z.coerce
+    .number({ error: `The ${label} in the address must be a whole number.` })
+    .int({ error: `The ${label} in the address must be a whole number.` })
+    .positive({ error: `The ${label} in the address must be a whole number above 0.` })
+    .max(4294967295, { error: `The ${label} in the address is too large.` });

@@ -30,6 +30,7 @@ import {
   type MessagePort,
   receiveMessageOnPort,
   Worker,
+  type WorkerOptions,
 } from 'node:worker_threads';
 // the engine's entry for helper threads (not core/index): a helper need not load the sheet engine
 import { DENSE_TASKS, type DenseTask, type DenseTeam } from '../../core/threads';
@@ -78,16 +79,32 @@ export interface ThreadTeam extends DenseTeam {
   close(): Promise<void>;
 }
 
-const HELPER_FILE = new URL('./dense-helper.worker.ts', import.meta.url).href;
+/** Compiled (the helper beside this bundle in dist/server/) or from source through tsx. */
+const COMPILED = import.meta.url.endsWith('.js');
+const HELPER_FILE = new URL(
+  COMPILED ? './dense-helper.worker.js' : './dense-helper.worker.ts',
+  import.meta.url,
+).href;
 /** tsx's ESM API entry, from its package's export map (`import.meta.resolve` trips tsx itself). */
-const TSX_API = ((): string => {
+function tsxApi(): string {
   const require = createRequire(import.meta.url);
   const manifest = require.resolve('tsx/package.json');
   const pkg = JSON.parse(readFileSync(manifest, 'utf8')) as {
     exports: Record<string, { import: { default: string } }>;
   };
   return pathToFileURL(join(dirname(manifest), pkg.exports['./esm/api']!.import.default)).href;
-})();
+}
+
+/**
+ * The helper thread's code: the compiled file itself, or, from source, a one-line entry that
+ * registers tsx's loader in the new thread (a worker does not take `--import tsx` from
+ * execArgv), then imports the TypeScript file.
+ */
+function helperWorker(options: WorkerOptions): Worker {
+  if (COMPILED) return new Worker(new URL(HELPER_FILE), options);
+  const entry = `import(${JSON.stringify(tsxApi())}).then((tsx) => { tsx.register(); return import(${JSON.stringify(HELPER_FILE)}); });`;
+  return new Worker(entry, { ...options, eval: true });
+}
 
 /**
  * Bytes of free buffers a team keeps between solves for the next one (a solve at n = 1000 uses
@@ -124,14 +141,7 @@ export async function createDenseTeam(helpers: number): Promise<ThreadTeam> {
           port: port2,
           index,
         };
-        // The helper is TypeScript: a one-line entry registers tsx's loader in the new thread
-        // (a worker does not take `--import tsx` from execArgv), then imports it.
-        const entry = `import(${JSON.stringify(TSX_API)}).then((tsx) => { tsx.register(); return import(${JSON.stringify(HELPER_FILE)}); });`;
-        const worker = new Worker(entry, {
-          eval: true,
-          workerData: data,
-          transferList: [port2],
-        });
+        const worker = helperWorker({ workerData: data, transferList: [port2] });
         workers.push(worker);
         ports.push(port1);
         await new Promise<void>((resolve, reject) => {

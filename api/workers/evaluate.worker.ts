@@ -8,16 +8,15 @@ import { availableParallelism } from 'node:os';
 import type { MessagePort } from 'node:worker_threads';
 import {
   DENSE_PARTS,
+  describeMatrixText,
   evaluateSheet,
+  type MatrixAnalysis,
   type Sheet,
   type SheetResults,
   type SheetUpload,
 } from '../../core/index';
 import { createDenseTeam, type ThreadTeam } from './dense-team';
-import { AppError } from '../http/errors';
 import { createLogger } from '../http/logger';
-import { describeMatrixFile, type MatrixFileShape } from '../modules/uploads/uploads.parse';
-import type { UploadFormat } from '../modules/uploads/uploads.repository';
 
 export interface EvaluateTask {
   sheet: Sheet;
@@ -105,37 +104,26 @@ export default async function evaluateTask(task: EvaluateTask): Promise<Evaluate
 /** An uploaded file to describe: its text (decoded on the main thread), format and name. */
 export interface DescribeMatrixTask {
   text: string;
-  format: UploadFormat;
+  format: 'matrix-market' | 'csv';
   name: string;
 }
 
-/** The shape, or the API error the parse raised (AppError loses its class crossing threads). */
+/** The analysis, or the engine's refusal as data (EngineError loses its class crossing threads). */
 export type DescribeMatrixReply =
-  | { ok: true; shape: MatrixFileShape }
-  | {
-      ok: false;
-      error: {
-        status: number;
-        code: string;
-        message: string;
-        field?: string;
-        details?: Record<string, unknown>;
-      };
-    };
+  | { ok: true; shape: MatrixAnalysis }
+  | { ok: false; error: { code: string; message: string; details?: Record<string, unknown> } };
 
-/** Reads a matrix file with the engine's readers (uploads.parse.ts), in the worker. */
+/** Reads a matrix file with the engine's readers (core's describeMatrixText), in the worker. */
 export function describeMatrixTask(task: DescribeMatrixTask): DescribeMatrixReply {
   try {
-    return { ok: true, shape: describeMatrixFile(task.text, task.format, task.name) };
+    return { ok: true, shape: describeMatrixText(task.text, task.format, task.name) };
   } catch (err) {
-    if (err instanceof AppError) {
+    if (isEngineError(err)) {
       return {
         ok: false,
         error: {
-          status: err.status,
           code: err.code,
           message: err.message,
-          ...(err.field ? { field: err.field } : {}),
           ...(err.details ? { details: err.details } : {}),
         },
       };

@@ -18,16 +18,22 @@
  *   large upload (seconds of parsing) never blocks the event loop. Same threads, queue and
  *   limits as the evaluations.
  *
- * The worker file is TypeScript, loaded with `--import tsx` both under `npm start` (the server
- * runs with tsx) and under Vitest.
+ * Under `npm start` the worker is compiled JavaScript (dist/server/evaluate.worker.js); from
+ * source (Vitest, `npm run dev`) it is TypeScript loaded with `--import tsx`.
  */
 import os from 'node:os';
 import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
-import type { Sheet, SheetProgress, SheetResults, SheetUpload } from '../../core/index';
+import {
+  EngineError,
+  type EngineErrorCode,
+  type MatrixAnalysis,
+  type Sheet,
+  type SheetProgress,
+  type SheetResults,
+  type SheetUpload,
+} from '../../core/index';
 import { AppError, RateLimitedError } from '../http/errors';
-import type { MatrixFileShape } from '../modules/uploads/uploads.parse';
-import type { UploadFormat } from '../modules/uploads/uploads.repository';
 import type {
   DescribeMatrixReply,
   DescribeMatrixTask,
@@ -64,10 +70,15 @@ export interface EvaluationPool {
   /** Evaluates a sheet in a worker. Same contract as the sheets module's SheetRunner. */
   run(sheet: Sheet, uploads: SheetUpload[], options?: RunOptions): Promise<SheetResults>;
   /**
-   * Reads an uploaded matrix file in a worker: its shape, or the 422 MATRIX_FILE_INVALID naming
-   * file and line that `describeMatrixFile` (uploads.parse.ts) raises.
+   * Reads an uploaded matrix file in a worker (core's describeMatrixText): its analysis, or the
+   * engine's EngineError naming the line; a file that takes too long or too much memory is a
+   * 422 MATRIX_FILE_INVALID.
    */
-  describeMatrixFile(text: string, format: UploadFormat, name: string): Promise<MatrixFileShape>;
+  describeMatrixFile(
+    text: string,
+    format: 'matrix-market' | 'csv',
+    name: string,
+  ): Promise<MatrixAnalysis>;
   stats(): {
     threads: number;
     queued: number;
@@ -113,7 +124,15 @@ export function poolOptionsFromEnv(): EvaluationPoolOptions {
   return o;
 }
 
-const WORKER_FILE = new URL('./evaluate.worker.ts', import.meta.url).href;
+/**
+ * Compiled (scripts/build-server.mjs puts every bundle in dist/server/, the worker beside the
+ * server) or from source through tsx (Vitest, `npm run dev`): the worker file and how to load it.
+ */
+const COMPILED = import.meta.url.endsWith('.js');
+const WORKER_FILE = new URL(
+  COMPILED ? './evaluate.worker.js' : './evaluate.worker.ts',
+  import.meta.url,
+).href;
 
 /** Creates the pool. Close it when the server stops. */
 export function createEvaluationPool(options: EvaluationPoolOptions = {}): EvaluationPool {
@@ -136,7 +155,7 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
     maxQueue,
     // Keep idle workers: mathjs costs ~1.5 s to load in each new thread.
     idleTimeout: 10 * 60 * 1000,
-    execArgv: ['--import', 'tsx'],
+    execArgv: COMPILED ? [] : ['--import', 'tsx'],
     resourceLimits: {
       maxOldGenerationSizeMb: memoryLimitMb,
       maxYoungGenerationSizeMb: Math.max(16, Math.min(64, Math.floor(memoryLimitMb / 8))),
@@ -218,9 +237,9 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
 
   async function describeMatrixFile(
     text: string,
-    format: UploadFormat,
+    format: 'matrix-market' | 'csv',
     name: string,
-  ): Promise<MatrixFileShape> {
+  ): Promise<MatrixAnalysis> {
     if (piscina.queueSize >= maxQueue) throw queueFull(timeLimitMs);
     const controller = new AbortController();
     let timedOut = false;
@@ -264,11 +283,8 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
     }
     described++;
     if (reply.ok) return reply.shape;
-    const { status, code, message, field, details } = reply.error;
-    throw new AppError(status, code, message, {
-      ...(field ? { field } : {}),
-      ...(details ? { details } : {}),
-    });
+    const { code, message, details } = reply.error;
+    throw new EngineError(code as EngineErrorCode, message, details);
   }
 
   return {

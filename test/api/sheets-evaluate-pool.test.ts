@@ -33,10 +33,7 @@ beforeAll(async () => {
     solveMemoryShare: 1e-5,
   });
   // the app's own sheets router runs the engine in-process until createApp hands it the pool
-  mountBeforeApi(
-    t,
-    createSheetsRouter({ db: t.db, config: t.config, log: console } as never, { runner: pool.run }),
-  );
+  mountBeforeApi(t, createSheetsRouter({ ...t.ctx, runner: pool.run }));
   const team = await createProjectTeam(t.db);
   projectId = team.project.id;
   author = await signedIn(t.app, team.author);

@@ -20,12 +20,7 @@ beforeAll(async () => {
     clients: { author },
   } = await createTeamApp(['author']));
   pool = createEvaluationPool({ threads: 1, timeLimitMs: 60_000, memoryLimitMb: 512 });
-  mountBeforeApi(
-    t,
-    createUploadsRouter({ db: t.db, config: t.config, log: console } as never, {
-      describeMatrixFile: pool.describeMatrixFile,
-    }),
-  );
+  mountBeforeApi(t, createUploadsRouter({ ...t.ctx, describeMatrixFile: pool.describeMatrixFile }));
   const res = await author.post(`/api/projects/${team.project.id}/sheets`, {
     number: `UPW-${unique()}`,
     title: 'Uploads in workers',

@@ -6,6 +6,7 @@ import type { Knex } from 'knex';
 import { createApp, type AppOptions, type CreatedApp } from '../../api/app';
 import { loadSessionUser } from '../../api/http/auth';
 import { csrfProtection } from '../../api/http/csrf';
+import { usersService } from '../../api/modules/users/users.service';
 import { createProjectTeam } from './factories';
 
 export const TEST_SESSION_SECRET = 'test-session-secret-that-is-long-enough-0123456789';
@@ -41,7 +42,7 @@ export async function createTestApp(options: AppOptions = {}): Promise<TestApp> 
 export function mountBeforeApi(t: TestApp, routes: Router): void {
   const router = express.Router();
   router.use(csrfProtection);
-  router.use(loadSessionUser(t.db));
+  router.use(loadSessionUser((userId) => usersService.findById(t.db, userId)));
   router.use(routes);
   t.app.use('/api', router);
   const stack = (t.app as unknown as { router: { stack: { handle: unknown }[] } }).router.stack;

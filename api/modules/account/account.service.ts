@@ -3,10 +3,10 @@ import type { Db } from '../../db/index';
 import { endOtherSessions } from '../../db/session-store';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import type { User } from '../users/users.repository';
-import { recordReviewActivity } from '../revisions/review-deps';
-import { sealsRepository } from '../seals/seals.repository';
+import { activityService } from '../activity/activity.service';
+import { sealsService } from '../seals/seals.service';
 import { reencryptSigningKey } from '../seals/signing-keys';
-import { accountRepository } from './account.repository';
+import { usersService } from '../users/users.service';
 
 export const accountService = {
   /**
@@ -21,7 +21,7 @@ export const accountService = {
     input: { currentPassword: string; newPassword: string },
     sessionId: string,
   ): Promise<{ signingKeyReencrypted: boolean; otherSessionsEnded: number }> {
-    const hash = await accountRepository.passwordHashOf(db, user.id);
+    const hash = await usersService.passwordHashOf(db, user.id);
     if (!hash || !(await verifyPassword(hash, input.currentPassword))) {
       throw new AppError(403, 'WRONG_PASSWORD', 'The current password is not right.', {
         field: 'currentPassword',
@@ -33,15 +33,15 @@ export const accountService = {
       });
     }
     const newHash = await hashPassword(input.newPassword);
-    const key = await sealsRepository.findSigningKey(db, user.id);
+    const key = await sealsService.signingKeyOf(db, user.id);
     const relocked = key
       ? await reencryptSigningKey(key, input.currentPassword, input.newPassword).catch(() => null)
       : null;
     const otherSessionsEnded = await db.transaction(async (trx) => {
-      await accountRepository.setPasswordHash(trx, user.id, newHash);
-      if (relocked) await sealsRepository.saveSigningKey(trx, relocked);
+      await usersService.setPasswordHash(trx, user.id, newHash);
+      if (relocked) await sealsService.saveSigningKey(trx, relocked);
       const ended = await endOtherSessions(trx, user.id, sessionId);
-      await recordReviewActivity(trx, {
+      await activityService.record(trx, {
         actorId: user.id,
         projectId: null,
         action: 'account.password_changed',

@@ -1,14 +1,7 @@
+import type { ActivityAction } from '../../../core/vocabulary';
 import { readJson, type DbOrTx } from '../../db/index';
 
-export type ActivityAction =
-  | 'project.created'
-  | 'project.updated'
-  | 'member.added'
-  | 'member.roles_changed'
-  | 'member.removed'
-  | 'user.created'
-  | 'auth.signed_in'
-  | 'auth.signed_out';
+export type { ActivityAction };
 
 export interface NewActivity {
   actorId: number | null;
@@ -92,6 +85,31 @@ export const activityRepository = {
       .limit(limit);
     const entries = rows.map(activityEntryOf);
     return withSheets(db, entries);
+  },
+
+  /**
+   * A sheet's history: rows about the sheet itself, and every row whose details name the sheet
+   * (revisions, remarks, seals, uploads record `sheetId`). Newest first.
+   */
+  async listBySheet(
+    db: DbOrTx,
+    projectId: number,
+    sheetId: number,
+    limit: number,
+  ): Promise<ActivityEntry[]> {
+    const rows = (await db('activity as a')
+      .leftJoin('users as u', 'u.id', 'a.actor_id')
+      .where('a.project_id', projectId)
+      .where((w) =>
+        w
+          .where((s) => s.where('a.object_type', 'sheet').where('a.object_id', sheetId))
+          .orWhereRaw("JSON_VALUE(a.details, '$.sheetId') = ?", [sheetId]),
+      )
+      .orderBy('a.at', 'desc')
+      .orderBy('a.id', 'desc')
+      .limit(limit)
+      .select(...ACTIVITY_COLUMNS)) as ActivityRow[];
+    return rows.map(activityEntryOf);
   },
 };
 

@@ -11,4 +11,9 @@ export const activityService = {
   listForProject(db: Db, projectId: number, limit = 200): Promise<ActivityEntry[]> {
     return activityRepository.listByProject(db, projectId, limit);
   },
+
+  /** A sheet's history, newest first (the caller has checked that the person may read it). */
+  listForSheet(db: Db, projectId: number, sheetId: number, limit = 300): Promise<ActivityEntry[]> {
+    return activityRepository.listBySheet(db, projectId, sheetId, limit);
+  },
 };

@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { currentUser, requireAdmin, requireProjectRole } from '../../http/auth';
+import { currentUser, requireAdmin } from '../../http/auth';
 import type { AppContext } from '../../http/context';
 import { parse } from '../../http/validate';
 import { projectParams } from '../projects/projects.schemas';
@@ -7,10 +7,10 @@ import { addMemberBody, changeRolesBody, memberParams } from './members.schemas'
 import { membersService } from './members.service';
 
 /** Mounted at /api/projects/:projectId/members. */
-export function createMembersRouter({ db }: AppContext): Router {
+export function createMembersRouter({ db, access }: AppContext): Router {
   const router = Router({ mergeParams: true });
 
-  router.get('/', requireProjectRole(db), async (req, res) => {
+  router.get('/', access.requireProject('project.read'), async (req, res) => {
     const { projectId } = parse(projectParams, req.params, 'params');
     res.json({ members: await membersService.list(db, projectId) });
   });

@@ -1,3 +1,2 @@
-/** The roles a person holds within one project (DESIGN §7). Admin is installation-wide. */
-export const PROJECT_ROLES = ['author', 'checker', 'principal', 'viewer'] as const;
-export type ProjectRole = (typeof PROJECT_ROLES)[number];
+// The project roles are part of the shared vocabulary (core/vocabulary.ts).
+export { PROJECT_ROLES, type ProjectRole } from '../../../core/vocabulary';

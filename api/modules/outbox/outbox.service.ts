@@ -1,8 +1,13 @@
-import type { Db } from '../../db/index';
+import type { Db, DbOrTx } from '../../db/index';
 import type { User } from '../users/users.repository';
-import { outboxRepository, type OutboxMessage } from './outbox.repository';
+import { outboxRepository, type NewOutboxMessage, type OutboxMessage } from './outbox.repository';
 
 export const outboxService = {
+  /** Keeps a message the outbox transport of the mailer built. */
+  store(db: DbOrTx, message: NewOutboxMessage): Promise<number> {
+    return outboxRepository.insert(db, message);
+  },
+
   /**
    * The mail a person may read, newest first: an administrator all of it (`scope: 'all'`),
    * everyone else the messages addressed to their e-mail address (`scope: 'mine'`).

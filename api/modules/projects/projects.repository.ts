@@ -1,5 +1,5 @@
 import type { DbOrTx } from '../../db/index';
-import type { ProjectRole } from '../members/roles';
+import type { ProjectRole } from '../../../core/vocabulary';
 
 export interface Project {
   id: number;

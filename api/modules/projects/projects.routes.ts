@@ -1,11 +1,11 @@
 import { Router } from 'express';
-import { currentUser, requireAdmin, requireProjectRole, requireSignedIn } from '../../http/auth';
+import { currentUser, requireAdmin, requireSignedIn } from '../../http/auth';
 import type { AppContext } from '../../http/context';
 import { parse } from '../../http/validate';
 import { createProjectBody, projectParams, updateProjectBody } from './projects.schemas';
 import { projectsService } from './projects.service';
 
-export function createProjectsRouter({ db }: AppContext): Router {
+export function createProjectsRouter({ db, access }: AppContext): Router {
   const router = Router();
 
   router.get('/', requireSignedIn, async (req, res) => {
@@ -18,7 +18,7 @@ export function createProjectsRouter({ db }: AppContext): Router {
     res.status(201).json({ project });
   });
 
-  router.get('/:projectId', requireProjectRole(db), async (req, res) => {
+  router.get('/:projectId', access.requireProject('project.read'), async (req, res) => {
     const { projectId } = parse(projectParams, req.params, 'params');
     res.json({ project: await projectsService.get(db, currentUser(req), projectId) });
   });

@@ -1,4 +1,7 @@
 import { z } from 'zod';
+import { idParam } from '../../http/validate';
+
+export { idParam };
 
 const text = (label: string, max: number) =>
   z
@@ -36,13 +39,6 @@ export const updateProjectBody = z
   .refine((v) => Object.values(v).some((x) => x !== undefined), {
     error: 'Send at least one of jobNumber, name, client, site.',
   });
-
-export const idParam = (label: string) =>
-  z.coerce
-    .number({ error: `The ${label} in the address must be a whole number.` })
-    .int({ error: `The ${label} in the address must be a whole number.` })
-    .positive({ error: `The ${label} in the address must be a whole number above 0.` })
-    .max(4294967295, { error: `The ${label} in the address is too large.` });
 
 export const projectParams = z.object({ projectId: idParam('project id') });
 

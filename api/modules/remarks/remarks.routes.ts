@@ -1,37 +1,51 @@
 import { Router } from 'express';
 import { currentUser, requireSignedIn } from '../../http/auth';
+import type { AppContext } from '../../http/context';
 import { parse } from '../../http/validate';
-import type { ReviewDeps } from '../revisions/review-deps';
-import { remarkParams, revisionParams } from '../revisions/revisions.schemas';
-import { createRemarkBody, remarkStateBody, replyBody } from './remarks.schemas';
+import { remarkRevisionAccess, revisionAccess } from '../revisions/revisions.service';
+import {
+  createRemarkBody,
+  remarkParams,
+  remarkStateBody,
+  replyBody,
+  revisionParams,
+} from './remarks.schemas';
 import { remarksService } from './remarks.service';
 
-export function createRemarksRouter(deps: ReviewDeps): Router {
+/** Remarks on a revision and their threads. Mounted at /api. */
+export function createRemarksRouter(ctx: AppContext): Router {
   const router = Router();
 
   router.get('/revisions/:revisionId/remarks', requireSignedIn, async (req, res) => {
     const { revisionId } = parse(revisionParams, req.params, 'params');
-    res.json({ remarks: await remarksService.list(deps, currentUser(req), revisionId) });
+    const scope = await revisionAccess(ctx, currentUser(req), revisionId, 'sheet.read');
+    res.json({ remarks: await remarksService.list(ctx, scope) });
   });
 
   router.post('/revisions/:revisionId/remarks', requireSignedIn, async (req, res) => {
     const { revisionId } = parse(revisionParams, req.params, 'params');
     const input = parse(createRemarkBody, req.body);
-    const remark = await remarksService.create(deps, currentUser(req), revisionId, input);
+    const user = currentUser(req);
+    const scope = await revisionAccess(ctx, user, revisionId, 'remark.add');
+    const remark = await remarksService.create(ctx, user, scope, input);
     res.status(201).json({ remark });
   });
 
   router.post('/remarks/:remarkId/replies', requireSignedIn, async (req, res) => {
     const { remarkId } = parse(remarkParams, req.params, 'params');
     const { text } = parse(replyBody, req.body);
-    const remark = await remarksService.reply(deps, currentUser(req), remarkId, text);
+    const user = currentUser(req);
+    const scope = await remarkRevisionAccess(ctx, user, remarkId, 'remark.reply');
+    const remark = await remarksService.reply(ctx, user, scope, remarkId, text);
     res.status(201).json({ remark });
   });
 
   router.patch('/remarks/:remarkId', requireSignedIn, async (req, res) => {
     const { remarkId } = parse(remarkParams, req.params, 'params');
     const { state } = parse(remarkStateBody, req.body);
-    res.json({ remark: await remarksService.setState(deps, currentUser(req), remarkId, state) });
+    const user = currentUser(req);
+    const scope = await remarkRevisionAccess(ctx, user, remarkId, 'remark.set_state');
+    res.json({ remark: await remarksService.setState(ctx, user, scope, remarkId, state) });
   });
 
   return router;

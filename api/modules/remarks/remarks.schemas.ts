@@ -1,4 +1,8 @@
 import { z } from 'zod';
+import { idOf, revisionParams } from '../revisions/revisions.schemas';
+
+export { revisionParams };
+export const remarkParams = z.object({ remarkId: idOf('remark') });
 
 const unknownKeys = (issue: { code: string; keys?: string[] }) =>
   issue.code === 'unrecognized_keys'

@@ -1,10 +1,14 @@
 import { blockLines } from '../../../core/index';
+import type { DbOrTx } from '../../db/index';
+import type { AppContext } from '../../http/context';
 import { AppError, NotFoundError, ValidationError } from '../../http/errors';
+import { sendAfterCommit } from '../../mail/mailer';
+import { activityService } from '../activity/activity.service';
 import type { User } from '../users/users.repository';
+import { usersService } from '../users/users.service';
 import { blockLabel, remarkMail } from '../revisions/review-mail';
-import { recordReviewActivity, sendAfterCommit, type ReviewDeps } from '../revisions/review-deps';
-import { reviewRepository } from '../revisions/review.repository';
-import { revisionAccess, wrongState } from '../revisions/revisions.service';
+import { wrongState, type RevisionInScope } from '../revisions/revision-state';
+import { carryRemarks } from './remarks.carry-over';
 import {
   remarksRepository,
   type Remark,
@@ -12,41 +16,46 @@ import {
   type RemarkType,
 } from './remarks.repository';
 
-async function remarkAccess(
-  deps: ReviewDeps,
-  user: User,
-  remarkId: number,
-  need?: ('author' | 'checker')[],
-  action?: string,
-) {
-  const revisionId = await remarksRepository.findRevisionIdOf(deps.db, remarkId);
-  if (revisionId === undefined) throw new NotFoundError(`There is no remark with id ${remarkId}.`);
-  const access = await revisionAccess(deps, user, revisionId, need, action);
-  const remark = await remarksRepository.findById(deps.db, remarkId);
+async function mustFindRemark(db: DbOrTx, remarkId: number): Promise<Remark> {
+  const remark = await remarksRepository.findById(db, remarkId);
   if (!remark) throw new NotFoundError(`There is no remark with id ${remarkId}.`);
-  return { ...access, remark };
+  return remark;
 }
 
+/**
+ * Remarks on a revision. Each method is handed the revision in scope: the route has asked the
+ * revisions service (and through it the access policy) for it with the method's action.
+ */
 export const remarksService = {
-  async list(deps: ReviewDeps, user: User, revisionId: number): Promise<Remark[]> {
-    await revisionAccess(deps, user, revisionId);
-    return remarksRepository.listByRevision(deps.db, revisionId);
+  list(ctx: AppContext, scope: RevisionInScope): Promise<Remark[]> {
+    return remarksRepository.listByRevision(ctx.db, scope.rev.id);
   },
+
+  /** Remarks of a revision not yet closed (sign off needs none). */
+  countNotClosed(db: DbOrTx, revisionId: number): Promise<number> {
+    return remarksRepository.countNotClosed(db, revisionId);
+  },
+
+  /** The remarks of several revisions (compare, print). */
+  listByRevision(db: DbOrTx, revisionId: number): Promise<Remark[]> {
+    return remarksRepository.listByRevision(db, revisionId);
+  },
+
+  /** The remark's revision (the access policy's way up). */
+  revisionIdOf(db: DbOrTx, remarkId: number): Promise<number | undefined> {
+    return remarksRepository.findRevisionIdOf(db, remarkId);
+  },
+
+  /** Issue: the open and answered remarks of the previous revision move to the new one. */
+  carryOver: carryRemarks,
 
   /** A checker's remark on one line of one block of a revision in check. */
   async create(
-    deps: ReviewDeps,
+    ctx: AppContext,
     user: User,
-    revisionId: number,
+    { rev, sheet }: RevisionInScope,
     input: { blockId: string; line: number; type: RemarkType; text: string },
   ): Promise<Remark> {
-    const { rev, sheet } = await revisionAccess(
-      deps,
-      user,
-      revisionId,
-      ['checker'],
-      'leave remarks',
-    );
     if (rev.status !== 'in_check') {
       throw wrongState(rev, 'remarks are left on a revision in check', 'REVISION_NOT_IN_CHECK');
     }
@@ -64,7 +73,7 @@ export const remarksService = {
         { field: 'line' },
       );
     }
-    const id = await deps.db.transaction(async (trx) => {
+    const id = await ctx.db.transaction(async (trx) => {
       const remarkId = await remarksRepository.insert(trx, {
         revisionId: rev.id,
         blockId: input.blockId,
@@ -76,7 +85,7 @@ export const remarksService = {
         carriedFrom: null,
         lineChanged: false,
       });
-      await recordReviewActivity(trx, {
+      await activityService.record(trx, {
         actorId: user.id,
         projectId: sheet.projectId,
         action: 'remark.added',
@@ -93,9 +102,10 @@ export const remarksService = {
       });
       return remarkId;
     });
-    const author = await reviewRepository.userEmail(deps.db, rev.issuedBy.id);
+    const author = await usersService.findById(ctx.db, rev.issuedBy.id);
     await sendAfterCommit(
-      deps,
+      ctx.mailer,
+      ctx.log,
       remarkMail(sheet, author ? [author.email] : [], {
         revisionNumber: rev.number,
         by: user.name,
@@ -105,7 +115,7 @@ export const remarksService = {
         text: input.text,
       }),
     );
-    const made = await remarksRepository.findById(deps.db, id);
+    const made = await remarksRepository.findById(ctx.db, id);
     if (!made) throw new Error('the new remark was not found after commit');
     return made;
   },
@@ -115,14 +125,14 @@ export const remarksService = {
    * closes it. Replies are taken while the revision is in check or returned (the author answers
    * a returned revision's remarks before issuing the next one).
    */
-  async reply(deps: ReviewDeps, user: User, remarkId: number, text: string): Promise<Remark> {
-    const { rev, sheet, remark, myRoles } = await remarkAccess(
-      deps,
-      user,
-      remarkId,
-      ['author', 'checker'],
-      'reply to remarks',
-    );
+  async reply(
+    ctx: AppContext,
+    user: User,
+    { rev, sheet, myRoles }: RevisionInScope,
+    remarkId: number,
+    text: string,
+  ): Promise<Remark> {
+    const remark = await mustFindRemark(ctx.db, remarkId);
     if (rev.status !== 'in_check' && rev.status !== 'returned') {
       throw wrongState(
         rev,
@@ -132,10 +142,10 @@ export const remarksService = {
     }
     const answers =
       myRoles.includes('author') && remark.author.id !== user.id && remark.state === 'open';
-    await deps.db.transaction(async (trx) => {
+    await ctx.db.transaction(async (trx) => {
       const replyId = await remarksRepository.insertReply(trx, remark.id, user.id, text);
       if (answers) await remarksRepository.setState(trx, remark.id, 'answered', user.id);
-      await recordReviewActivity(trx, {
+      await activityService.record(trx, {
         actorId: user.id,
         projectId: sheet.projectId,
         action: 'remark.replied',
@@ -145,8 +155,8 @@ export const remarksService = {
       });
     });
     if (remark.author.id !== user.id) {
-      const to = await reviewRepository.userEmail(deps.db, remark.author.id);
-      await sendAfterCommit(deps, {
+      const to = await usersService.findById(ctx.db, remark.author.id);
+      await sendAfterCommit(ctx.mailer, ctx.log, {
         to: to ? [to.email] : [],
         kind: 'remark.replied',
         relatedSheetId: sheet.id,
@@ -154,25 +164,20 @@ export const remarksService = {
         text: `${user.name} replied to your remark on ${blockLabel(rev.blocks, remark.blockId)}, line ${remark.line}:\n\n"${text}"`,
       });
     }
-    const updated = await remarksRepository.findById(deps.db, remark.id);
+    const updated = await remarksRepository.findById(ctx.db, remark.id);
     if (!updated) throw new Error('the remark was not found after the reply');
     return updated;
   },
 
   /** Close or reopen (checker) while the revision is in check. */
   async setState(
-    deps: ReviewDeps,
+    ctx: AppContext,
     user: User,
+    { rev, sheet }: RevisionInScope,
     remarkId: number,
     state: Extract<RemarkState, 'closed' | 'open'>,
   ): Promise<Remark> {
-    const { rev, sheet, remark } = await remarkAccess(
-      deps,
-      user,
-      remarkId,
-      ['checker'],
-      'close or reopen remarks',
-    );
+    const remark = await mustFindRemark(ctx.db, remarkId);
     if (rev.issuedBy.id === user.id) {
       throw new AppError(
         403,
@@ -188,9 +193,9 @@ export const remarksService = {
       );
     }
     if (remark.state === state) return remark;
-    await deps.db.transaction(async (trx) => {
+    await ctx.db.transaction(async (trx) => {
       await remarksRepository.setState(trx, remark.id, state, user.id);
-      await recordReviewActivity(trx, {
+      await activityService.record(trx, {
         actorId: user.id,
         projectId: sheet.projectId,
         action: state === 'closed' ? 'remark.closed' : 'remark.reopened',
@@ -199,7 +204,7 @@ export const remarksService = {
         details: { sheetId: sheet.id, revisionNumber: rev.number, from: remark.state },
       });
     });
-    const updated = await remarksRepository.findById(deps.db, remark.id);
+    const updated = await remarksRepository.findById(ctx.db, remark.id);
     if (!updated) throw new Error('the remark was not found after the change');
     return updated;
   },

@@ -5,19 +5,15 @@ import {
   type SheetBlock,
   type SheetResults,
 } from '../../../core/index';
-import { AppError, NotFoundError } from '../../http/errors';
+import type { AppContext } from '../../http/context';
+import { AppError } from '../../http/errors';
 import type { User } from '../users/users.repository';
-import { checkSheetAccess } from '../sheets/sheets.access';
-import { remarksRepository, type Remark } from '../remarks/remarks.repository';
-import { sealsRepository } from '../seals/seals.repository';
-import { reviewRepository } from './review.repository';
-import type { ReviewDeps } from './review-deps';
-import {
-  revisionsRepository,
-  type RevisionRecord,
-  type RevisionSummary,
-} from './revisions.repository';
-import { revisionAccess, sealView, sheetOf, type SealView } from './revisions.service';
+import type { Remark } from '../remarks/remarks.repository';
+import { remarksService } from '../remarks/remarks.service';
+import { sealsService } from '../seals/seals.service';
+import { sheetsService } from '../sheets/sheets.service';
+import type { RevisionRecord, RevisionSummary } from './revisions.repository';
+import { revisionAccess, revisionsService, sheetOf } from './revisions.service';
 
 /** DESIGN §12, on every print. */
 export const CAUTION =
@@ -40,12 +36,12 @@ export interface RemarkInContext extends Remark {
 }
 
 async function revisionOfSheet(
-  deps: ReviewDeps,
+  ctx: AppContext,
   sheetId: number,
   revisionId: number,
   field: string,
 ): Promise<RevisionRecord> {
-  const rev = await revisionsRepository.findById(deps.db, revisionId);
+  const rev = await revisionsService.find(ctx.db, revisionId);
   if (!rev || rev.sheetId !== sheetId) {
     throw new AppError(
       422,
@@ -64,14 +60,14 @@ export const comparePrintService = {
    * sides with where their lines are on the other side.
    */
   async compare(
-    deps: ReviewDeps,
+    ctx: AppContext,
     user: User,
     sheetId: number,
     fromId: number,
     to: number | 'draft',
   ) {
-    await checkSheetAccess(deps.db, user, sheetId);
-    const from = await revisionOfSheet(deps, sheetId, fromId, 'from');
+    await ctx.access.sheet(user, sheetId, 'sheet.read');
+    const from = await revisionOfSheet(ctx, sheetId, fromId, 'from');
     const fromSheet = sheetOf(from);
     const fromResults = JSON.parse(from.resultsText) as SheetResults;
     let toSheet: Sheet;
@@ -79,17 +75,15 @@ export const comparePrintService = {
     let toSide: Side;
     let toRev: RevisionRecord | null = null;
     if (to === 'draft') {
-      const snapshot = await reviewRepository.draftOf(deps.db, sheetId);
-      if (!snapshot) throw new NotFoundError(`There is no sheet with id ${sheetId}.`);
+      const snapshot = await sheetsService.draftOf(ctx.db, sheetId);
       toSheet = {
         blocks: snapshot.draft.blocks as SheetBlock[],
         settings: snapshot.draft.settings ?? {},
       };
-      toResults = (await deps.evaluate(toSheet, await reviewRepository.uploadsOf(deps.db, sheetId)))
-        .results;
+      toResults = (await sheetsService.evaluate(ctx, sheetId, toSheet)).results;
       toSide = { kind: 'draft', draftVersion: snapshot.version };
     } else {
-      toRev = await revisionOfSheet(deps, sheetId, to, 'to');
+      toRev = await revisionOfSheet(ctx, sheetId, to, 'to');
       toSheet = sheetOf(toRev);
       toResults = JSON.parse(toRev.resultsText) as SheetResults;
       toSide = {
@@ -102,7 +96,7 @@ export const comparePrintService = {
     }
     const diff = diffSheets(fromSheet, toSheet, fromResults, toResults);
     const remarks: RemarkInContext[] = [];
-    for (const r of await remarksRepository.listByRevision(deps.db, from.id)) {
+    for (const r of await remarksService.listByRevision(ctx.db, from.id)) {
       const m = mapLine(fromSheet, toSheet, { blockId: r.blockId, line: r.line });
       remarks.push({
         ...r,
@@ -111,7 +105,7 @@ export const comparePrintService = {
       });
     }
     if (toRev) {
-      for (const r of await remarksRepository.listByRevision(deps.db, toRev.id)) {
+      for (const r of await remarksService.listByRevision(ctx.db, toRev.id)) {
         remarks.push({
           ...r,
           revisionNumber: toRev.number,
@@ -137,11 +131,10 @@ export const comparePrintService = {
   },
 
   /** Everything the print view needs, in one call. */
-  async print(deps: ReviewDeps, user: User, revisionId: number) {
-    const { rev, sheet } = await revisionAccess(deps, user, revisionId);
-    const history: RevisionSummary[] = await revisionsRepository.listBySheet(deps.db, sheet.id);
-    const seal = await sealsRepository.findByRevision(deps.db, rev.id);
-    const sealed: SealView | null = seal ? sealView(seal) : null;
+  async print(ctx: AppContext, user: User, revisionId: number) {
+    const { rev, sheet } = await revisionAccess(ctx, user, revisionId, 'sheet.read');
+    const history: RevisionSummary[] = await revisionsService.listBySheet(ctx.db, sheet.id);
+    const sealed = await sealsService.viewOf(ctx.db, rev.id);
     return {
       firm: { name: firmName() },
       project: {

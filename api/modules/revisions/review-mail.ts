@@ -1,5 +1,5 @@
 import type { MailMessage } from '../../mail/mailer';
-import type { SheetContext } from './review.repository';
+import type { SheetContext } from '../sheets/sheets.repository';
 
 /** Generated block ids (b + 12 hex digits) mean nothing to a reader; named ones do. */
 const GENERATED_ID = /^b[0-9a-f]{12}$/;

@@ -1,63 +1,63 @@
 import { Router } from 'express';
 import { currentUser, requireSignedIn } from '../../http/auth';
+import type { AppContext } from '../../http/context';
 import { parse } from '../../http/validate';
-import { checkSheetAccess } from '../sheets/sheets.access';
-import { reviewRepository } from './review.repository';
-import type { ReviewDeps } from './review-deps';
+import { sealsService } from '../seals/seals.service';
 import { comparePrintService } from './compare-print.service';
 import { compareQuery, issueBody, revisionParams, sheetParams } from './revisions.schemas';
 import { revisionsService } from './revisions.service';
 
-/** Revisions of a sheet: issue, list, read, return, sign off, and the sheet's history. */
-export function createRevisionsRouter(deps: ReviewDeps): Router {
+/**
+ * Revisions of a sheet: issue, list, read, return, sign off, compare, print, and the sheet's
+ * history. Mounted at /api.
+ */
+export function createRevisionsRouter(ctx: AppContext): Router {
   const router = Router();
 
   router.get('/sheets/:sheetId/revisions', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
-    res.json({ revisions: await revisionsService.list(deps, currentUser(req), sheetId) });
+    res.json({ revisions: await revisionsService.list(ctx, currentUser(req), sheetId) });
   });
 
   router.post('/sheets/:sheetId/revisions', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const { purpose } = parse(issueBody, req.body);
-    const revision = await revisionsService.issue(deps, currentUser(req), sheetId, purpose);
+    const revision = await revisionsService.issue(ctx, currentUser(req), sheetId, purpose);
     res.status(201).json({ revision });
   });
 
   router.get('/sheets/:sheetId/activity', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
-    const access = await checkSheetAccess(deps.db, currentUser(req), sheetId);
-    res.json({
-      activity: await reviewRepository.sheetActivity(deps.db, access.projectId, sheetId),
-    });
+    res.json({ activity: await revisionsService.history(ctx, currentUser(req), sheetId) });
   });
 
   router.get('/revisions/:revisionId', requireSignedIn, async (req, res) => {
     const { revisionId } = parse(revisionParams, req.params, 'params');
-    res.json({ revision: await revisionsService.get(deps, currentUser(req), revisionId) });
+    const revision = await revisionsService.get(ctx, currentUser(req), revisionId);
+    res.json({ revision: { ...revision, seal: await sealsService.viewOf(ctx.db, revisionId) } });
   });
 
   router.post('/revisions/:revisionId/return', requireSignedIn, async (req, res) => {
     const { revisionId } = parse(revisionParams, req.params, 'params');
     res.json({
-      revision: await revisionsService.returnRevision(deps, currentUser(req), revisionId),
+      revision: await revisionsService.returnRevision(ctx, currentUser(req), revisionId),
     });
   });
 
   router.post('/revisions/:revisionId/sign-off', requireSignedIn, async (req, res) => {
     const { revisionId } = parse(revisionParams, req.params, 'params');
-    res.json({ revision: await revisionsService.signOff(deps, currentUser(req), revisionId) });
+    res.json({ revision: await revisionsService.signOff(ctx, currentUser(req), revisionId) });
   });
 
   router.get('/sheets/:sheetId/compare', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const q = parse(compareQuery, req.query, 'query');
-    res.json(await comparePrintService.compare(deps, currentUser(req), sheetId, q.from, q.to));
+    res.json(await comparePrintService.compare(ctx, currentUser(req), sheetId, q.from, q.to));
   });
 
   router.get('/revisions/:revisionId/print', requireSignedIn, async (req, res) => {
     const { revisionId } = parse(revisionParams, req.params, 'params');
-    res.json(await comparePrintService.print(deps, currentUser(req), revisionId));
+    res.json(await comparePrintService.print(ctx, currentUser(req), revisionId));
   });
 
   return router;

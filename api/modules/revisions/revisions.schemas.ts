@@ -1,14 +1,14 @@
 import { z } from 'zod';
 
-const id = (what: string) =>
+/** An id in the address whose refusal names what it is: "The revision id must be …". */
+export const idOf = (what: string) =>
   z.coerce
     .number({ error: `The ${what} id must be a whole number.` })
     .int({ error: `The ${what} id must be a whole number.` })
     .positive({ error: `The ${what} id must be a whole number.` });
 
-export const sheetParams = z.object({ sheetId: id('sheet') });
-export const revisionParams = z.object({ revisionId: id('revision') });
-export const remarkParams = z.object({ remarkId: id('remark') });
+export const sheetParams = z.object({ sheetId: idOf('sheet') });
+export const revisionParams = z.object({ revisionId: idOf('revision') });
 
 const unknownKeys = (issue: { code: string; keys?: string[] }) =>
   issue.code === 'unrecognized_keys'
@@ -31,8 +31,8 @@ export const issueBody = z.strictObject(
 );
 
 export const compareQuery = z.object({
-  from: id('revision'),
-  to: z.union([z.literal('draft'), id('revision')], {
+  from: idOf('revision'),
+  to: z.union([z.literal('draft'), idOf('revision')], {
     error: 'to must be a revision id or "draft".',
   }),
 });

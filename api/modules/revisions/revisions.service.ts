@@ -1,14 +1,20 @@
+import type { Knex } from 'knex';
 import type { Sheet, SheetBlock } from '../../../core/index';
+import type { ProjectRole } from '../../../core/vocabulary';
+import { dbNow, type DbOrTx } from '../../db/index';
+import type { AccessAction } from '../../http/access';
+import type { AppContext } from '../../http/context';
 import { AppError, NotFoundError } from '../../http/errors';
-import { dbNow } from '../../db/index';
+import { sendAfterCommit } from '../../mail/mailer';
+import { activityService } from '../activity/activity.service';
+import { membersService } from '../members/members.service';
+import { remarksService } from '../remarks/remarks.service';
+import type { SheetContext } from '../sheets/sheets.repository';
+import { sheetsService } from '../sheets/sheets.service';
 import type { User } from '../users/users.repository';
-import { checkSheetAccess } from '../sheets/sheets.access';
-import { remarksRepository } from '../remarks/remarks.repository';
-import { sealsRepository, type SealRecord } from '../seals/seals.repository';
-import { carryRemarks } from './carry-over';
+import { usersService } from '../users/users.service';
 import { issuedMail, returnedMail, signedOffMail } from './review-mail';
-import { reviewRepository, type SheetContext } from './review.repository';
-import { recordReviewActivity, sendAfterCommit, type ReviewDeps } from './review-deps';
+import { checkerIsAuthor, wrongState, type RevisionInScope } from './revision-state';
 import {
   revisionsRepository,
   type RevisionBlock,
@@ -16,18 +22,7 @@ import {
   type RevisionSummary,
 } from './revisions.repository';
 
-/** The seal as a revision shows it. */
-export interface SealView {
-  code: string;
-  digest: string;
-  signature: string;
-  publicKey: string;
-  principal: { id: number; name: string; licenceNumber: string; jurisdiction: string };
-  sealedAt: string;
-  engineVersion: string;
-}
-
-/** A revision as the API sends it (GET /api/revisions/:id). */
+/** A revision as GET /api/revisions/:id sends it (the route adds its seal). */
 export interface RevisionDetail extends RevisionSummary {
   blocks: RevisionBlock[];
   settings: Record<string, unknown>;
@@ -35,113 +30,65 @@ export interface RevisionDetail extends RevisionSummary {
   results: unknown;
   digests: { canonicalText: string; results: string };
   engineVersion: string;
-  seal: SealView | null;
   sheet: { id: number; number: string; title: string; projectId: number };
   myRoles: string[];
-}
-
-export function sealView(seal: SealRecord): SealView {
-  return {
-    code: seal.code,
-    digest: seal.digest,
-    signature: seal.signature,
-    publicKey: seal.publicKey,
-    principal: {
-      id: seal.principalId,
-      name: seal.principalName,
-      licenceNumber: seal.licenceNumber,
-      jurisdiction: seal.jurisdiction,
-    },
-    sealedAt: seal.sealedAt,
-    engineVersion: seal.engineVersion,
-  };
 }
 
 export function sheetOf(rev: Pick<RevisionRecord, 'blocks' | 'settings'>): Sheet {
   return { blocks: rev.blocks as SheetBlock[], settings: rev.settings };
 }
 
-export async function mustFindSheet(deps: ReviewDeps, sheetId: number): Promise<SheetContext> {
-  const sheet = await reviewRepository.sheetContext(deps.db, sheetId);
-  if (!sheet) throw new NotFoundError(`There is no sheet with id ${sheetId}.`);
-  return sheet;
-}
-
-export async function mustFindRevision(
-  deps: ReviewDeps,
-  revisionId: number,
-): Promise<RevisionRecord> {
-  const rev = await revisionsRepository.findById(deps.db, revisionId);
+async function mustFindRevision(db: DbOrTx, revisionId: number): Promise<RevisionRecord> {
+  const rev = await revisionsRepository.findById(db, revisionId);
   if (!rev) throw new NotFoundError(`There is no revision with id ${revisionId}.`);
   return rev;
 }
 
-/** The revision, its sheet and the caller's roles; 404 / 403 as for the sheet. */
+async function inScope(
+  ctx: AppContext,
+  scope: { revisionId: number; sheetId: number; myRoles: ProjectRole[] },
+): Promise<RevisionInScope> {
+  const [rev, sheet] = await Promise.all([
+    mustFindRevision(ctx.db, scope.revisionId),
+    sheetsService.context(ctx.db, scope.sheetId),
+  ]);
+  return { rev, sheet, myRoles: scope.myRoles };
+}
+
+/** The revision, its sheet and the caller's roles for `action`; 404 / 403 by the access policy. */
 export async function revisionAccess(
-  deps: ReviewDeps,
+  ctx: AppContext,
   user: User,
   revisionId: number,
-  need?: ('author' | 'checker' | 'principal' | 'viewer')[],
-  action?: string,
-): Promise<{ rev: RevisionRecord; sheet: SheetContext; myRoles: string[] }> {
-  const sheetId = await revisionsRepository.findSheetIdOf(deps.db, revisionId);
-  if (sheetId === undefined) throw new NotFoundError(`There is no revision with id ${revisionId}.`);
-  const access = await checkSheetAccess(deps.db, user, sheetId, need, action);
-  const [rev, sheet] = await Promise.all([
-    mustFindRevision(deps, revisionId),
-    mustFindSheet(deps, sheetId),
-  ]);
-  return { rev, sheet, myRoles: access.myRoles };
+  action: AccessAction,
+): Promise<RevisionInScope> {
+  return inScope(ctx, await ctx.access.revision(user, revisionId, action));
 }
 
-const statusWords: Record<string, string> = {
-  in_check: 'in check',
-  returned: 'returned to the author',
-  checked: 'signed off and awaiting its seal',
-  sealed: 'sealed',
-  superseded: 'superseded by a later sealed revision',
-};
-
-export function wrongState(
-  rev: { number: number; status: string },
-  needed: string,
-  code: string,
-): AppError {
-  return new AppError(
-    409,
-    code,
-    `Rev ${rev.number} is ${statusWords[rev.status] ?? rev.status}; ${needed}.`,
-    { details: { status: rev.status } },
-  );
-}
-
-function checkerIsAuthor(rev: RevisionRecord, doing: string): AppError {
-  return new AppError(
-    403,
-    'CHECKER_IS_AUTHOR',
-    `You issued Rev ${rev.number}, so you cannot ${doing} it: a revision is checked by someone who did not write it.`,
-  );
+/** As revisionAccess, for the revision a remark was made on. */
+export async function remarkRevisionAccess(
+  ctx: AppContext,
+  user: User,
+  remarkId: number,
+  action: AccessAction,
+): Promise<RevisionInScope> {
+  return inScope(ctx, await ctx.access.remark(user, remarkId, action));
 }
 
 /** The revision and its sheet for a checker's action; 403 when the checker issued it. */
 async function checkerAccess(
-  deps: ReviewDeps,
+  ctx: AppContext,
   user: User,
   revisionId: number,
+  action: 'revision.return' | 'revision.sign_off',
   doing: string,
-): Promise<{ rev: RevisionRecord; sheet: SheetContext }> {
-  const { rev, sheet } = await revisionAccess(
-    deps,
-    user,
-    revisionId,
-    ['checker'],
-    `${doing} a revision`,
-  );
-  if (rev.issuedBy.id === user.id) throw checkerIsAuthor(rev, doing);
-  return { rev, sheet };
+): Promise<RevisionInScope> {
+  const scope = await revisionAccess(ctx, user, revisionId, action);
+  if (scope.rev.issuedBy.id === user.id) throw checkerIsAuthor(scope.rev, doing);
+  return scope;
 }
 
-type Trx = Parameters<typeof revisionsRepository.lockStatus>[0];
+type Trx = Knex.Transaction;
 
 /** Locks the revision's row and refuses (409 `code`) unless its status is `wanted`. */
 export async function lockStatusIs(
@@ -166,8 +113,8 @@ async function recordCheck(
   sheetStatus: 'returned' | 'checked',
   action: 'revision.returned' | 'revision.signed_off',
 ): Promise<void> {
-  await reviewRepository.setSheetStatus(trx, sheet.id, sheetStatus);
-  await recordReviewActivity(trx, {
+  await sheetsService.setStatus(trx, sheet.id, sheetStatus);
+  await activityService.record(trx, {
     actorId: user.id,
     projectId: sheet.projectId,
     action,
@@ -177,35 +124,42 @@ async function recordCheck(
   });
 }
 
+/** The e-mail addresses of the project's members holding any of `roles`, except one person. */
 async function emails(
-  deps: ReviewDeps,
+  ctx: AppContext,
   projectId: number,
-  roles: string[],
+  roles: ProjectRole[] | null,
   except?: number,
 ): Promise<string[]> {
-  const people = await reviewRepository.members(deps.db, projectId, roles);
-  return people.filter((p) => p.id !== except).map((p) => p.email);
+  const members = await membersService.list(ctx.db, projectId);
+  return members
+    .filter((m) => m.userId !== except && (!roles || m.roles.some((r) => roles.includes(r))))
+    .map((m) => m.email);
 }
 
-async function emailOf(deps: ReviewDeps, userId: number): Promise<string[]> {
-  const person = await reviewRepository.userEmail(deps.db, userId);
+async function emailOf(ctx: AppContext, userId: number): Promise<string[]> {
+  const person = await usersService.findById(ctx.db, userId);
   return person ? [person.email] : [];
 }
 
 export const revisionsService = {
-  async list(deps: ReviewDeps, user: User, sheetId: number): Promise<RevisionSummary[]> {
-    await checkSheetAccess(deps.db, user, sheetId);
-    return revisionsRepository.listBySheet(deps.db, sheetId);
+  async list(ctx: AppContext, user: User, sheetId: number): Promise<RevisionSummary[]> {
+    await ctx.access.sheet(user, sheetId, 'sheet.read');
+    return revisionsRepository.listBySheet(ctx.db, sheetId);
   },
 
-  async get(deps: ReviewDeps, user: User, revisionId: number): Promise<RevisionDetail> {
-    const { rev, sheet, myRoles } = await revisionAccess(deps, user, revisionId);
-    const seal = await sealsRepository.findByRevision(deps.db, rev.id);
+  /** The sheet's history: its activity rows, newest first, for any member. */
+  async history(ctx: AppContext, user: User, sheetId: number) {
+    const scope = await ctx.access.sheet(user, sheetId, 'sheet.read');
+    return activityService.listForSheet(ctx.db, scope.projectId, sheetId);
+  },
+
+  async get(ctx: AppContext, user: User, revisionId: number): Promise<RevisionDetail> {
+    const { rev, sheet, myRoles } = await revisionAccess(ctx, user, revisionId, 'sheet.read');
     const { resultsText, ...rest } = rev;
     return {
       ...rest,
       results: JSON.parse(resultsText) as unknown,
-      seal: seal ? sealView(seal) : null,
       sheet: { id: sheet.id, number: sheet.number, title: sheet.title, projectId: sheet.projectId },
       myRoles,
     };
@@ -217,23 +171,17 @@ export const revisionsService = {
    * open and answered remarks of Rev n over, and move the sheet to in check.
    */
   async issue(
-    deps: ReviewDeps,
+    ctx: AppContext,
     user: User,
     sheetId: number,
     purpose: string,
   ): Promise<RevisionSummary> {
-    const access = await checkSheetAccess(
-      deps.db,
-      user,
-      sheetId,
-      ['author'],
-      'issue a sheet for check',
-    );
-    const snapshot = await reviewRepository.draftOf(deps.db, sheetId);
-    if (!snapshot) throw new NotFoundError(`There is no sheet with id ${sheetId}.`);
+    const { db } = ctx;
+    const access = await ctx.access.sheet(user, sheetId, 'revision.issue');
+    const { draft } = await sheetsService.draftOf(db, sheetId);
     const sheet: Sheet = {
-      blocks: snapshot.draft.blocks as SheetBlock[],
-      settings: snapshot.draft.settings ?? {},
+      blocks: draft.blocks as SheetBlock[],
+      settings: draft.settings ?? {},
     };
     if (sheet.blocks.length === 0) {
       throw new AppError(
@@ -242,11 +190,10 @@ export const revisionsService = {
         'The draft has no blocks: there is nothing to issue for check.',
       );
     }
-    const latestBefore = await revisionsRepository.findLatest(deps.db, sheetId);
+    const latestBefore = await revisionsRepository.findLatest(db, sheetId);
     refuseWhileInReview(latestBefore);
 
-    const uploads = await reviewRepository.uploadsOf(deps.db, sheetId);
-    const evaluation = await deps.evaluate(sheet, uploads);
+    const evaluation = await sheetsService.evaluate(ctx, sheetId, sheet);
     const firstError = evaluation.results.errors[0];
     if (firstError) {
       throw new AppError(
@@ -258,9 +205,9 @@ export const revisionsService = {
       );
     }
 
-    const issuedAt = await dbNow(deps.db);
-    const outcome = await deps.db.transaction(async (trx) => {
-      await reviewRepository.lockSheet(trx, sheetId);
+    const issuedAt = await dbNow(db);
+    const outcome = await db.transaction(async (trx) => {
+      await sheetsService.lock(trx, sheetId);
       const latest = await revisionsRepository.findLatest(trx, sheetId);
       refuseWhileInReview(latest);
       const number = (latest?.number ?? 0) + 1;
@@ -279,15 +226,15 @@ export const revisionsService = {
         issuedAt,
       });
       const carried = latest
-        ? await carryRemarks(trx, {
+        ? await remarksService.carryOver(trx, {
             from: latest,
             toRevisionId: revisionId,
             toSheet: sheet,
             at: issuedAt,
           })
         : { carried: 0, lineChanged: 0 };
-      await reviewRepository.setSheetStatus(trx, sheetId, 'in_check');
-      await recordReviewActivity(trx, {
+      await sheetsService.setStatus(trx, sheetId, 'in_check');
+      await activityService.record(trx, {
         actorId: user.id,
         projectId: access.projectId,
         action: 'revision.issued',
@@ -306,10 +253,11 @@ export const revisionsService = {
       return { revisionId, number, carried };
     });
 
-    const ctx = await mustFindSheet(deps, sheetId);
+    const about = await sheetsService.context(db, sheetId);
     await sendAfterCommit(
-      deps,
-      issuedMail(ctx, await emails(deps, ctx.projectId, ['checker'], user.id), {
+      ctx.mailer,
+      ctx.log,
+      issuedMail(about, await emails(ctx, about.projectId, ['checker'], user.id), {
         number: outcome.number,
         purpose,
         issuedBy: user.name,
@@ -317,17 +265,17 @@ export const revisionsService = {
         lineChanged: outcome.carried.lineChanged,
       }),
     );
-    const list = await revisionsRepository.listBySheet(deps.db, sheetId);
+    const list = await revisionsRepository.listBySheet(db, sheetId);
     const made = list.find((r) => r.id === outcome.revisionId);
     if (!made) throw new Error('the issued revision was not found after commit');
     return made;
   },
 
   /** Return (checker, not the author): the revision goes back; the author edits the draft. */
-  async returnRevision(deps: ReviewDeps, user: User, revisionId: number): Promise<RevisionSummary> {
-    const { rev, sheet } = await checkerAccess(deps, user, revisionId, 'return');
-    const at = await dbNow(deps.db);
-    await deps.db.transaction(async (trx) => {
+  async returnRevision(ctx: AppContext, user: User, revisionId: number): Promise<RevisionSummary> {
+    const { rev, sheet } = await checkerAccess(ctx, user, revisionId, 'revision.return', 'return');
+    const at = await dbNow(ctx.db);
+    await ctx.db.transaction(async (trx) => {
       await lockStatusIs(
         trx,
         rev,
@@ -338,23 +286,30 @@ export const revisionsService = {
       await revisionsRepository.markReturned(trx, rev.id, user.id, at);
       await recordCheck(trx, user, sheet, rev, 'returned', 'revision.returned');
     });
-    const open = await remarksRepository.countNotClosed(deps.db, rev.id);
+    const open = await remarksService.countNotClosed(ctx.db, rev.id);
     await sendAfterCommit(
-      deps,
-      returnedMail(sheet, await emailOf(deps, rev.issuedBy.id), {
+      ctx.mailer,
+      ctx.log,
+      returnedMail(sheet, await emailOf(ctx, rev.issuedBy.id), {
         number: rev.number,
         by: user.name,
         openRemarks: open,
       }),
     );
-    return summaryOf(deps, rev.id);
+    return summaryOf(ctx.db, rev.id);
   },
 
   /** Sign off (checker, not the author): every remark of the revision must be closed. */
-  async signOff(deps: ReviewDeps, user: User, revisionId: number): Promise<RevisionSummary> {
-    const { rev, sheet } = await checkerAccess(deps, user, revisionId, 'sign off');
-    const at = await dbNow(deps.db);
-    await deps.db.transaction(async (trx) => {
+  async signOff(ctx: AppContext, user: User, revisionId: number): Promise<RevisionSummary> {
+    const { rev, sheet } = await checkerAccess(
+      ctx,
+      user,
+      revisionId,
+      'revision.sign_off',
+      'sign off',
+    );
+    const at = await dbNow(ctx.db);
+    await ctx.db.transaction(async (trx) => {
       await lockStatusIs(
         trx,
         rev,
@@ -362,7 +317,7 @@ export const revisionsService = {
         'only a revision in check can be signed off',
         'REVISION_NOT_IN_CHECK',
       );
-      const notClosed = await remarksRepository.countNotClosed(trx, rev.id);
+      const notClosed = await remarksService.countNotClosed(trx, rev.id);
       if (notClosed > 0) {
         throw new AppError(
           409,
@@ -375,13 +330,45 @@ export const revisionsService = {
       await recordCheck(trx, user, sheet, rev, 'checked', 'revision.signed_off');
     });
     await sendAfterCommit(
-      deps,
-      signedOffMail(sheet, await emails(deps, sheet.projectId, ['principal']), {
+      ctx.mailer,
+      ctx.log,
+      signedOffMail(sheet, await emails(ctx, sheet.projectId, ['principal']), {
         number: rev.number,
         by: user.name,
       }),
     );
-    return summaryOf(deps, rev.id);
+    return summaryOf(ctx.db, rev.id);
+  },
+
+  /** Every member's e-mail address, for the seal's mail. */
+  emailsOfMembers(ctx: AppContext, projectId: number): Promise<string[]> {
+    return emails(ctx, projectId, null);
+  },
+
+  /** The revision's summary as lists show it (404 when there is none). */
+  summary: summaryOf,
+
+  /** The revisions of a sheet, oldest first. */
+  listBySheet(db: DbOrTx, sheetId: number): Promise<RevisionSummary[]> {
+    return revisionsRepository.listBySheet(db, sheetId);
+  },
+
+  /** A revision by id, or undefined. */
+  find(db: DbOrTx, revisionId: number): Promise<RevisionRecord | undefined> {
+    return revisionsRepository.findById(db, revisionId);
+  },
+
+  /** The sheet a revision belongs to (the access policy's way up). */
+  sheetIdOf(db: DbOrTx, revisionId: number): Promise<number | undefined> {
+    return revisionsRepository.findSheetIdOf(db, revisionId);
+  },
+
+  /** Seal: supersede the sheet's earlier sealed revision, inside the seal's transaction. */
+  supersedeEarlier: revisionsRepository.supersedeEarlier,
+
+  /** Seal: the revision is sealed, inside the seal's transaction. */
+  markSealed(trx: Trx, revisionId: number, by: number, at: Date): Promise<void> {
+    return revisionsRepository.markSealed(trx, revisionId, by, at);
   },
 };
 
@@ -403,8 +390,8 @@ function refuseWhileInReview(latest: RevisionRecord | undefined): void {
   }
 }
 
-export async function summaryOf(deps: ReviewDeps, revisionId: number): Promise<RevisionSummary> {
-  const rev = await mustFindRevision(deps, revisionId);
+async function summaryOf(db: DbOrTx, revisionId: number): Promise<RevisionSummary> {
+  const rev = await mustFindRevision(db, revisionId);
   const {
     blocks: _b,
     settings: _s,

@@ -157,11 +157,4 @@ export const sealsRepository = {
       .onConflict('user_id')
       .merge(values);
   },
-
-  /** The stored password hash, read only to check the password typed again at sealing. */
-  async passwordHashOf(db: DbOrTx, userId: number): Promise<string | undefined> {
-    const row = (await db('users').where({ id: userId }).first('password_hash')) as
-      { password_hash: string } | undefined;
-    return row?.password_hash;
-  },
 };

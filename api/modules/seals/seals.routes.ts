@@ -1,17 +1,21 @@
 import { Router } from 'express';
 import { currentUser, requireSignedIn } from '../../http/auth';
+import type { AppContext } from '../../http/context';
 import { parse } from '../../http/validate';
-import type { ReviewDeps } from '../revisions/review-deps';
 import { revisionParams } from '../revisions/revisions.schemas';
+import { revisionAccess } from '../revisions/revisions.service';
 import { sealBody } from './seals.schemas';
 import { sealsService } from './seals.service';
 
-export function createSealsRouter(deps: ReviewDeps): Router {
+/** POST /revisions/:revisionId/seal (principal). Mounted at /api. */
+export function createSealsRouter(ctx: AppContext): Router {
   const router = Router();
   router.post('/revisions/:revisionId/seal', requireSignedIn, async (req, res) => {
     const { revisionId } = parse(revisionParams, req.params, 'params');
     const { password } = parse(sealBody, req.body);
-    res.json(await sealsService.seal(deps, currentUser(req), revisionId, password));
+    const user = currentUser(req);
+    const scope = await revisionAccess(ctx, user, revisionId, 'revision.seal');
+    res.json(await sealsService.seal(ctx, user, scope, password));
   });
   return router;
 }

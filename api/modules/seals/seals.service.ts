@@ -1,34 +1,55 @@
-import { dbNow } from '../../db/index';
+import { dbNow, isDuplicateKeyError, type DbOrTx } from '../../db/index';
+import type { AppContext } from '../../http/context';
 import { AppError, NotFoundError } from '../../http/errors';
+import { sendAfterCommit } from '../../mail/mailer';
+import { activityService } from '../activity/activity.service';
 import { verifyPassword } from '../auth/passwords';
 import type { User } from '../users/users.repository';
-import { compareResults, REPRODUCE_RELATIVE_TOLERANCE } from '../revisions/reproduce';
+import { usersService } from '../users/users.service';
 import { sealedMail } from '../revisions/review-mail';
-import { recordReviewActivity, sendAfterCommit, type ReviewDeps } from '../revisions/review-deps';
-import { reviewRepository } from '../revisions/review.repository';
-import {
-  lockStatusIs,
-  revisionAccess,
-  sealView,
-  sheetOf,
-  summaryOf,
-  wrongState,
-  type SealView,
-} from '../revisions/revisions.service';
-import { revisionsRepository, type RevisionSummary } from '../revisions/revisions.repository';
+import { wrongState, type RevisionInScope } from '../revisions/revision-state';
+import type { RevisionSummary } from '../revisions/revisions.repository';
+import { lockStatusIs, revisionsService, sheetOf } from '../revisions/revisions.service';
+import { sheetsService } from '../sheets/sheets.service';
 import { generateSealCode } from './seal-code';
 import { buildSealPayload } from './seal-payload';
-import { sealsRepository } from './seals.repository';
+import { compareResults, REPRODUCE_RELATIVE_TOLERANCE } from './seals.reproduce';
+import { sealsRepository, type SealRecord } from './seals.repository';
 import {
   createSigningKey,
   publicKeyMatches,
   signDigest,
   SigningKeyLockedError,
   unlockSigningKey,
+  type StoredSigningKey,
 } from './signing-keys';
 
-function isDuplicate(e: unknown): boolean {
-  return typeof e === 'object' && e !== null && (e as { errno?: unknown }).errno === 1062;
+/** The seal as a revision shows it. */
+export interface SealView {
+  code: string;
+  digest: string;
+  signature: string;
+  publicKey: string;
+  principal: { id: number; name: string; licenceNumber: string; jurisdiction: string };
+  sealedAt: string;
+  engineVersion: string;
+}
+
+export function sealView(seal: SealRecord): SealView {
+  return {
+    code: seal.code,
+    digest: seal.digest,
+    signature: seal.signature,
+    publicKey: seal.publicKey,
+    principal: {
+      id: seal.principalId,
+      name: seal.principalName,
+      licenceNumber: seal.licenceNumber,
+      jurisdiction: seal.jurisdiction,
+    },
+    sealedAt: seal.sealedAt,
+    engineVersion: seal.engineVersion,
+  };
 }
 
 export const sealsService = {
@@ -38,18 +59,12 @@ export const sealsService = {
    * that reproduces the stored results within relative 1e-9 on every number.
    */
   async seal(
-    deps: ReviewDeps,
+    ctx: AppContext,
     user: User,
-    revisionId: number,
+    { rev, sheet }: RevisionInScope,
     password: string,
   ): Promise<{ revision: RevisionSummary; seal: SealView }> {
-    const { rev, sheet } = await revisionAccess(
-      deps,
-      user,
-      revisionId,
-      ['principal'],
-      'seal a revision',
-    );
+    const { db } = ctx;
     if (rev.status !== 'checked') {
       throw wrongState(
         rev,
@@ -65,9 +80,9 @@ export const sealsService = {
         { field: !user.licenceNumber ? 'licenceNumber' : 'jurisdiction' },
       );
     }
-    const hash = await sealsRepository.passwordHashOf(deps.db, user.id);
+    const hash = await usersService.passwordHashOf(db, user.id);
     if (!hash || !(await verifyPassword(hash, password))) {
-      await recordReviewActivity(deps.db, {
+      await activityService.record(db, {
         actorId: user.id,
         projectId: sheet.projectId,
         action: 'seal.refused',
@@ -85,11 +100,11 @@ export const sealsService = {
       );
     }
 
-    let key = await sealsRepository.findSigningKey(deps.db, user.id);
+    let key = await sealsRepository.findSigningKey(db, user.id);
     if (!key) {
       key = await createSigningKey(user.id, password);
-      await sealsRepository.saveSigningKey(deps.db, key);
-      await recordReviewActivity(deps.db, {
+      await sealsRepository.saveSigningKey(db, key);
+      await activityService.record(db, {
         actorId: user.id,
         projectId: null,
         action: 'signing_key.created',
@@ -118,13 +133,12 @@ export const sealsService = {
     }
 
     // The fresh evaluation, from the revision's own frozen blocks and the sheet's uploads.
-    const uploads = await reviewRepository.uploadsOf(deps.db, sheet.id);
-    const fresh = await deps.evaluate(sheetOf(rev), uploads);
+    const fresh = await sheetsService.evaluate(ctx, sheet.id, sheetOf(rev));
     const stored = JSON.parse(rev.resultsText) as unknown;
     const { moved, total } = compareResults(stored, JSON.parse(fresh.resultsJson) as unknown);
     const textChanged = fresh.canonicalText !== rev.canonicalText;
     if (total > 0 || textChanged) {
-      await recordReviewActivity(deps.db, {
+      await activityService.record(db, {
         actorId: user.id,
         projectId: sheet.projectId,
         action: 'seal.refused',
@@ -167,7 +181,7 @@ export const sealsService = {
       );
     }
 
-    const sealedAt = await dbNow(deps.db);
+    const sealedAt = await dbNow(db);
     const { payloadVersion, payload, digest } = buildSealPayload(
       {
         canonicalTextDigest: rev.digests.canonicalText,
@@ -196,7 +210,7 @@ export const sealsService = {
     for (let attempt = 0; ; attempt++) {
       code = generateSealCode();
       try {
-        superseded = await deps.db.transaction(async (trx) => {
+        superseded = await db.transaction(async (trx) => {
           await lockStatusIs(
             trx,
             rev,
@@ -204,13 +218,8 @@ export const sealsService = {
             'only a revision the checker has signed off can be sealed',
             'NOT_SIGNED_OFF',
           );
-          await reviewRepository.lockSheet(trx, sheet.id);
-          const earlier = await revisionsRepository.supersedeEarlier(
-            trx,
-            sheet.id,
-            rev.id,
-            sealedAt,
-          );
+          await sheetsService.lock(trx, sheet.id);
+          const earlier = await revisionsService.supersedeEarlier(trx, sheet.id, rev.id, sealedAt);
           await sealsRepository.insert(trx, {
             revisionId: rev.id,
             code,
@@ -231,9 +240,9 @@ export const sealsService = {
             sheetNumber: payload.sheetNumber,
             sheetTitle: payload.sheetTitle,
           });
-          await revisionsRepository.markSealed(trx, rev.id, user.id, sealedAt);
-          await reviewRepository.setSheetStatus(trx, sheet.id, 'sealed');
-          await recordReviewActivity(trx, {
+          await revisionsService.markSealed(trx, rev.id, user.id, sealedAt);
+          await sheetsService.setStatus(trx, sheet.id, 'sealed');
+          await activityService.record(trx, {
             actorId: user.id,
             projectId: sheet.projectId,
             action: 'revision.sealed',
@@ -248,7 +257,7 @@ export const sealsService = {
             },
           });
           for (const id of earlier) {
-            await recordReviewActivity(trx, {
+            await activityService.record(trx, {
               actorId: user.id,
               projectId: sheet.projectId,
               action: 'revision.superseded',
@@ -262,17 +271,18 @@ export const sealsService = {
         break;
       } catch (e) {
         // A seal code already taken (1 in 2^50 per seal): draw another.
-        if (isDuplicate(e) && attempt < 3) continue;
+        if (isDuplicateKeyError(e) && attempt < 3) continue;
         throw e;
       }
     }
 
-    const numbers = (await revisionsRepository.listBySheet(deps.db, sheet.id))
+    const numbers = (await revisionsService.listBySheet(db, sheet.id))
       .filter((r) => superseded.includes(r.id))
       .map((r) => r.number);
-    const everyone = (await reviewRepository.members(deps.db, sheet.projectId)).map((p) => p.email);
+    const everyone = await revisionsService.emailsOfMembers(ctx, sheet.projectId);
     await sendAfterCommit(
-      deps,
+      ctx.mailer,
+      ctx.log,
       sealedMail(sheet, everyone, {
         revisionNumber: rev.number,
         by: user.name,
@@ -280,8 +290,29 @@ export const sealsService = {
         supersededNumbers: numbers,
       }),
     );
-    const seal = await sealsRepository.findByRevision(deps.db, rev.id);
+    const seal = await sealsRepository.findByRevision(db, rev.id);
     if (!seal) throw new NotFoundError('The seal was not found after it was made.');
-    return { revision: await summaryOf(deps, rev.id), seal: sealView(seal) };
+    return { revision: await revisionsService.summary(db, rev.id), seal: sealView(seal) };
+  },
+
+  /** The seal of a revision as a revision shows it, or null when it is not sealed. */
+  async viewOf(db: DbOrTx, revisionId: number): Promise<SealView | null> {
+    const seal = await sealsRepository.findByRevision(db, revisionId);
+    return seal ? sealView(seal) : null;
+  },
+
+  /** A seal by its code (verify). */
+  findByCode(db: DbOrTx, code: string): Promise<SealRecord | undefined> {
+    return sealsRepository.findByCode(db, code);
+  },
+
+  /** A principal's stored signing key (verify checks the seal's key is the registered one). */
+  signingKeyOf(db: DbOrTx, userId: number): Promise<StoredSigningKey | undefined> {
+    return sealsRepository.findSigningKey(db, userId);
+  },
+
+  /** Stores a principal's signing key (made at the first seal, locked again at a new password). */
+  saveSigningKey(db: DbOrTx, key: StoredSigningKey): Promise<void> {
+    return sealsRepository.saveSigningKey(db, key);
   },
 };

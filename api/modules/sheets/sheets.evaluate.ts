@@ -1,71 +1,71 @@
-import {
-  digestSheet,
-  evaluateSheet,
-  type Sheet,
-  type SheetDigests,
-  type SheetProgress,
-  type SheetResults,
-  type SheetUpload,
-} from '../../../core/index';
-import type { Db } from '../../db/index';
+import { digestSheet, type Sheet, type SheetDigests, type SheetResults } from '../../../core/index';
+import type { DbOrTx } from '../../db/index';
+import type { AppContext } from '../../http/context';
 import { AppError } from '../../http/errors';
+import type { RunOptions } from '../../workers/sheet-runner';
+import { uploadsService } from '../uploads/uploads.service';
 import type { User } from '../users/users.repository';
-import { listUploadTexts } from '../uploads/uploads.repository';
-import { checkSheetAccess } from './sheets.access';
 import type { DraftBody } from './sheets.schemas';
 
-/** What POST /api/sheets/:sheetId/evaluate answers (the sheet engine's result shape). */
+/**
+ * A sheet evaluated with its uploads and frozen into the forms a revision stores: the one
+ * evaluation path of the API (the editor, issue for check, compare with the draft and seal).
+ */
 export interface SheetEvaluation {
   results: SheetResults;
+  /** Canonical JSON of the results: the text stored and hashed. */
+  resultsJson: string;
+  canonicalText: string;
   digests: SheetDigests;
   engineVersion: string;
 }
-
-export interface RunOptions {
-  signal?: AbortSignal;
-  onProgress?: (progress: SheetProgress) => void;
-}
-
-/**
- * Runs one evaluation. The default runs the sheet engine in this thread; createApp can hand in
- * the worker pool's runner instead (same contract) so long solves never block the event loop.
- */
-export type SheetRunner = (
-  sheet: Sheet,
-  uploads: SheetUpload[],
-  options: RunOptions,
-) => Promise<SheetResults>;
-
-export const inProcessRunner: SheetRunner = async (sheet, uploads, options) => {
-  const signal = options.signal;
-  return evaluateSheet(sheet, {
-    uploads,
-    ...(options.onProgress ? { onProgress: options.onProgress, now: () => Date.now() } : {}),
-    ...(signal ? { isCancelled: () => signal.aborted } : {}),
-  });
-};
 
 export function cancelledError(): AppError {
   return new AppError(499, 'CANCELLED', 'The evaluation was cancelled.');
 }
 
 /**
- * Evaluates the editor's current text of a sheet with the sheet's uploads resolved by name, for
- * any member of its project (the draft in the database is not touched).
+ * Evaluates `sheet` with the uploads of sheet `sheetId` resolved by name, through the app's
+ * runner (the worker pool), and freezes the results into canonical forms and digests.
+ */
+export async function evaluateWithUploads(
+  ctx: Pick<AppContext, 'db' | 'runner'>,
+  sheetId: number,
+  sheet: Sheet,
+  options: RunOptions = {},
+  db: DbOrTx = ctx.db,
+): Promise<SheetEvaluation> {
+  const uploads = await uploadsService.textsForSheet(db, sheetId);
+  const results = await ctx.runner(sheet, uploads, options);
+  if (options.signal?.aborted) throw cancelledError();
+  const d = digestSheet(sheet, results);
+  return {
+    results,
+    resultsJson: d.resultsJson,
+    canonicalText: d.canonicalText,
+    digests: d.digests,
+    engineVersion: d.engineVersion,
+  };
+}
+
+/**
+ * Evaluates the editor's current text of a sheet for any member of its project (the draft in
+ * the database is not touched). Answers the results, digests and engine version.
  */
 export async function evaluateSheetDraft(
-  db: Db,
+  ctx: AppContext,
   user: User,
   sheetId: number,
   input: DraftBody,
-  options: RunOptions & { runner?: SheetRunner } = {},
-): Promise<SheetEvaluation> {
-  await checkSheetAccess(db, user, sheetId);
-  const uploads = await listUploadTexts(db, sheetId);
+  options: RunOptions = {},
+): Promise<Pick<SheetEvaluation, 'results' | 'digests' | 'engineVersion'>> {
+  await ctx.access.sheet(user, sheetId, 'sheet.read');
   const sheet: Sheet = { blocks: input.blocks, settings: input.settings };
-  const run = options.runner ?? inProcessRunner;
-  const results = await run(sheet, uploads, options);
-  if (options.signal?.aborted) throw cancelledError();
-  const { digests, engineVersion } = digestSheet(sheet, results);
+  const { results, digests, engineVersion } = await evaluateWithUploads(
+    ctx,
+    sheetId,
+    sheet,
+    options,
+  );
   return { results, digests, engineVersion };
 }

@@ -1,8 +1,10 @@
 import type { Knex } from 'knex';
 import { readJson, type DbOrTx } from '../../db/index';
 
-export type SheetStatus = 'draft' | 'in_check' | 'returned' | 'checked' | 'sealed';
-export type BlockKind = 'text' | 'calc' | 'matrix' | 'modes' | 'response' | 'criteria';
+import type { BlockKind } from '../../../core/index';
+import type { SheetStatus } from '../../../core/vocabulary';
+
+export type { BlockKind, SheetStatus };
 
 export interface SheetBlock {
   id: string;
@@ -258,4 +260,69 @@ export async function hasRecentDraftSavedActivity(
     .andWhereRaw('at > now(3) - interval ? minute', [minutes])
     .first('id')) as { id: number } | undefined;
   return row !== undefined;
+}
+
+/** The sheet a revision belongs to, with what mail, print and verify need about its project. */
+export interface SheetContext {
+  id: number;
+  projectId: number;
+  number: string;
+  title: string;
+  subject: string;
+  status: SheetStatus;
+  projectJobNumber: string;
+  projectName: string;
+  projectClient: string;
+  projectSite: string;
+  createdBy: number;
+}
+
+export async function findSheetContext(
+  db: DbOrTx,
+  sheetId: number,
+): Promise<SheetContext | undefined> {
+  const row = (await db('sheets as s')
+    .join('projects as p', 'p.id', 's.project_id')
+    .where('s.id', sheetId)
+    .first(
+      's.id',
+      's.project_id',
+      's.number',
+      's.title',
+      's.subject',
+      's.status',
+      's.created_by',
+      'p.job_number',
+      'p.name as project_name',
+      'p.client',
+      'p.site',
+    )) as
+    | {
+        id: number;
+        project_id: number;
+        number: string;
+        title: string;
+        subject: string;
+        status: SheetStatus;
+        created_by: number;
+        job_number: string;
+        project_name: string;
+        client: string;
+        site: string;
+      }
+    | undefined;
+  if (!row) return undefined;
+  return {
+    id: row.id,
+    projectId: row.project_id,
+    number: row.number,
+    title: row.title,
+    subject: row.subject,
+    status: row.status,
+    projectJobNumber: row.job_number,
+    projectName: row.project_name,
+    projectClient: row.client,
+    projectSite: row.site,
+    createdBy: row.created_by,
+  };
 }

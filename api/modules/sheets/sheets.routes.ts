@@ -4,8 +4,7 @@ import type { AppContext } from '../../http/context';
 import { normaliseError } from '../../http/error-middleware';
 import { AppError } from '../../http/errors';
 import { parse } from '../../http/validate';
-import { checkSheetAccess } from './sheets.access';
-import { evaluateSheetDraft, type SheetRunner } from './sheets.evaluate';
+import { evaluateSheetDraft } from './sheets.evaluate';
 import {
   createSheetBody,
   draftBody,
@@ -33,19 +32,13 @@ function disconnectSignal(res: Response): AbortSignal {
   return controller.signal;
 }
 
-export interface SheetsRouterOptions {
-  /** How evaluations run (default: the sheet engine in this thread; pass the worker pool's). */
-  runner?: SheetRunner;
-}
-
 /**
  * Sheets in a project (DESIGN §4): list, create (empty or from a template), read, rename, save
  * the draft with optimistic concurrency, delete a never-issued draft, evaluate the editor's text
  * (plain or as server-sent events). Mounted at /api.
  */
-export function createSheetsRouter(ctx: AppContext, options: SheetsRouterOptions = {}): Router {
-  const { db, log } = ctx;
-  const runner = options.runner;
+export function createSheetsRouter(ctx: AppContext): Router {
+  const { log } = ctx;
   const router = Router();
 
   router.get('/sheet-templates', requireSignedIn, (_req, res) => {
@@ -54,26 +47,26 @@ export function createSheetsRouter(ctx: AppContext, options: SheetsRouterOptions
 
   router.get('/projects/:projectId/sheets', requireSignedIn, async (req, res) => {
     const { projectId } = parse(projectParams, req.params, 'params');
-    res.json({ sheets: await sheetsService.list(db, currentUser(req), projectId) });
+    res.json({ sheets: await sheetsService.list(ctx, currentUser(req), projectId) });
   });
 
   router.post('/projects/:projectId/sheets', requireSignedIn, async (req, res) => {
     const { projectId } = parse(projectParams, req.params, 'params');
     const input = parse(createSheetBody, req.body);
-    const sheet = await sheetsService.create(db, currentUser(req), projectId, input);
+    const sheet = await sheetsService.create(ctx, currentUser(req), projectId, input);
     res.status(201).location(`/api/sheets/${sheet.id}`).json({ sheet });
   });
 
   router.get('/sheets/:sheetId', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
-    const sheet = await sheetsService.get(db, currentUser(req), sheetId);
+    const sheet = await sheetsService.get(ctx, currentUser(req), sheetId);
     res.set('ETag', `"${sheet.draftVersion}"`).json({ sheet });
   });
 
   router.patch('/sheets/:sheetId', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const input = parse(updateSheetBody, req.body);
-    res.json({ sheet: await sheetsService.update(db, currentUser(req), sheetId, input) });
+    res.json({ sheet: await sheetsService.update(ctx, currentUser(req), sheetId, input) });
   });
 
   router.put('/sheets/:sheetId/draft', requireSignedIn, async (req, res) => {
@@ -81,13 +74,13 @@ export function createSheetsRouter(ctx: AppContext, options: SheetsRouterOptions
     const version = parseIfMatch(req.get('if-match'));
     if (version === null) throw missingIfMatch();
     const input = parse(draftBody, req.body);
-    const saved = await sheetsService.saveDraft(db, currentUser(req), sheetId, version, input);
+    const saved = await sheetsService.saveDraft(ctx, currentUser(req), sheetId, version, input);
     res.set('ETag', `"${saved.draftVersion}"`).json(saved);
   });
 
   router.delete('/sheets/:sheetId', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
-    await sheetsService.remove(db, currentUser(req), sheetId);
+    await sheetsService.remove(ctx, currentUser(req), sheetId);
     res.status(204).end();
   });
 
@@ -95,9 +88,8 @@ export function createSheetsRouter(ctx: AppContext, options: SheetsRouterOptions
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const input = parse(draftBody, req.body);
     try {
-      const out = await evaluateSheetDraft(db, currentUser(req), sheetId, input, {
+      const out = await evaluateSheetDraft(ctx, currentUser(req), sheetId, input, {
         signal: disconnectSignal(res),
-        ...(runner ? { runner } : {}),
       });
       res.json(out);
     } catch (err) {
@@ -113,7 +105,7 @@ export function createSheetsRouter(ctx: AppContext, options: SheetsRouterOptions
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const input = parse(draftBody, req.body);
     const user = currentUser(req);
-    await checkSheetAccess(db, user, sheetId);
+    await ctx.access.sheet(user, sheetId, 'sheet.read');
 
     const signal = disconnectSignal(res);
     let started = false;
@@ -130,7 +122,7 @@ export function createSheetsRouter(ctx: AppContext, options: SheetsRouterOptions
       if (!res.writableEnded) res.write(`event: ${event}\ndata: ${JSON.stringify(data)}\n\n`);
     };
     try {
-      const out = await evaluateSheetDraft(db, user, sheetId, input, {
+      const out = await evaluateSheetDraft(ctx, user, sheetId, input, {
         signal,
         onProgress: (p) =>
           send('progress', {
@@ -142,7 +134,6 @@ export function createSheetsRouter(ctx: AppContext, options: SheetsRouterOptions
                   p.blockCount
                 : null,
           }),
-        ...(runner ? { runner } : {}),
       });
       send('result', out);
     } catch (e) {

@@ -1,27 +1,35 @@
-import type { Db, DbOrTx } from '../../db/index';
+import type { Knex } from 'knex';
+import type { ProjectRole, SheetStatus } from '../../../core/vocabulary';
+import type { DbOrTx } from '../../db/index';
 import { isDuplicateKeyError } from '../../db/index';
+import type { AppContext } from '../../http/context';
 import { AppError, ConflictError, NotFoundError } from '../../http/errors';
-import type { ProjectRole } from '../members/roles';
-import { projectsService } from '../projects/projects.service';
+import { activityService } from '../activity/activity.service';
 import type { User } from '../users/users.repository';
-import { checkProjectAccess, checkSheetAccess } from './sheets.access';
-import { DRAFT_SAVED_COALESCE_MINUTES, recordSheetActivity } from './sheets.activity';
+import { evaluateWithUploads } from './sheets.evaluate';
 import {
   countRevisions,
   deleteSheet,
   findSheetById,
+  findSheetContext,
+  findSheetProjectId,
   hasRecentDraftSavedActivity,
   insertSheet,
   listSheetsByProject,
   lockSheet,
   saveDraftIfVersion,
+  setSheetStatus,
   updateSheetFields,
+  type SheetContext,
   type SheetDraft,
   type SheetRecord,
   type SheetSummary,
 } from './sheets.repository';
 import type { CreateSheetBody, DraftBody, UpdateSheetBody } from './sheets.schemas';
 import { draftFromTemplate, listTemplates, type SheetTemplateInfo } from './sheets.templates';
+
+/** Autosaves are coalesced: at most one `sheet.draft_saved` per sheet and person per window. */
+export const DRAFT_SAVED_COALESCE_MINUTES = 10;
 
 /** A sheet as the API sends it: the stored record and the caller's roles in its project. */
 export interface SheetDetail extends SheetRecord {
@@ -46,26 +54,24 @@ export const sheetsService = {
     return listTemplates();
   },
 
-  async list(db: Db, user: User, projectId: number): Promise<SheetSummary[]> {
-    await requireProject(db, projectId);
-    await checkProjectAccess(db, user, projectId);
+  async list({ db, access }: AppContext, user: User, projectId: number): Promise<SheetSummary[]> {
+    await access.project(user, projectId, 'sheet.read');
     return listSheetsByProject(db, projectId);
   },
 
-  async get(db: Db, user: User, sheetId: number): Promise<SheetDetail> {
-    const access = await checkSheetAccess(db, user, sheetId);
+  async get({ db, access: policy }: AppContext, user: User, sheetId: number): Promise<SheetDetail> {
+    const access = await policy.sheet(user, sheetId, 'sheet.read');
     const sheet = await mustFind(db, sheetId);
     return { ...sheet, myRoles: access.myRoles };
   },
 
   async create(
-    db: Db,
+    { db, access: policy }: AppContext,
     user: User,
     projectId: number,
     input: CreateSheetBody,
   ): Promise<SheetDetail> {
-    await requireProject(db, projectId);
-    const access = await checkProjectAccess(db, user, projectId, ['author'], 'start a sheet');
+    const access = await policy.project(user, projectId, 'sheet.create');
     const template = input.template ?? 'empty';
     const draft = draftFromTemplate(template);
     let id: number;
@@ -79,7 +85,7 @@ export const sheetsService = {
           draft,
           userId: user.id,
         });
-        await recordSheetActivity(trx, {
+        await activityService.record(trx, {
           actorId: user.id,
           projectId,
           action: 'sheet.created',
@@ -97,8 +103,13 @@ export const sheetsService = {
     return { ...sheet, myRoles: access.myRoles };
   },
 
-  async update(db: Db, user: User, sheetId: number, input: UpdateSheetBody): Promise<SheetDetail> {
-    const access = await checkSheetAccess(db, user, sheetId, ['author'], 'rename a sheet');
+  async update(
+    { db, access: policy }: AppContext,
+    user: User,
+    sheetId: number,
+    input: UpdateSheetBody,
+  ): Promise<SheetDetail> {
+    const access = await policy.sheet(user, sheetId, 'sheet.rename');
     try {
       await db.transaction(async (trx) => {
         await lockSheet(trx, sheetId);
@@ -122,7 +133,7 @@ export const sheetsService = {
         await updateSheetFields(trx, sheetId, changes, user.id);
         const from: Record<string, string> = {};
         for (const key of Object.keys(changes) as (keyof typeof changes)[]) from[key] = before[key];
-        await recordSheetActivity(trx, {
+        await activityService.record(trx, {
           actorId: user.id,
           projectId: access.projectId,
           action: 'sheet.renamed',
@@ -145,13 +156,13 @@ export const sheetsService = {
    * can show both versions and nothing is lost.
    */
   async saveDraft(
-    db: Db,
+    { db, access: policy }: AppContext,
     user: User,
     sheetId: number,
     expectedVersion: number,
     input: DraftBody,
   ): Promise<{ draftVersion: number; updatedAt: Date }> {
-    const access = await checkSheetAccess(db, user, sheetId, ['author'], 'edit a sheet');
+    const access = await policy.sheet(user, sheetId, 'sheet.edit');
     const draft: SheetDraft = { blocks: input.blocks, settings: input.settings };
     return db.transaction(async (trx) => {
       const saved = await saveDraftIfVersion(trx, sheetId, expectedVersion, draft, user.id);
@@ -181,7 +192,7 @@ export const sheetsService = {
         DRAFT_SAVED_COALESCE_MINUTES,
       );
       if (!recent) {
-        await recordSheetActivity(trx, {
+        await activityService.record(trx, {
           actorId: user.id,
           projectId: access.projectId,
           action: 'sheet.draft_saved',
@@ -195,8 +206,8 @@ export const sheetsService = {
   },
 
   /** Deletes a sheet that was never issued (its uploads go with it). */
-  async remove(db: Db, user: User, sheetId: number): Promise<void> {
-    const access = await checkSheetAccess(db, user, sheetId, ['author'], 'delete a sheet');
+  async remove({ db, access: policy }: AppContext, user: User, sheetId: number): Promise<void> {
+    const access = await policy.sheet(user, sheetId, 'sheet.delete');
     await db.transaction(async (trx) => {
       await lockSheet(trx, sheetId);
       const sheet = await mustFind(trx, sheetId);
@@ -207,7 +218,7 @@ export const sheetsService = {
         );
       }
       await deleteSheet(trx, sheetId);
-      await recordSheetActivity(trx, {
+      await activityService.record(trx, {
         actorId: user.id,
         projectId: access.projectId,
         action: 'sheet.deleted',
@@ -217,13 +228,43 @@ export const sheetsService = {
       });
     });
   },
-};
 
-async function requireProject(db: Db, projectId: number): Promise<void> {
-  if (!(await projectsService.exists(db, projectId))) {
-    throw new NotFoundError(`There is no project with id ${projectId}.`);
-  }
-}
+  /** The project a sheet belongs to (the access policy's way up); undefined when none. */
+  projectIdOf(db: DbOrTx, sheetId: number): Promise<number | undefined> {
+    return findSheetProjectId(db, sheetId);
+  },
+
+  /** The sheet with its project's job number, name, client and site, or undefined. */
+  findContext(db: DbOrTx, sheetId: number): Promise<SheetContext | undefined> {
+    return findSheetContext(db, sheetId);
+  },
+
+  /** The sheet with its project's job number, name, client and site; 404 when there is none. */
+  async context(db: DbOrTx, sheetId: number): Promise<SheetContext> {
+    const sheet = await findSheetContext(db, sheetId);
+    if (!sheet) throw new NotFoundError(`There is no sheet with id ${sheetId}.`);
+    return sheet;
+  },
+
+  /** The stored draft and its version (404 when there is no such sheet). */
+  async draftOf(db: DbOrTx, sheetId: number): Promise<{ draft: SheetDraft; version: number }> {
+    const sheet = await mustFind(db, sheetId);
+    return { draft: sheet.draft, version: sheet.draftVersion };
+  },
+
+  /** Locks the sheet row for the rest of the transaction (serializes writes to one sheet). */
+  lock(trx: Knex.Transaction, sheetId: number): Promise<void> {
+    return lockSheet(trx, sheetId);
+  },
+
+  /** Sets the sheet's status inside a review action's transaction. */
+  setStatus(trx: Knex.Transaction, sheetId: number, status: SheetStatus): Promise<void> {
+    return setSheetStatus(trx, sheetId, status);
+  },
+
+  /** Evaluates a sheet with the uploads of sheet `sheetId`, frozen into canonical forms. */
+  evaluate: evaluateWithUploads,
+};
 
 /** The If-Match refusal: the header names the version the edit started from. */
 export function missingIfMatch(): AppError {

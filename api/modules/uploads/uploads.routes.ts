@@ -7,25 +7,14 @@ import { AppError, PayloadTooLargeError, ValidationError } from '../../http/erro
 import { isMalformedMultipart } from '../../http/request-errors';
 import { parse } from '../../http/validate';
 import { sheetParams } from '../sheets/sheets.schemas';
-import { uploadsService, type MatrixFileDescriber, type ReceivedFile } from './uploads.service';
+import { uploadsService, type ReceivedFile } from './uploads.service';
 
 /** Default largest upload: 20 MB (the bytes are stored compressed; see the uploads migration). */
 export const DEFAULT_UPLOAD_LIMIT_BYTES = 20 * 1024 * 1024;
 
-export interface UploadsRouterOptions {
-  /** Largest file accepted, in bytes; larger ones get 413 PAYLOAD_TOO_LARGE. */
-  uploadLimitBytes?: number;
-  /**
-   * Reads a file off the event loop: the evaluation pool's `describeMatrixFile`
-   * (api/workers/evaluation-pool.ts), whose parse of a 20 MB file takes seconds.
-   */
-  describeMatrixFile: MatrixFileDescriber;
-}
-
-/** The limit: the router option, else config.uploadLimitBytes when the config has one, else 20 MB. */
-function resolveLimit(ctx: AppContext, options: { uploadLimitBytes?: number }): number {
+/** The limit: config.uploadLimitBytes when the config has one, else 20 MB. */
+function resolveLimit(ctx: AppContext): number {
   const fromConfig = (ctx.config as { uploadLimitBytes?: unknown }).uploadLimitBytes;
-  if (options.uploadLimitBytes !== undefined) return options.uploadLimitBytes;
   if (typeof fromConfig === 'number' && fromConfig > 0) return fromConfig;
   return DEFAULT_UPLOAD_LIMIT_BYTES;
 }
@@ -38,9 +27,8 @@ function megabytes(bytes: number): string {
 /**
  * Matrix files uploaded to a sheet: POST (multipart, field `file`) and GET. Mounted at /api.
  */
-export function createUploadsRouter(ctx: AppContext, options: UploadsRouterOptions): Router {
-  const { db } = ctx;
-  const limit = resolveLimit(ctx, options);
+export function createUploadsRouter(ctx: AppContext): Router {
+  const limit = resolveLimit(ctx);
   const receive = multer({
     storage: multer.memoryStorage(),
     limits: { fileSize: limit, files: 1, fields: 10, parts: 12 },
@@ -90,7 +78,7 @@ export function createUploadsRouter(ctx: AppContext, options: UploadsRouterOptio
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const user = currentUser(req);
     // Refuse the wrong role before reading a large body.
-    await uploadsService.checkCanUpload(db, user, sheetId);
+    await uploadsService.checkCanUpload(ctx, user, sheetId);
     if (!req.is('multipart/form-data')) {
       throw new AppError(
         415,
@@ -100,19 +88,13 @@ export function createUploadsRouter(ctx: AppContext, options: UploadsRouterOptio
       );
     }
     const file = await receiveFile(req, res);
-    const { upload, created } = await uploadsService.add(
-      db,
-      user,
-      sheetId,
-      file,
-      options.describeMatrixFile,
-    );
+    const { upload, created } = await uploadsService.add(ctx, user, sheetId, file);
     res.status(created ? 201 : 200).json({ upload });
   });
 
   router.get('/sheets/:sheetId/uploads', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
-    res.json({ uploads: await uploadsService.list(db, currentUser(req), sheetId) });
+    res.json({ uploads: await uploadsService.list(ctx, currentUser(req), sheetId) });
   });
 
   return router;

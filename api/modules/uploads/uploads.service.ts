@@ -1,11 +1,12 @@
 import { createHash } from 'node:crypto';
-import type { Db, DbOrTx } from '../../db/index';
+import { isEngineError } from '../../../core/index';
+import type { DbOrTx } from '../../db/index';
 import { isDuplicateKeyError } from '../../db/index';
+import type { AppContext } from '../../http/context';
 import { AppError, ConflictError, ValidationError } from '../../http/errors';
+import { activityService } from '../activity/activity.service';
 import type { User } from '../users/users.repository';
-import { checkSheetAccess } from '../sheets/sheets.access';
-import { recordSheetActivity } from '../sheets/sheets.activity';
-import { detectFormat, type MatrixFileShape } from './uploads.parse';
+import { detectFormat, matrixFileError, type MatrixFileShape } from './uploads.parse';
 import {
   findUploadById,
   findUploadByName,
@@ -13,19 +14,7 @@ import {
   listUploadTexts,
   listUploadsBySheet,
   type Upload,
-  type UploadFormat,
 } from './uploads.repository';
-
-/**
- * Reads a matrix file far enough to describe it (`describeMatrixFile` of uploads.parse.ts), or
- * refuses it with 422 MATRIX_FILE_INVALID naming file and line. The app hands in the worker
- * pool's, so a large file is parsed off the event loop.
- */
-export type MatrixFileDescriber = (
-  text: string,
-  format: UploadFormat,
-  name: string,
-) => Promise<MatrixFileShape>;
 
 /** A file as multer hands it over (memory storage). */
 export interface ReceivedFile {
@@ -67,8 +56,8 @@ export function uploadName(originalName: string): string {
 
 export const uploadsService = {
   /** 404 for an unknown sheet, 403 unless the person is an author on its project. */
-  async checkCanUpload(db: Db, user: User, sheetId: number): Promise<void> {
-    await checkSheetAccess(db, user, sheetId, ['author'], 'upload matrix files');
+  async checkCanUpload({ access }: AppContext, user: User, sheetId: number): Promise<void> {
+    await access.sheet(user, sheetId, 'upload.add');
   },
 
   /**
@@ -76,16 +65,16 @@ export const uploadsService = {
    * a file that is not a matrix is refused now (422 MATRIX_FILE_INVALID with its line), not at
    * the first evaluation. Uploads never change: a different file under a name already taken is
    * refused (409), the same file again answers with the stored upload. The file is read by
-   * `describe` (the worker pool's reader in the app).
+   * `ctx.describeMatrixFile` (the worker pool's reader in the app).
    */
   async add(
-    db: Db,
+    ctx: AppContext,
     user: User,
     sheetId: number,
     file: ReceivedFile | undefined,
-    describe: MatrixFileDescriber,
   ): Promise<UploadResult> {
-    const access = await checkSheetAccess(db, user, sheetId, ['author'], 'upload matrix files');
+    const { db } = ctx;
+    const access = await ctx.access.sheet(user, sheetId, 'upload.add');
     if (!file) {
       throw new ValidationError('Choose a file to upload (form field "file").', { field: 'file' });
     }
@@ -97,7 +86,9 @@ export const uploadsService = {
     const existing = await findUploadByName(db, sheetId, name);
     if (existing) return sameOrConflict(existing, sha256, name);
 
-    const shape = await describe(text, format, name);
+    const shape: MatrixFileShape = await ctx.describeMatrixFile(text, format, name).catch((e) => {
+      throw isEngineError(e) ? matrixFileError(e, name) : e;
+    });
     let id: number;
     try {
       id = await db.transaction(async (trx) => {
@@ -111,7 +102,7 @@ export const uploadsService = {
           bytes: file.buffer,
           userId: user.id,
         });
-        await recordSheetActivity(trx, {
+        await activityService.record(trx, {
           actorId: user.id,
           projectId: access.projectId,
           action: 'upload.added',
@@ -141,8 +132,8 @@ export const uploadsService = {
     return { upload, created: true };
   },
 
-  async list(db: Db, user: User, sheetId: number): Promise<Upload[]> {
-    await checkSheetAccess(db, user, sheetId);
+  async list({ db, access }: AppContext, user: User, sheetId: number): Promise<Upload[]> {
+    await access.sheet(user, sheetId, 'sheet.read');
     return listUploadsBySheet(db, sheetId);
   },
 

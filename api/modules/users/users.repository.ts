@@ -89,4 +89,17 @@ export const usersRepository = {
     if (id === undefined) throw new Error('users insert returned no id');
     return id;
   },
+
+  /** The stored password hash, read only to check a password typed again. */
+  async passwordHashOf(db: DbOrTx, userId: number): Promise<string | undefined> {
+    const row = (await db('users').where({ id: userId }).first('password_hash')) as
+      { password_hash: string } | undefined;
+    return row?.password_hash;
+  },
+
+  async setPasswordHash(db: DbOrTx, userId: number, hash: string): Promise<void> {
+    await db('users')
+      .where({ id: userId })
+      .update({ password_hash: hash, updated_at: db.fn.now(3) });
+  },
 };

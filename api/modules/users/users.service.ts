@@ -1,4 +1,4 @@
-import type { Db } from '../../db/index';
+import type { Db, DbOrTx } from '../../db/index';
 import { ConflictError } from '../../http/errors';
 import { activityService } from '../activity/activity.service';
 import { hashPassword } from '../auth/passwords';
@@ -8,6 +8,15 @@ import { usersRepository, type User } from './users.repository';
 export const usersService = {
   findById(db: Db, id: number): Promise<User | undefined> {
     return usersRepository.findById(db, id);
+  },
+
+  /** The stored password hash (sealing and changing the password check the one typed). */
+  passwordHashOf(db: DbOrTx, userId: number): Promise<string | undefined> {
+    return usersRepository.passwordHashOf(db, userId);
+  },
+
+  setPasswordHash(db: DbOrTx, userId: number, hash: string): Promise<void> {
+    return usersRepository.setPasswordHash(db, userId, hash);
   },
 
   list(db: Db): Promise<User[]> {

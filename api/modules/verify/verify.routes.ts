@@ -3,7 +3,7 @@ import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import { z } from 'zod';
 import { RateLimitedError } from '../../http/errors';
 import { parse } from '../../http/validate';
-import type { ReviewDeps } from '../revisions/review-deps';
+import type { AppContext } from '../../http/context';
 import { verifyService } from './verify.service';
 
 const verifyParams = z.object({
@@ -18,8 +18,8 @@ export interface VerifyRouterOptions {
   perMinute?: number;
 }
 
-/** GET /verify/:code — public, no sign-in, rate limited. */
-export function createVerifyRouter(deps: ReviewDeps, options: VerifyRouterOptions = {}): Router {
+/** GET /verify/:code — public, no sign-in, rate limited. Mounted at /api. */
+export function createVerifyRouter(ctx: AppContext, options: VerifyRouterOptions = {}): Router {
   const router = Router();
   const limiter = rateLimit({
     windowMs: 60_000,
@@ -39,7 +39,7 @@ export function createVerifyRouter(deps: ReviewDeps, options: VerifyRouterOption
   });
   router.get('/verify/:code', limiter, async (req, res) => {
     const { code } = parse(verifyParams, req.params, 'params');
-    res.set('Cache-Control', 'no-store').json(await verifyService.verify(deps.db, code));
+    res.set('Cache-Control', 'no-store').json(await verifyService.verify(ctx.db, code));
   });
   return router;
 }

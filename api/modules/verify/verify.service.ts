@@ -1,11 +1,13 @@
 import { canonicalJson, canonicalText, sha256Hex, type SheetBlock } from '../../../core/index';
 import type { Db } from '../../db/index';
-import { reviewRepository, type SheetContext } from '../revisions/review.repository';
-import { revisionsRepository } from '../revisions/revisions.repository';
+import { revisionsService } from '../revisions/revisions.service';
 import { normalizeSealCode } from '../seals/seal-code';
 import { recomputeSealDigest } from '../seals/seal-payload';
-import { sealsRepository, type SealRecord } from '../seals/seals.repository';
+import type { SealRecord } from '../seals/seals.repository';
+import { sealsService } from '../seals/seals.service';
 import { verifyDigest } from '../seals/signing-keys';
+import type { SheetContext } from '../sheets/sheets.repository';
+import { sheetsService } from '../sheets/sheets.service';
 
 export type Verdict = 'genuine' | 'does-not-match' | 'unknown-code';
 
@@ -111,10 +113,10 @@ export const verifyService = {
     if (!code) {
       return unknown(null, 'A seal code is 10 letters and digits, printed as XXXXX-XXXXX.');
     }
-    const seal = await sealsRepository.findByCode(db, code);
+    const seal = await sealsService.findByCode(db, code);
     if (!seal) return unknown(code, `No seal has the code ${code}.`);
-    const rev = await revisionsRepository.findById(db, seal.revisionId);
-    const sheet = rev ? await reviewRepository.sheetContext(db, rev.sheetId) : undefined;
+    const rev = await revisionsService.find(db, seal.revisionId);
+    const sheet = rev ? await sheetsService.findContext(db, rev.sheetId) : undefined;
     const reasons: string[] = [];
     const notes: string[] = [];
     if (!rev || !sheet) {
@@ -164,7 +166,7 @@ export const verifyService = {
       if (!verifyDigest(seal.publicKey, seal.digest, seal.signature)) {
         reasons.push("The signature is not the principal's signature of the seal digest.");
       }
-      const key = await sealsRepository.findSigningKey(db, seal.principalId);
+      const key = await sealsService.signingKeyOf(db, seal.principalId);
       if (!key || key.publicKey.trim() !== seal.publicKey.trim()) {
         reasons.push(
           "The key that signed this seal is not the principal's registered signing key.",

@@ -6,6 +6,7 @@ import { ProtectedLayout } from './routes/protected';
 import { SignInRoute } from './routes/sign-in';
 import { ProjectsRoute } from './routes/projects';
 import { NotFoundRoute } from './routes/not-found';
+import { RouteError } from './routes/route-error';
 
 // The first screens a person sees (sign in, the projects list) are in the entry chunk; every other
 // screen is its own chunk, fetched the first time it is opened, so signing in does not wait for
@@ -68,10 +69,15 @@ function Opening({ children, bare = false }: { children: ReactNode; bare?: boole
 
 function createAppRouter() {
   return createBrowserRouter([
-    { path: paths.signIn.path, element: <SignInRoute /> },
+    {
+      path: paths.signIn.path,
+      errorElement: <RouteError screen="sign-in page" />,
+      element: <SignInRoute />,
+    },
     // Public: a seal is checked without signing in.
     {
       path: paths.verify.path,
+      errorElement: <RouteError screen="seal check" />,
       element: (
         <Opening bare>
           <VerifyRoute />
@@ -80,6 +86,7 @@ function createAppRouter() {
     },
     {
       path: paths.verify.codePath,
+      errorElement: <RouteError screen="seal check" />,
       element: (
         <Opening bare>
           <VerifyRoute />
@@ -89,6 +96,7 @@ function createAppRouter() {
     // Printed as paper: no app header; signs strangers in like every member-only page.
     {
       path: paths.print.path,
+      errorElement: <RouteError screen="print" />,
       element: (
         <Opening bare>
           <PrintRoute />
@@ -97,10 +105,16 @@ function createAppRouter() {
     },
     {
       element: <ProtectedLayout />,
+      errorElement: <RouteError screen="page" />,
       children: [
-        { index: true, element: <ProjectsRoute /> },
+        {
+          index: true,
+          element: <ProjectsRoute />,
+          errorElement: <RouteError screen="projects list" />,
+        },
         {
           path: paths.project.path,
+          errorElement: <RouteError screen="project" />,
           element: (
             <Opening>
               <ProjectRoute />
@@ -109,6 +123,7 @@ function createAppRouter() {
         },
         {
           path: paths.sheet.path,
+          errorElement: <RouteError screen="sheet" />,
           element: (
             <Opening>
               <SheetRoute />
@@ -117,6 +132,7 @@ function createAppRouter() {
         },
         {
           path: paths.revision.path,
+          errorElement: <RouteError screen="revision" />,
           element: (
             <Opening>
               <RevisionRoute />
@@ -125,6 +141,7 @@ function createAppRouter() {
         },
         {
           path: paths.compare.path,
+          errorElement: <RouteError screen="comparison" />,
           element: (
             <Opening>
               <CompareRoute />
@@ -133,6 +150,7 @@ function createAppRouter() {
         },
         {
           path: paths.outbox.path,
+          errorElement: <RouteError screen="mail outbox" />,
           element: (
             <Opening>
               <OutboxRoute />
@@ -141,6 +159,7 @@ function createAppRouter() {
         },
         {
           path: paths.admin.path,
+          errorElement: <RouteError screen="administration" />,
           element: (
             <Opening>
               <AdminRoute />

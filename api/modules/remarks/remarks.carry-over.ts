@@ -1,8 +1,8 @@
 import { mapLine, type Sheet, type SheetBlock } from '../../../core/index';
 import type { DbOrTx } from '../../db/index';
-import { remarksRepository } from '../remarks/remarks.repository';
-import type { RevisionRecord } from './revisions.repository';
-import { recordReviewActivity } from './review-deps';
+import { activityService } from '../activity/activity.service';
+import type { RevisionRecord } from '../revisions/revisions.repository';
+import { remarksRepository } from './remarks.repository';
 
 /**
  * Copies the open and answered remarks of the previous revision to the new one. A remark whose
@@ -48,7 +48,7 @@ export async function carryRemarks(
     });
   }
   if (input.projectId !== undefined) {
-    await recordReviewActivity(trx, {
+    await activityService.record(trx, {
       actorId: null,
       projectId: input.projectId,
       action: 'remark.carried',
