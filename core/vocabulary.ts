@@ -1,6 +1,10 @@
 // The words the server stores and the client shows, written once. This module imports nothing,
 // so the client may import it (values and types) without pulling server or engine code.
 
+/** The kinds of block (DESIGN.md §4); `response` runs an analysis on a modes result above it. */
+export const BLOCK_KINDS = ['text', 'calc', 'matrix', 'modes', 'response', 'criteria'] as const;
+export type BlockKind = (typeof BLOCK_KINDS)[number];
+
 /** The roles a person holds within one project. Admin is installation-wide, not a role here. */
 export const PROJECT_ROLES = ['author', 'checker', 'principal', 'viewer'] as const;
 export type ProjectRole = (typeof PROJECT_ROLES)[number];

@@ -5,17 +5,9 @@
  */
 import type { DenseTeam } from '../eigen/dense/team';
 
-/** The kinds of block (DESIGN.md §4); `response` runs an analysis on a modes result above it. */
-export type BlockKind = 'text' | 'calc' | 'matrix' | 'modes' | 'response' | 'criteria';
+import { BLOCK_KINDS, type BlockKind } from '../vocabulary';
 
-export const BLOCK_KINDS: readonly BlockKind[] = [
-  'text',
-  'calc',
-  'matrix',
-  'modes',
-  'response',
-  'criteria',
-];
+export { BLOCK_KINDS, type BlockKind };
 
 /** One block of a sheet's source. `id` is stable across revisions. */
 export interface SheetBlock {

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { BLOCK_KINDS } from '../../../core/vocabulary';
 
 /** Template keys a new sheet can start from (see sheets.templates.ts). */
 export const TEMPLATE_KEYS = [
@@ -8,15 +9,6 @@ export const TEMPLATE_KEYS = [
   'pump-foundation',
 ] as const;
 export type TemplateKey = (typeof TEMPLATE_KEYS)[number];
-
-export const BLOCK_KIND_VALUES = [
-  'text',
-  'calc',
-  'matrix',
-  'modes',
-  'response',
-  'criteria',
-] as const;
 
 const id = z.coerce
   .number({ message: 'must be a whole number' })
@@ -70,7 +62,7 @@ export const blockSchema = z.object({
   id: z
     .string({ message: 'is required' })
     .regex(/^[A-Za-z0-9_.:-]{1,64}$/, 'must be 1–64 letters, digits or _ . : - without spaces'),
-  kind: z.enum(BLOCK_KIND_VALUES, { message: `must be one of ${BLOCK_KIND_VALUES.join(', ')}` }),
+  kind: z.enum(BLOCK_KINDS, { message: `must be one of ${BLOCK_KINDS.join(', ')}` }),
   source: z
     .string({ message: 'is required' })
     .max(MAX_BLOCK_SOURCE, `must be at most ${MAX_BLOCK_SOURCE} characters`),
