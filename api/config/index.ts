@@ -27,6 +27,8 @@ export interface AppConfig {
   logRequests: boolean;
   /** Largest JSON body accepted, in bytes. */
   bodyLimitBytes: number;
+  /** Largest matrix file accepted by an upload, in bytes (MW_UPLOAD_LIMIT_BYTES, default 20 MB). */
+  uploadLimitBytes: number;
 }
 
 export const projectRoot = path.resolve(import.meta.dirname, '..', '..');
@@ -98,6 +100,7 @@ export function loadConfig(overrides: Partial<AppConfig> = {}): AppConfig {
     clientDir: path.join(projectRoot, 'dist', 'client'),
     logRequests: process.env.MW_LOG_REQUESTS !== '0',
     bodyLimitBytes: 1024 * 1024,
+    uploadLimitBytes: intFromEnv('MW_UPLOAD_LIMIT_BYTES', 20 * 1024 * 1024),
   };
   return { ...base, ...overrides, db: { ...base.db, ...overrides.db } };
 }

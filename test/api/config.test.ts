@@ -32,6 +32,7 @@ describe('loadConfig', () => {
     expect(config.signinLimit).toBe(10);
     expect(config.signinWindowMs).toBe(15 * 60 * 1000);
     expect(config.trustProxyHops).toBe(0);
+    expect(config.uploadLimitBytes).toBe(20 * 1024 * 1024);
   });
 
   it('reads the MW_* variables', async () => {
@@ -45,6 +46,7 @@ describe('loadConfig', () => {
       MW_SIGNIN_LIMIT: '4',
       MW_TRUST_PROXY: '2',
       MW_SESSION_SECRET: 'from-the-environment',
+      MW_UPLOAD_LIMIT_BYTES: '52428800',
     });
     const config = loadConfig();
     expect(config).toMatchObject({
@@ -55,6 +57,7 @@ describe('loadConfig', () => {
       signinLimit: 4,
       trustProxyHops: 2,
       sessionSecret: 'from-the-environment',
+      uploadLimitBytes: 52428800,
     });
     expect(config.db).toMatchObject({ port: 3555, name: 'modewright_other' });
   });

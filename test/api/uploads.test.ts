@@ -3,7 +3,6 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { gunzipSync } from 'node:zlib';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEFAULT_UPLOAD_LIMIT_BYTES } from '../../api/modules/uploads/uploads.routes';
 import {
   anonymous,
   createTeamApp,
@@ -196,7 +195,7 @@ describe('POST /api/sheets/:sheetId/uploads', () => {
 
   it('refuses a file over the upload limit with 413 PAYLOAD_TOO_LARGE', async () => {
     // One byte over the default limit (20 MB): a CSV row of zeros.
-    const bytes = Buffer.alloc(DEFAULT_UPLOAD_LIMIT_BYTES + 1, '0');
+    const bytes = Buffer.alloc(20 * 1024 * 1024 + 1, '0');
     const res = await upload(author, `huge-${unique()}.csv`, bytes);
     expect(res.status).toBe(413);
     expect(res.body.error.code).toBe('PAYLOAD_TOO_LARGE');

@@ -9,16 +9,6 @@ import { parse } from '../../http/validate';
 import { sheetParams } from '../sheets/sheets.schemas';
 import { uploadsService, type ReceivedFile } from './uploads.service';
 
-/** Default largest upload: 20 MB (the bytes are stored compressed; see the uploads migration). */
-export const DEFAULT_UPLOAD_LIMIT_BYTES = 20 * 1024 * 1024;
-
-/** The limit: config.uploadLimitBytes when the config has one, else 20 MB. */
-function resolveLimit(ctx: AppContext): number {
-  const fromConfig = (ctx.config as { uploadLimitBytes?: unknown }).uploadLimitBytes;
-  if (typeof fromConfig === 'number' && fromConfig > 0) return fromConfig;
-  return DEFAULT_UPLOAD_LIMIT_BYTES;
-}
-
 function megabytes(bytes: number): string {
   const mb = bytes / (1024 * 1024);
   return mb >= 1 ? `${Number(mb.toFixed(1))} MB` : `${Math.ceil(bytes / 1024)} kB`;
@@ -28,7 +18,7 @@ function megabytes(bytes: number): string {
  * Matrix files uploaded to a sheet: POST (multipart, field `file`) and GET. Mounted at /api.
  */
 export function createUploadsRouter(ctx: AppContext): Router {
-  const limit = resolveLimit(ctx);
+  const limit = ctx.config.uploadLimitBytes;
   const receive = multer({
     storage: multer.memoryStorage(),
     limits: { fileSize: limit, files: 1, fields: 10, parts: 12 },
