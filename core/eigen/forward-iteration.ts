@@ -15,13 +15,13 @@ import { seededRandom } from './random';
 import type { MethodInput, RawEigenResult } from './types';
 import {
   acceptMassNormalized,
+  byAscendingLambda,
   checkCancelled,
   mOrthogonalize,
   pencilSize,
+  RayleighConvergence,
   startVector,
 } from './vector-tools';
-
-const EPS = 2 ** -52;
 
 /**
  * The `count` highest modes, returned in ascending λ with M-normalized vectors.
@@ -63,9 +63,6 @@ export function forwardIteration(input: MethodInput): RawEigenResult {
     notes: [],
   };
   const want = Math.min(count, n);
-  const sqrtTol = Math.sqrt(tolerance);
-  // vector residual wanted: tol^¾ (backward error well below tol), or √tol once it stagnates
-  const vecTol = tolerance ** 0.75;
   const xb = new Float64Array(n);
   const yb = new Float64Array(n);
   const mxb = new Float64Array(n);
@@ -82,9 +79,7 @@ export function forwardIteration(input: MethodInput): RawEigenResult {
     }
     const y = symmetricMultiply(K, x);
     const history: number[] = [];
-    let prevRho = NaN;
-    let prevResid = Infinity;
-    let prevDelta = NaN;
+    const test = new RayleighConvergence(tolerance);
     let converged = false;
     let it = 0;
     while (it < maxIterations) {
@@ -116,19 +111,10 @@ export function forwardIteration(input: MethodInput): RawEigenResult {
         y[i] = (yb[i] as number) * c;
       }
       history.push(rho);
-      const delta = Math.abs(rho - prevRho) / Math.max(Math.abs(rho), Number.MIN_VALUE);
-      if (Number.isFinite(delta)) {
-        const q = delta / prevDelta;
-        const estimate = Number.isFinite(q) && q < 1 ? (delta * q) / (1 - q) : delta;
-        const vectorOk = resid <= vecTol || (resid <= sqrtTol && resid >= 0.95 * prevResid);
-        if (vectorOk && (estimate <= tolerance || delta <= 16 * EPS)) {
-          converged = true;
-          break;
-        }
+      if (test.converged(rho, Math.abs(rho), resid)) {
+        converged = true;
+        break;
       }
-      prevDelta = delta;
-      prevRho = rho;
-      prevResid = resid;
       onProgress?.({
         stage: 'forward iteration',
         iteration: it,
@@ -150,14 +136,5 @@ export function forwardIteration(input: MethodInput): RawEigenResult {
     out.iterations.push(it);
     out.histories.push(history);
   }
-  const order = out.lambdas
-    .map((_, k) => k)
-    .sort((p, q) => (out.lambdas[p] as number) - (out.lambdas[q] as number));
-  return {
-    lambdas: order.map((k) => out.lambdas[k] as number),
-    vectors: order.map((k) => out.vectors[k] as Float64Array),
-    iterations: order.map((k) => out.iterations[k] as number),
-    histories: order.map((k) => out.histories[k] as number[]),
-    notes: out.notes,
-  };
+  return byAscendingLambda(out);
 }

@@ -18,13 +18,13 @@ import { seededRandom } from './random';
 import type { MethodInput, RawEigenResult } from './types';
 import {
   acceptMassNormalized,
+  byAscendingLambda,
   checkCancelled,
   mOrthogonalize,
   pencilSize,
+  RayleighConvergence,
   startVector,
 } from './vector-tools';
-
-const EPS = 2 ** -52;
 
 /**
  * Vector iteration on (K − σM)⁻¹M for `count` modes (σ = `input.shift`).
@@ -52,9 +52,6 @@ export function inverseIteration(input: MethodInput, label = 'inverse iteration'
   const want = Math.min(count, n);
   const xb = new Float64Array(n);
   const yb = new Float64Array(n);
-  const sqrtTol = Math.sqrt(tolerance);
-  // vector residual wanted: tol^¾ (backward error well below tol), or √tol once it stagnates
-  const vecTol = tolerance ** 0.75;
   for (let mode = 0; mode < want; mode++) {
     // start vector, M-orthogonal to the converged ones and with xᵀMx > 0
     let x = startVector(n, rand);
@@ -82,9 +79,7 @@ export function inverseIteration(input: MethodInput, label = 'inverse iteration'
       x = startVector(n, rand);
     }
     const history: number[] = [];
-    let prevRho = NaN;
-    let prevResid = Infinity;
-    let prevDelta = NaN;
+    const test = new RayleighConvergence(tolerance);
     let converged = false;
     let it = 0;
     while (it < maxIterations) {
@@ -122,21 +117,10 @@ export function inverseIteration(input: MethodInput, label = 'inverse iteration'
       }
       const lambda = shift + rho;
       history.push(lambda);
-      const scale = Math.max(Math.abs(lambda), Math.abs(shift), Number.MIN_VALUE);
-      const delta = Math.abs(rho - prevRho) / scale;
-      if (Number.isFinite(delta)) {
-        const q = delta / prevDelta;
-        const estimate = Number.isFinite(q) && q < 1 ? (delta * q) / (1 - q) : delta;
-        const atRoundoff = delta <= 16 * EPS;
-        const vectorOk = resid <= vecTol || (resid <= sqrtTol && resid >= 0.95 * prevResid);
-        if (vectorOk && (estimate <= tolerance || atRoundoff)) {
-          converged = true;
-          break;
-        }
+      if (test.converged(rho, Math.max(Math.abs(lambda), Math.abs(shift)), resid)) {
+        converged = true;
+        break;
       }
-      prevDelta = delta;
-      prevRho = rho;
-      prevResid = resid;
       onProgress?.({ stage: label, iteration: it, modesConverged: mode, modesWanted: want });
     }
     if (!converged) {
@@ -155,15 +139,6 @@ export function inverseIteration(input: MethodInput, label = 'inverse iteration'
     result.histories.push(history);
     onProgress?.({ stage: label, iteration: it, modesConverged: mode + 1, modesWanted: want });
   }
-  // order ascending (shifted iteration finds them in order of distance from the shift)
-  const order = result.lambdas
-    .map((_, k) => k)
-    .sort((p, q) => (result.lambdas[p] as number) - (result.lambdas[q] as number));
-  return {
-    lambdas: order.map((k) => result.lambdas[k] as number),
-    vectors: order.map((k) => result.vectors[k] as Float64Array),
-    iterations: order.map((k) => result.iterations[k] as number),
-    histories: order.map((k) => result.histories[k] as number[]),
-    notes: result.notes,
-  };
+  // shifted iteration finds the modes in order of distance from the shift
+  return byAscendingLambda(result);
 }

@@ -7,6 +7,7 @@ import { combine, diagonalOf, factorizeSymmetric } from '../linalg/factorize';
 import { matrixSize, symmetricMultiply } from '../linalg/sparse';
 import type { ShiftedPencil } from '../linalg/sparse-ldlt/shifted';
 import type { SymmetricMatrix } from '../linalg/types';
+import type { RawEigenResult } from './types';
 
 /**
  * Removes from x its M-components along the converged vectors φ_i (ψ_i = Mφ_i, φ_iᵀMφ_i = 1):
@@ -173,4 +174,64 @@ export function dotv(x: Float64Array, y: Float64Array): number {
   let s = 0;
   for (let i = 0; i < x.length; i++) s += x[i]! * y[i]!;
   return s;
+}
+
+const EPS = 2 ** -52;
+
+/**
+ * The stopping rule of forward and inverse vector iteration (Bathe, *Finite Element Procedures*,
+ * 1996, §11.2.1; the error estimate is Aitken's: with q = δ_k/δ_{k−1} < 1 the error left in ρ is
+ * about δ_k q/(1 − q)). A mode has converged when that estimate is at or below the tolerance (or
+ * the change δ_k is at roundoff, 16ε) and the vector residual ‖·‖_M is at or below tolerance^¾,
+ * or at or below √tolerance once it has stopped decreasing (within 5 %).
+ * @example const test = new RayleighConvergence(1e-10); if (test.converged(rho, Math.abs(rho), r)) …
+ */
+export class RayleighConvergence {
+  private prevRho = NaN;
+  private prevDelta = NaN;
+  private prevResid = Infinity;
+  private readonly sqrtTol: number;
+  private readonly vecTol: number;
+
+  constructor(private readonly tolerance: number) {
+    this.sqrtTol = Math.sqrt(tolerance);
+    this.vecTol = tolerance ** 0.75;
+  }
+
+  /**
+   * Takes this iteration's quotient ρ, the scale δ is measured against, and the vector residual;
+   * true when the mode has converged.
+   */
+  converged(rho: number, scale: number, resid: number): boolean {
+    const delta = Math.abs(rho - this.prevRho) / Math.max(scale, Number.MIN_VALUE);
+    if (Number.isFinite(delta)) {
+      const q = delta / this.prevDelta;
+      const estimate = Number.isFinite(q) && q < 1 ? (delta * q) / (1 - q) : delta;
+      const vectorOk =
+        resid <= this.vecTol || (resid <= this.sqrtTol && resid >= 0.95 * this.prevResid);
+      if (vectorOk && (estimate <= this.tolerance || delta <= 16 * EPS)) return true;
+    }
+    this.prevDelta = delta;
+    this.prevRho = rho;
+    this.prevResid = resid;
+    return false;
+  }
+}
+
+/**
+ * The modes of a vector-iteration result in ascending order of λ (shifted and forward iteration
+ * find them in another order).
+ * @example byAscendingLambda({ lambdas: [4, 1], vectors, iterations, histories, notes })
+ */
+export function byAscendingLambda(r: RawEigenResult): RawEigenResult {
+  const order = r.lambdas
+    .map((_, k) => k)
+    .sort((p, q) => (r.lambdas[p] as number) - (r.lambdas[q] as number));
+  return {
+    ...r,
+    lambdas: order.map((k) => r.lambdas[k] as number),
+    vectors: order.map((k) => r.vectors[k] as Float64Array),
+    iterations: order.map((k) => r.iterations[k] as number),
+    histories: order.map((k) => r.histories[k] as number[]),
+  };
 }
