@@ -4,6 +4,7 @@
  * to the client as they are. See core/sheet/README.md for the block syntax.
  */
 import type { DenseTeam } from '../eigen/dense/team';
+import type { WalkingResult } from '../response/walking';
 
 import { BLOCK_KINDS, type BlockKind } from '../vocabulary';
 
@@ -290,17 +291,9 @@ export interface HistoryResponseData {
   dtCrDamped: number;
 }
 
-export interface WalkingResponseData {
-  mode: number;
-  dof: number;
+/** A walking check as the sheet shows it: the analysis result, the DOF's label and the limit. */
+export interface WalkingResponseData extends Omit<WalkingResult, 'method'> {
   label: string;
-  frequency: number;
-  modalMass: number;
-  weight: number;
-  force: number;
-  damping: number;
-  acceleration: number;
-  ratio: number;
   limit: number | null;
   pass: boolean | null;
 }
