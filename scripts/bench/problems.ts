@@ -1,4 +1,4 @@
-// The benchmark problems of issue 4, built with the model generators of core/models.
+// The benchmark problems, built with the model generators of core/models.
 import {
   buildBuildingFrame,
   buildPlaneStressPlate,

@@ -12,7 +12,7 @@ import {
 } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
-// Mail to whoever must act next (issue 7 item 9): with no MW_SMTP_URL every message lands in the
+// Mail to whoever must act next: with no MW_SMTP_URL every message lands in the
 // outbox table. Checkers on issue, the author on a remark and on return, principals on sign off,
 // every member on seal.
 

@@ -8,7 +8,7 @@ import {
 } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
-// Remarks (issue 7 item 3, server side): a checker remarks on a line, the author answers by
+// Remarks (server side): a checker remarks on a line, the author answers by
 // replying, the checker closes; roles, states and the line checked against the frozen block.
 
 let t: TestApp;

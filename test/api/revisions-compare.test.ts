@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { saveDraft, createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
-// Compare (issue 7 item 4) and the print payload (item 8), server side.
+// Compare and the print payload, server side.
 
 let t: TestApp;
 let team: Awaited<ReturnType<typeof createProjectTeam>>;

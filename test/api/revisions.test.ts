@@ -9,7 +9,7 @@ import {
 } from '../support/api-app';
 import { addMember, createProjectTeam, createUser, unique } from '../support/factories';
 
-// Issue for check, return and sign off (issue 7 items 1, 2, 5, 10) through the real app against
+// Issue for check, return and sign off through the real app against
 // MariaDB: every transition with the right role, the wrong role and in the wrong state.
 
 let t: TestApp;

@@ -15,7 +15,7 @@ import {
   down as contentTriggerDown,
 } from '../../migrations/20261203000700_revisions_content_immutable';
 
-// Sealing (issue 7 item 6): the refusals each with its reason, the seal record's digest and
+// Sealing: the refusals each with its reason, the seal record's digest and
 // Ed25519 signature checked here with node:crypto, supersession, and the password change that
 // re-encrypts the signing key.
 

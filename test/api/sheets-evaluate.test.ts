@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { anonymous, createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
-// Evaluating a sheet's draft on the server (issue 6 item 3, server side): the three templates,
+// Evaluating a sheet's draft on the server: the three templates,
 // uploads resolved by name, the streamed variant, roles.
 
 const fixtures = path.resolve(import.meta.dirname, '..', 'fixtures', 'uploads');

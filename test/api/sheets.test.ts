@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { anonymous, createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
-// The sheets API (issue 6 item 1) against the real MariaDB: create, read, rename, draft saves
+// The sheets API against the real MariaDB: create, read, rename, draft saves
 // with optimistic concurrency, delete of never-issued drafts, roles.
 
 let t: TestApp;

@@ -8,8 +8,8 @@ import {
 import { createProjectTeam, unique } from '../support/factories';
 import { withoutTriggers as withoutTriggersIn } from '../support/without-triggers';
 
-// The database refuses to change what was sealed, whatever the API does (issue 7 item 1), and
-// verify notices a changed byte when the triggers are gone (issue 7 item 7).
+// The database refuses to change what was sealed, whatever the API does, and
+// verify notices a changed byte when the triggers are gone.
 
 let t: TestApp;
 let team: Awaited<ReturnType<typeof createProjectTeam>>;

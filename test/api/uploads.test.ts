@@ -12,7 +12,7 @@ import {
 } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
-// Uploading matrix files to a sheet (issue 6 item 1): good Matrix Market and CSV files, bad ones
+// Uploading matrix files to a sheet: good Matrix Market and CSV files, bad ones
 // refused at their line, the size limit, roles. Fixture contents: test/fixtures/uploads/README.md.
 
 const fixtures = path.resolve(import.meta.dirname, '..', 'fixtures', 'uploads');

@@ -9,7 +9,7 @@ import {
 } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
 
-// The public verify route (issue 7 item 7): no sign-in, the verdict with sheet, project,
+// The public verify route: no sign-in, the verdict with sheet, project,
 // revision, principal, licence and date; codes typed loosely; unknown codes; supersession; the
 // rate limit. Tampering is tested in triggers.test.ts.
 

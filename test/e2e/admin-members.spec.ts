@@ -1,4 +1,4 @@
-// Issue 2, browser: the admin adds a member on the project page, the member then sees the
+// Browser: the admin adds a member on the project page, the member then sees the
 // project, the admin changes the member's roles (by keyboard) and removes them; the activity list
 // records each step.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';

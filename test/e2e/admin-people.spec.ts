@@ -1,4 +1,4 @@
-// Issue 2, browser: the admin screen lists the people of the installation and adds one, who can
+// Browser: the admin screen lists the people of the installation and adds one, who can
 // then sign in and sees the empty state of a person in no project.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {

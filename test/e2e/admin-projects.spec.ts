@@ -1,4 +1,4 @@
-// Issue 2, browser: the admin starts a project (a duplicate job number is refused by its field),
+// Browser: the admin starts a project (a duplicate job number is refused by its field),
 // finds it with the filter, and corrects its details; the activity list records each step.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {

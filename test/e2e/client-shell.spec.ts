@@ -1,4 +1,4 @@
-// Issue 2, browser: the built client loads nothing from outside its own server (fonts bundled),
+// Browser: the built client loads nothing from outside its own server (fonts bundled),
 // keeps to the strict Content Security Policy, and every page carries the caution of DESIGN §12.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {

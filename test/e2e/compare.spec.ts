@@ -1,4 +1,4 @@
-// Issue 7, browser: comparing two revisions of the demo footbridge sheet (DYN-01, Rev 1 returned
+// Browser: comparing two revisions of the demo footbridge sheet (DYN-01, Rev 1 returned
 // with a query on the services allowance, Rev 2 with it revised; seeds/02 and 03) shows the source
 // change, the results that moved with them to six significant figures, and folds away the results
 // that differ only in the last binary digits.

@@ -1,4 +1,4 @@
-// Issue 2, browser: each demo person signs in and sees their projects, and only those.
+// Browser: each demo person signs in and sees their projects, and only those.
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import {
   demoPeople,

@@ -1,4 +1,4 @@
-// Issue 6, browser: the engine's note that a fine mesh's conditioning λ_max/λ₁ costs digits is
+// Browser: the engine's note that a fine mesh's conditioning λ_max/λ₁ costs digits is
 // shown as information with its numbers, in the editor and on the issued revision, while a real
 // warning about a solve (here: matrices without units, taken as SI) stays a warning.
 import { describe, expect, it } from 'vitest';

@@ -1,4 +1,4 @@
-// Issue 6, browser: drafts that are never lost — the same sheet edited in two tabs and the
+// Browser: drafts that are never lost — the same sheet edited in two tabs and the
 // conflict resolved keeping both texts; blocks duplicated, moved by keyboard and by drag, deleted
 // and restored with undo.
 import { describe, expect, it } from 'vitest';

@@ -1,4 +1,4 @@
-// Issue 6, browser: Matrix Market files dragged from the desktop and dropped on the sheet are
+// Browser: Matrix Market files dragged from the desktop and dropped on the sheet are
 // uploaded, each becomes a matrix block that refers to it, and a modes block solves them.
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';

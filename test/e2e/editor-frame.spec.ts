@@ -1,4 +1,4 @@
-// Issue 6, browser: the author builds a three-storey frame sheet from storey data, runs the
+// Browser: the author builds a three-storey frame sheet from storey data, runs the
 // modes, sees the frequencies and the mass ratios, adds a criterion that fails and sees it fail.
 // Screenshots of the text, calc, modes and criteria blocks go to test-results/screenshots/.
 import { readFile } from 'node:fs/promises';

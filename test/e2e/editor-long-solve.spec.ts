@@ -1,4 +1,4 @@
-// Issue 6, browser: a long solve shows its progress and is cancelled.
+// Browser: a long solve shows its progress and is cancelled.
 import { describe, expect, it } from 'vitest';
 import { saveScreenshot } from '../support/browser';
 import { RUN, addBlock, newSheet, waitSaved, useAuthorBrowser } from './editor-helpers';

@@ -1,4 +1,4 @@
-// Issue 7, browser: after a seal the author keeps working on the draft: the sealed revision stays
+// Browser: after a seal the author keeps working on the draft: the sealed revision stays
 // as it is and the editor says the changes go into the next revision.
 import { describe, expect, it } from 'vitest';
 import { saveScreenshot } from '../support/browser';

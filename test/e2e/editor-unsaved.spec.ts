@@ -1,4 +1,4 @@
-// Issue 6, browser: an edit made while the server cannot be reached is kept, the editor says it is
+// Browser: an edit made while the server cannot be reached is kept, the editor says it is
 // not saved and retries, and it reaches the server once the network is back; leaving the page with
 // work the server does not have asks first (the browser's leave-page dialog), and does not once it
 // is saved.

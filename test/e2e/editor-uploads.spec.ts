@@ -1,4 +1,4 @@
-// Issue 6, browser: a Matrix Market pair uploaded with the picker becomes two matrix blocks and
+// Browser: a Matrix Market pair uploaded with the picker becomes two matrix blocks and
 // is solved; a typed non-symmetric matrix shows its error at the line, underlined, on hover.
 import { mkdtemp, writeFile } from 'node:fs/promises';
 import os from 'node:os';

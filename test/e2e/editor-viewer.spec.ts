@@ -1,4 +1,4 @@
-// Issue 6, browser: a viewer opens a sheet and sees its results, with nothing to edit.
+// Browser: a viewer opens a sheet and sees its results, with nothing to edit.
 import { describe, expect, it } from 'vitest';
 import { demoPeople, launchBrowser, saveScreenshot, signInAs } from '../support/browser';
 import { projectHref, waitForResults, useAuthorBrowser } from './editor-helpers';

@@ -1,4 +1,4 @@
-// Issue 8, browser: the printed package reads as a calculation: a text block's Markdown is set as
+// Browser: the printed package reads as a calculation: a text block's Markdown is set as
 // headings and paragraphs with its formulas typeset, not printed as source; calc, modes and
 // criteria blocks keep their numbered source lines above their results.
 import { readFile } from 'node:fs/promises';

@@ -1,4 +1,4 @@
-// Issue 7, browser, the whole flow as the three demo people: the author issues Rev 1; the checker
+// Browser, the whole flow as the three demo people: the author issues Rev 1; the checker
 // remarks on a line and returns it; the author inserts a line above it and issues Rev 2; the
 // checker sees the remark carried to the line it now points to, closes it and signs off; the
 // principal is refused with a wrong password, then seals; the public verify page (no sign-in)

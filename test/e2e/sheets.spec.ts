@@ -1,4 +1,4 @@
-// Issue 6, browser: the sheets table on the project page — sorted and filtered — and the New sheet
+// Browser: the sheets table on the project page — sorted and filtered — and the New sheet
 // dialog: a taken number is refused at its field, and a template starts a real sheet.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {

@@ -1,4 +1,4 @@
-// Issue 2, browser: a wrong password shows the server's message by the field; protected pages
+// Browser: a wrong password shows the server's message by the field; protected pages
 // send strangers to sign in and back; sign-out ends the session; the form works by keyboard.
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import {

@@ -1,4 +1,4 @@
-// Issue 7, browser: the public verify page without signing in — the code box, an empty box
+// Browser: the public verify page without signing in — the code box, an empty box
 // refused at its field, and a code no seal has reported as unknown (not as "does not match").
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { launchBrowser, saveScreenshot, type BrowserSession } from '../support/browser';

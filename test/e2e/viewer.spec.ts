@@ -1,4 +1,4 @@
-// Issue 2, browser: the viewer (Lena, the client's representative) sees the project but none of
+// Browser: the viewer (Lena, the client's representative) sees the project but none of
 // the admin controls, and is refused a project she is not a member of.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {

@@ -9,7 +9,7 @@ const positive = (raw: string | null) => {
   return Number.isInteger(n) && n > 0 ? n : null;
 };
 
-/** Compare two revisions, or a revision and the draft (issue 7, item 4). */
+/** Compare two revisions, or a revision and the draft. */
 export function CompareRoute() {
   const { sheetId: raw } = useParams();
   const [search, setSearch] = useSearchParams();

@@ -5,7 +5,7 @@ import { RevisionView } from '../../features/review/components/revision-view';
 import { SealDialog } from '../../features/seal/components/seal-dialog';
 import { useSignedInUser } from './use-user';
 
-/** A revision, read-only, with its remarks; the checker's and principal's actions (issue 7). */
+/** A revision, read-only, with its remarks; the checker's and principal's actions. */
 export function RevisionRoute() {
   const user = useSignedInUser();
   const { revisionId: raw } = useParams();

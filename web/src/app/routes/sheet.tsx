@@ -16,7 +16,7 @@ const SheetEditor = lazy(() =>
   import('../../features/editor/components/sheet-editor').then((m) => ({ default: m.SheetEditor })),
 );
 
-/** The sheet editor on the draft (issue 6). */
+/** The sheet editor on the draft. */
 export function SheetRoute() {
   const { sheetId: raw } = useParams();
   const sheetId = Number(raw);

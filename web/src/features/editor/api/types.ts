@@ -1,4 +1,4 @@
-// The shapes the sheets API sends (the sheets contract, issue 6). Times are ISO-8601 UTC strings.
+// The shapes the sheets API sends (the sheets contract). Times are ISO-8601 UTC strings.
 
 export const BLOCK_KINDS = ['text', 'calc', 'matrix', 'modes', 'response', 'criteria'] as const;
 export type BlockKind = (typeof BLOCK_KINDS)[number];
