@@ -153,6 +153,19 @@ export function factorizeSparseLdlt(
     factorNonzeros: nnzL + n,
     symbolic,
     pivots: D,
+    ...solvers(n, solveInto),
+  };
+}
+
+/**
+ * `solve` and `solveMany` of a factorization from its one-vector solve (b at bOff → out at oOff),
+ * with the size checks both need.
+ */
+function solvers(
+  n: number,
+  solveInto: (b: Float64Array, bOff: number, out: Float64Array, oOff: number) => void,
+): Pick<SparseLdltFactorization, 'solve' | 'solveMany'> {
+  return {
     solve(b: Float64Array, out?: Float64Array): Float64Array {
       if (b.length !== n) {
         throw new EngineError(
@@ -218,28 +231,7 @@ function multifrontalFactorization(
     factorNonzeros: symbolic.factorNonzeros,
     symbolic,
     pivots: fac.pivots,
-    solve(b: Float64Array, out?: Float64Array): Float64Array {
-      if (b.length !== n) {
-        throw new EngineError(
-          'MATRIX_SIZE_MISMATCH',
-          `The right-hand side has ${b.length} entries but the matrix has ${n} rows.`,
-        );
-      }
-      const x = out ?? new Float64Array(n);
-      solveInto(b, 0, x, 0);
-      return x;
-    },
-    solveMany(b: Float64Array, count: number, out?: Float64Array): Float64Array {
-      if (b.length !== n * count) {
-        throw new EngineError(
-          'MATRIX_SIZE_MISMATCH',
-          `${count} right-hand sides of ${n} entries need ${n * count} values, got ${b.length}.`,
-        );
-      }
-      const x = out ?? new Float64Array(n * count);
-      for (let c = 0; c < count; c++) solveInto(b, c * n, x, c * n);
-      return x;
-    },
+    ...solvers(n, solveInto),
   };
 }
 
