@@ -118,11 +118,12 @@ export function reverseCuthillMcKee(A: SparseSymmetricMatrix): Int32Array {
 }
 
 /**
- * Profile (envelope) size of a sparse symmetric matrix under a permutation: Σ_i (i − first_i + 1),
- * the number of entries a skyline factor stores.
- * @example profileSize(K, reverseCuthillMcKee(K))
+ * First column of each row of a sparse symmetric matrix under a permutation (its envelope): the
+ * row i of the permuted matrix has no entry left of first[i] (George & Liu, *Computer Solution of
+ * Large Sparse Positive Definite Systems*, 1981, §4.1).
+ * @example envelopeFirst(K, reverseCuthillMcKee(K))
  */
-export function profileSize(A: SparseSymmetricMatrix, perm?: Int32Array): number {
+export function envelopeFirst(A: SparseSymmetricMatrix, perm?: Int32Array | null): Int32Array {
   const n = A.n;
   const inv = new Int32Array(n);
   for (let k = 0; k < n; k++) inv[perm ? (perm[k] as number) : k] = k;
@@ -137,7 +138,17 @@ export function profileSize(A: SparseSymmetricMatrix, perm?: Int32Array): number
       if (c < (first[r] as number)) first[r] = c;
     }
   }
+  return first;
+}
+
+/**
+ * Profile (envelope) size of a sparse symmetric matrix under a permutation: Σ_i (i − first_i + 1),
+ * the number of entries a skyline factor stores.
+ * @example profileSize(K, reverseCuthillMcKee(K))
+ */
+export function profileSize(A: SparseSymmetricMatrix, perm?: Int32Array): number {
+  const first = envelopeFirst(A, perm);
   let s = 0;
-  for (let i = 0; i < n; i++) s += i - (first[i] as number) + 1;
+  for (let i = 0; i < A.n; i++) s += i - (first[i] as number) + 1;
   return s;
 }

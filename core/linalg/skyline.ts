@@ -5,7 +5,7 @@
  */
 import { EngineError } from '../errors';
 import { ZERO_PIVOT_TOLERANCE } from './dense';
-import { profileSize, reverseCuthillMcKee } from './ordering';
+import { envelopeFirst, profileSize, reverseCuthillMcKee } from './ordering';
 import type { SparseSymmetricMatrix, SymmetricFactorization } from './types';
 
 /** Options of the skyline factorization. */
@@ -34,17 +34,7 @@ export function skylineLDLT(
   for (let k = 0; k < n; k++) inv[perm ? (perm[k] as number) : k] = k;
 
   // first column of each (permuted) row
-  const first = new Int32Array(n);
-  for (let i = 0; i < n; i++) first[i] = i;
-  for (let j = 0; j < n; j++) {
-    for (let p = A.colPtr[j] as number; p < (A.colPtr[j + 1] as number); p++) {
-      const a = inv[A.rowIdx[p] as number] as number;
-      const b = inv[j] as number;
-      const r = a > b ? a : b;
-      const c = a > b ? b : a;
-      if (c < (first[r] as number)) first[r] = c;
-    }
-  }
+  const first = envelopeFirst(A, perm);
   // rowStart[i] points at the entry (i, first[i]); the diagonal sits at rowStart[i] + i - first[i]
   const rowStart = new Float64Array(n + 1);
   for (let i = 0; i < n; i++)
