@@ -18,59 +18,6 @@ export function denseZeros(rows: number, cols: number = rows): DenseMatrix {
 }
 
 /**
- * y = A x for a general dense matrix (rows × cols).
- * @throws EngineError MATRIX_SIZE_MISMATCH when x has the wrong length.
- * @example denseMultiply(A, x)
- */
-export function denseMultiply(A: DenseMatrix, x: Float64Array, out?: Float64Array): Float64Array {
-  if (x.length !== A.cols) {
-    throw new EngineError(
-      'MATRIX_SIZE_MISMATCH',
-      `Vector has ${x.length} entries but the matrix has ${A.cols} columns.`,
-    );
-  }
-  const y = out ?? new Float64Array(A.rows);
-  const d = A.data;
-  const n = A.cols;
-  for (let i = 0; i < A.rows; i++) {
-    let s = 0;
-    const o = i * n;
-    for (let j = 0; j < n; j++) s += (d[o + j] as number) * (x[j] as number);
-    y[i] = s;
-  }
-  return y;
-}
-
-/**
- * C = A B for dense matrices (a block of vectors is a dense matrix with one column per vector).
- * @throws EngineError MATRIX_SIZE_MISMATCH when the inner sizes differ.
- * @example const C = denseMultiplyMatrix(A, B);
- */
-export function denseMultiplyMatrix(A: DenseMatrix, B: DenseMatrix): DenseMatrix {
-  if (A.cols !== B.rows) {
-    throw new EngineError(
-      'MATRIX_SIZE_MISMATCH',
-      `Cannot multiply a ${A.rows} × ${A.cols} matrix by a ${B.rows} × ${B.cols} matrix.`,
-    );
-  }
-  const C = denseZeros(A.rows, B.cols);
-  const a = A.data;
-  const b = B.data;
-  const c = C.data;
-  const m = B.cols;
-  for (let i = 0; i < A.rows; i++) {
-    for (let k = 0; k < A.cols; k++) {
-      const aik = a[i * A.cols + k] as number;
-      if (aik === 0) continue;
-      const bo = k * m;
-      const co = i * m;
-      for (let j = 0; j < m; j++) c[co + j] = (c[co + j] as number) + aik * (b[bo + j] as number);
-    }
-  }
-  return C;
-}
-
-/**
  * Checks that a dense matrix is square, finite and symmetric. Entries that differ from their mirror
  * by no more than `relTol` × max(|a_ij|, |a_ji|) (default 1e-9, enough for files written with ~10
  * significant digits) are accepted.

@@ -3,7 +3,7 @@
  * with their block and line; evaluation goes on with the lines and blocks after an error, and
  * names a failed line would have defined are reported as such where they are used.
  */
-import { EngineError, isEngineError } from '../errors';
+import { EngineError } from '../errors';
 import { evaluateCalcBlock } from './blocks/calc';
 import { evaluateCriteriaBlock } from './blocks/criteria';
 import { evaluateMatrixBlock } from './blocks/matrix';
@@ -70,30 +70,25 @@ export function evaluateSheet(sheet: Sheet, options: EvaluateOptions = {}): Shee
       kind: block.kind,
       message: `Evaluating block ${blockIndex + 1} of ${sheet.blocks.length} (${block.kind})`,
     });
-    try {
-      switch (block.kind) {
-        case 'text':
-          blocks.push({ kind: 'text', blockId: block.id, blockIndex, ok: true });
-          break;
-        case 'calc':
-          blocks.push(evaluateCalcBlock(ctx, block, blockIndex));
-          break;
-        case 'criteria':
-          blocks.push(evaluateCriteriaBlock(ctx, block, blockIndex));
-          break;
-        case 'matrix':
-          blocks.push(evaluateMatrixBlock(ctx, block, blockIndex));
-          break;
-        case 'modes':
-          blocks.push(evaluateModesBlock(ctx, block, blockIndex));
-          break;
-        case 'response':
-          blocks.push(evaluateResponseBlock(ctx, block, blockIndex));
-          break;
-      }
-    } catch (err) {
-      if (isEngineError(err) && err.code === 'CANCELLED') throw err;
-      throw err;
+    switch (block.kind) {
+      case 'text':
+        blocks.push({ kind: 'text', blockId: block.id, blockIndex, ok: true });
+        break;
+      case 'calc':
+        blocks.push(evaluateCalcBlock(ctx, block, blockIndex));
+        break;
+      case 'criteria':
+        blocks.push(evaluateCriteriaBlock(ctx, block, blockIndex));
+        break;
+      case 'matrix':
+        blocks.push(evaluateMatrixBlock(ctx, block, blockIndex));
+        break;
+      case 'modes':
+        blocks.push(evaluateModesBlock(ctx, block, blockIndex));
+        break;
+      case 'response':
+        blocks.push(evaluateResponseBlock(ctx, block, blockIndex));
+        break;
     }
   });
   let passed = 0;
