@@ -40,6 +40,8 @@ export function ModesResult({
   fileStem: string;
 }) {
   const name = result.name ?? 'modes';
+  // A direct solve has no iteration history: no empty chart for it.
+  const iterated = result.histories.some((h) => h.length > 0);
   return (
     <div className="flex flex-col gap-3 text-sm">
       <p className="text-ink-soft">
@@ -133,7 +135,7 @@ export function ModesResult({
       ) : null}
       <ModesWarnings result={result} />
       <ModesDownloads result={result} fileStem={fileStem} />
-      {(result.shapes && result.shapes.length > 0) || result.histories.length > 0 ? (
+      {(result.shapes && result.shapes.length > 0) || iterated ? (
         <Suspense fallback={<Spinner label="Drawing the plots…" />}>
           <div className="flex flex-col gap-4 md:flex-row">
             {result.shapes && result.shapes.length > 0 ? (
@@ -143,7 +145,7 @@ export function ModesResult({
                 dofLabels={result.dofLabels}
               />
             ) : null}
-            {result.histories.length > 0 ? <ConvergencePlot histories={result.histories} /> : null}
+            {iterated ? <ConvergencePlot histories={result.histories} /> : null}
           </div>
         </Suspense>
       ) : null}
