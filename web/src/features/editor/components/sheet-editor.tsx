@@ -1,5 +1,7 @@
 import { useCallback, useEffect, useMemo, useRef, useState, type DragEvent } from 'react';
+import { Link } from 'react-router-dom';
 import { Alert, QueryError } from '../../../components/ui/alert';
+import { paths } from '../../../config/paths';
 import { Spinner } from '../../../components/ui/spinner';
 import { useSheet } from '../api/get-sheet';
 import type { SheetIssue } from '../api/results';
@@ -292,6 +294,13 @@ function EditorSurface({
               + {KIND_LABELS[kind]}
             </button>
           ))}
+          <Link
+            to={paths.reference.href()}
+            target="_blank"
+            className="text-xs text-accent-strong underline underline-offset-2"
+          >
+            Sheet reference
+          </Link>
           <label className="ml-auto flex items-center gap-1 text-xs text-ink-soft">
             Significant figures
             <input

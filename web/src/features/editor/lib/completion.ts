@@ -5,25 +5,26 @@ import {
   type CompletionResult,
 } from '@codemirror/autocomplete';
 import type { Extension } from '@codemirror/state';
+import { hoverTooltip } from '@codemirror/view';
+import { functionReference, keyReference } from '../../../config/sheet-reference';
 import type { BlockKind } from '../api/types';
 import { MATRIX_KEYS, MODES_KEYS, MODES_METHODS, SHEET_FUNCTIONS } from './sheet-language';
 import type { ScopeName } from './scope';
 
-const KEY_HINTS: Record<string, string> = {
-  stiffness: 'name of K, e.g. frame.K',
-  mass: 'name of M, e.g. frame.M',
-  method: MODES_METHODS.join(' | '),
-  count: 'number of modes',
-  shift: 'target frequency, e.g. 24.5 Hz',
-  tolerance: 'e.g. 1e-10',
-  'max iterations': 'e.g. 200',
-  normalize: 'mass | max | dof <n>',
-  direction: 'influence vector for participation',
-  name: 'results are bound under this name',
-  unit: 'one unit for every entry, e.g. kN/m',
-  symmetric: 'yes | no',
-  from: 'name of an uploaded file',
-};
+/** A key's value as the reference states it, beside the key in the completion list. */
+const keyHint = (kind: BlockKind, key: string) => keyReference(kind, key)?.value ?? '';
+
+/** A function's signature beside it, its units and summary in the info panel. */
+function functionOption(name: string): Completion {
+  const ref = functionReference(name);
+  return {
+    label: name,
+    type: 'function',
+    ...(ref
+      ? { detail: ref.signature, info: `${ref.summary} Units: ${ref.units}.`.replace(/`/g, '') }
+      : {}),
+  };
+}
 
 /**
  * Completion of names in scope (and, in `modes` and `matrix` blocks, of the header keys and the
@@ -48,7 +49,8 @@ export function sheetCompletion(
           options: keys.map<Completion>((key) => ({
             label: `${key}: `,
             displayLabel: key,
-            detail: KEY_HINTS[key] ?? '',
+            detail: keyHint(kind, key),
+            info: keyReference(kind, key)?.summary ?? '',
             type: 'property',
           })),
           validFor: /^[A-Za-z ]*$/,
@@ -98,10 +100,56 @@ export function sheetCompletion(
           type: 'variable',
           boost: 1,
         })),
-        ...SHEET_FUNCTIONS.map<Completion>((f) => ({ label: f, type: 'function' })),
+        ...SHEET_FUNCTIONS.map(functionOption),
       ],
       validFor: /^[\w.]*$/,
     };
   };
   return autocompletion({ override: [source], activateOnTyping: true, icons: false });
+}
+
+/** The reference's words for a name under the pointer: a function's signature or a block key. */
+export function referenceAt(kind: BlockKind, lineText: string, column: number): string | null {
+  if (kind === 'modes' || kind === 'matrix') {
+    const colon = lineText.indexOf(':');
+    if (colon < 0 || column > colon) return null;
+    const key = lineText.slice(0, colon).trim().toLowerCase();
+    const ref = keyReference(kind, key);
+    return ref
+      ? `${ref.key}: ${ref.value}\n${ref.summary}${ref.default ? ` Default: ${ref.default}.` : ' Required.'}`
+      : null;
+  }
+  if (kind !== 'calc' && kind !== 'criteria') return null;
+  const hash = lineText.indexOf('#');
+  if (hash >= 0 && column >= hash) return null;
+  let start = column;
+  let end = column;
+  while (start > 0 && /\w/.test(lineText[start - 1]!)) start--;
+  while (end < lineText.length && /\w/.test(lineText[end]!)) end++;
+  const ref = functionReference(lineText.slice(start, end));
+  return ref ? `${ref.signature}\n${ref.summary} Units: ${ref.units}.` : null;
+}
+
+/** Hover on a function, generator or block key shows its signature and summary. */
+export function sheetHover(kind: BlockKind): Extension {
+  return hoverTooltip((view, pos) => {
+    const line = view.state.doc.lineAt(pos);
+    const text = referenceAt(kind, line.text, pos - line.from);
+    if (!text) return null;
+    return {
+      pos,
+      above: true,
+      create: () => {
+        const dom = document.createElement('div');
+        dom.className = 'mw-reference-tip';
+        dom.setAttribute('role', 'tooltip');
+        dom.style.whiteSpace = 'pre-line';
+        dom.style.maxWidth = '28rem';
+        dom.style.padding = '2px 6px';
+        dom.style.fontSize = '12px';
+        dom.textContent = text.replace(/`/g, '');
+        return { dom };
+      },
+    };
+  });
 }
