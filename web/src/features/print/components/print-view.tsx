@@ -6,6 +6,8 @@ import { Button } from '../../../components/ui/button';
 import { Spinner } from '../../../components/ui/spinner';
 import { formatUtc } from '../../../lib/format';
 import { usePrint, type PrintPackage } from '../api/get-print';
+import { pageMarginCss } from '../lib/page-margins';
+import { RemarksRecord, type PrintRemarks } from './remarks-record';
 import './print.css';
 
 // Markdown's own elements at print sizes (the base styles reset them).
@@ -48,14 +50,13 @@ function TitleBlock({ pkg }: { pkg: PrintPackage }) {
     >
       <Cell label="Firm" value={pkg.firm.name} wide />
       <Cell label="Project" value={pkg.project.name} wide />
+      <Cell label="Title" value={pkg.sheet.title} wide />
       <Cell label="Job no." value={pkg.project.jobNumber} />
       <Cell label="Sheet no." value={pkg.sheet.number} />
       <Cell label="Revision" value={`Rev ${r.number} — ${STATUS[r.status] ?? r.status}`} />
-      <Cell label="Title" value={pkg.sheet.title} />
       <Cell label="Prepared by" value={who(r.preparedBy, r.preparedAt)} />
       <Cell label="Checked by" value={who(r.checkedBy, r.checkedAt)} />
       <Cell label="Sealed by" value={who(r.sealedBy, r.sealedAt)} />
-      <Cell label="Page" value="see foot of page" />
     </div>
   );
 }
@@ -74,10 +75,13 @@ export function PrintView({
   revisionId,
   backHref,
   verifyUrl,
+  remarks,
 }: {
   revisionId: number;
   backHref: string;
   verifyUrl: (path: string) => string;
+  /** The revision's check remarks, printed after the sheet. */
+  remarks: PrintRemarks;
 }) {
   const print = usePrint(revisionId);
   if (print.isPending) return <Spinner label="Composing the calculation package…" />;
@@ -89,13 +93,16 @@ export function PrintView({
 
   return (
     <div className="mw-print mx-auto max-w-[210mm] bg-white p-6 shadow-sheet">
+      {/* the page numbers sit in the page's margin, right above the title block of each page */}
+      <style>{pageMarginCss(`${pkg.sheet.number} · Rev ${r.number}`)}</style>
       <div className="mw-no-print mb-4 flex items-center gap-3">
         <Link to={backHref} className="text-sm text-accent-strong hover:underline">
           ← Back to Rev {r.number}
         </Link>
         <Button onClick={() => window.print()}>Print or save as PDF</Button>
         <span className="text-xs text-ink-faint">
-          The title block repeats on every page; page numbers are printed at the foot.
+          The title block repeats on every page, with the sheet, revision and “Page x of y” above
+          it.
         </span>
       </div>
       <table className="mw-package">
@@ -202,6 +209,8 @@ export function PrintView({
                 {pkg.results.summary.errors > 0 ? `, ${pkg.results.summary.errors} errors` : ''}.
                 Engine {r.engineVersion}.
               </p>
+
+              <RemarksRecord revisionNumber={r.number} remarks={remarks} blocks={pkg.blocks} />
 
               <p
                 className="mt-3 border border-black/60 px-2 py-1 text-[8.5pt]"
