@@ -98,7 +98,7 @@ export function RevisionView({
       {remarks.isError ? (
         <QueryError what="the remarks" error={remarks.error} onRetry={() => remarks.refetch()} />
       ) : null}
-      <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_22rem]">
+      <div className="grid grid-cols-1 gap-4 lg:grid-cols-[minmax(0,1fr)_22rem]">
         <Blocks rev={rev} remarks={remarks.data ?? []} canRemark={isChecker && inCheck} />
         <RemarkList
           rev={rev}
@@ -135,7 +135,7 @@ function RevisionHeader({ rev, links }: { rev: RevisionDetail; links: RevisionLi
       <h1 className="text-xl font-semibold text-ink">
         {rev.sheet.title}: Rev {rev.number}
       </h1>
-      <dl className="mt-2 grid gap-x-6 gap-y-1 text-sm sm:grid-cols-2">
+      <dl className="mt-2 grid grid-cols-1 gap-x-6 gap-y-1 text-sm sm:grid-cols-2">
         <div className="flex gap-2">
           <dt className="text-ink-soft">Status</dt>
           <dd className="font-medium" data-testid="revision-status">
@@ -276,7 +276,7 @@ function Blocks({
 
   if (rev.blocks.length === 0) return <EmptyState title="This revision has no blocks" />;
   return (
-    <div className="flex flex-col gap-3" aria-label="Blocks of the revision">
+    <div className="flex min-w-0 flex-col gap-3" aria-label="Blocks of the revision">
       {canRemark ? (
         <p className="text-sm text-ink-soft">Click a line number to add a remark on that line.</p>
       ) : null}
@@ -369,7 +369,7 @@ function Blocks({
               })}
             </ol>
             {result && result.kind !== 'text' ? (
-              <div className="border-t border-rule px-3 py-2">
+              <div className="relative min-w-0 overflow-x-auto border-t border-rule px-3 py-2">
                 <BlockResultView
                   result={result}
                   fileStem={`${rev.sheet.number}_Rev${rev.number}`}
