@@ -49,6 +49,8 @@ export const ACTIVITY_ACTIONS = [
   'remark.added',
   'remark.carried',
   'remark.replied',
+  'remark.reply_edited',
+  'remark.reply_withdrawn',
   'remark.closed',
   'remark.reopened',
   'seal.refused',
