@@ -9,6 +9,7 @@ import { usePrint, type PrintPackage } from '../api/get-print';
 import { pageMarginCss } from '../lib/page-margins';
 import { RemarksRecord, type PrintRemarks } from './remarks-record';
 import './print.css';
+import { DIGEST_WORDS } from '../../../config/digests';
 
 // Markdown's own elements at print sizes (the base styles reset them).
 const PRINTED_MARKDOWN = [
@@ -234,8 +235,9 @@ export function PrintView({
                   <p>
                     Seal code <span className="font-mono font-bold">{pkg.seal.code}</span>
                   </p>
-                  <p className="font-mono text-[7.5pt] break-all">
-                    SHA-256 digest {pkg.seal.digest}
+                  <p className="text-[7.5pt] break-all">
+                    {DIGEST_WORDS.seal.label} <span className="font-mono">{pkg.seal.digest}</span> (
+                    {DIGEST_WORDS.seal.covers})
                   </p>
                   <p>
                     Verify at <span className="font-mono">{verifyUrl(pkg.seal.verifyPath)}</span>
