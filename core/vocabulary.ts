@@ -53,9 +53,55 @@ export const ACTIVITY_ACTIONS = [
   'remark.added',
   'remark.carried',
   'remark.replied',
+  'remark.reply_edited',
+  'remark.reply_withdrawn',
   'remark.closed',
   'remark.reopened',
   'seal.refused',
   'signing_key.created',
 ] as const;
 export type ActivityAction = (typeof ACTIVITY_ACTIONS)[number];
+
+/** The analyses a response block runs (core/sheet/blocks/response.ts). */
+export const RESPONSE_ANALYSES = ['spectrum', 'harmonic', 'history', 'walking'] as const;
+
+/** The keys every response block reads, whatever its analysis. */
+export const RESPONSE_COMMON_KEYS = ['modes', 'analysis', 'damping', 'name'] as const;
+
+/** The keys of each response analysis besides the common ones, in the order the reference lists them. */
+export const RESPONSE_ANALYSIS_KEYS = {
+  spectrum: [
+    'spectrum',
+    'sds',
+    'sd1',
+    'tl',
+    'r',
+    'ie',
+    'ground',
+    'ag',
+    'q',
+    'table',
+    'table unit',
+    'combine',
+    'direction',
+    'directional',
+    'heights',
+    'elf base shear',
+    'elf share',
+  ],
+  harmonic: ['force', 'unbalance', 'at', 'running speed', 'range', 'points', 'rayleigh', 'dofs'],
+  history: ['record', 'record unit', 'force', 'direction', 'step', 'duration', 'method', 'dofs'],
+  walking: ['mode', 'at', 'force', 'limit'],
+} as const satisfies Record<(typeof RESPONSE_ANALYSES)[number], readonly string[]>;
+
+export type ResponseKey =
+  | (typeof RESPONSE_COMMON_KEYS)[number]
+  | (typeof RESPONSE_ANALYSIS_KEYS)[keyof typeof RESPONSE_ANALYSIS_KEYS][number];
+
+/** Every key a response block knows (lower case), each once: the engine's and the editor's list. */
+export const RESPONSE_KEYS: readonly ResponseKey[] = [
+  ...new Set<ResponseKey>([
+    ...RESPONSE_COMMON_KEYS,
+    ...Object.values(RESPONSE_ANALYSIS_KEYS).flat(),
+  ]),
+];

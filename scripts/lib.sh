@@ -19,11 +19,13 @@ ensure_npm_packages() {
   fi
 }
 
-# Debian packages: one apt run for everything missing (MariaDB always; Chromium when asked).
+# Debian packages: one apt run for everything missing (MariaDB always; Chromium when asked, with
+# poppler-utils, whose pdftotext lets the print test read the page numbers Chromium prints).
 ensure_debian_packages() {
   local want=()
   command -v mariadbd >/dev/null 2>&1 || [ -x /usr/sbin/mariadbd ] || want+=(mariadb-server)
   if [ "${1:-}" = with-chromium ] && [ ! -x /usr/bin/chromium ]; then want+=(chromium); fi
+  if [ "${1:-}" = with-chromium ] && [ ! -x /usr/bin/pdftotext ]; then want+=(poppler-utils); fi
   if [ ${#want[@]} -gt 0 ]; then
     log "installing Debian packages: ${want[*]}"
     as_root apt-get update -qq

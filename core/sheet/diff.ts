@@ -170,6 +170,45 @@ interface Entry {
   line: number;
   display: string;
   value: SheetValue | null;
+  /**
+   * What pairs this entry with its counterpart on the other side, strongest first. A criterion is
+   * known by its expression, then by its label (its comment): a comment edited leaves the same
+   * criterion, an expression edited under the same comment too.
+   */
+  identities: string[];
+}
+
+/** The expression of a criterion line, without its comment. */
+function criterionExpression(source: string): string {
+  return (source.split('#')[0] ?? '').trim();
+}
+
+/**
+ * Pairs new entries with old ones: first by each one's strongest identity, then by the next, each
+ * old entry used once. Returns old entry by new entry.
+ */
+function pairEntries(oldEntries: Entry[], newEntries: Entry[]): Map<Entry, Entry> {
+  const pairs = new Map<Entry, Entry>();
+  const used = new Set<Entry>();
+  const depth = Math.max(0, ...oldEntries.concat(newEntries).map((e) => e.identities.length));
+  for (let level = 0; level < depth; level++) {
+    const free = new Map<string, Entry[]>();
+    for (const o of oldEntries) {
+      const id = o.identities[level];
+      if (id === undefined || used.has(o)) continue;
+      free.set(id, [...(free.get(id) ?? []), o]);
+    }
+    for (const n of newEntries) {
+      const id = n.identities[level];
+      if (id === undefined || pairs.has(n)) continue;
+      const o = free.get(id)?.shift();
+      if (o) {
+        pairs.set(n, o);
+        used.add(o);
+      }
+    }
+  }
+  return pairs;
 }
 
 function quantityEntry(key: string, si: number, siUnit: string, shown: string): Entry {
@@ -178,6 +217,7 @@ function quantityEntry(key: string, si: number, siUnit: string, shown: string): 
     line: 0,
     display: `${si} ${shown}`,
     value: { type: 'quantity', value: si, unit: shown, si, siUnit },
+    identities: [key],
   };
 }
 
@@ -211,20 +251,27 @@ function responseEntries(b: ResponseBlockResult): Entry[] {
 function entriesOf(b: BlockResult): Entry[] {
   switch (b.kind) {
     case 'calc':
-      return b.lines.map((l) => ({
-        key: l.name ?? `line ${l.line}`,
-        line: l.line,
-        display: l.display,
-        value: l.value,
-      }));
+      return b.lines.map((l) => {
+        const key = l.name ?? `line ${l.line}`;
+        return { key, line: l.line, display: l.display, value: l.value, identities: [key] };
+      });
     case 'matrix':
       return b.value && b.name
-        ? [{ key: b.name, line: 0, display: JSON.stringify(b.value), value: b.value }]
+        ? [
+            {
+              key: b.name,
+              line: 0,
+              display: JSON.stringify(b.value),
+              value: b.value,
+              identities: [b.name],
+            },
+          ]
         : [];
     case 'modes':
       return b.modes.flatMap((m) => [
         {
           key: `mode ${m.mode} f`,
+          identities: [`mode ${m.mode} f`],
           line: 0,
           display: `${m.frequency} Hz`,
           value: {
@@ -240,6 +287,7 @@ function entriesOf(b: BlockResult): Entry[] {
           : [
               {
                 key: `mode ${m.mode} ratio`,
+                identities: [`mode ${m.mode} ratio`],
                 line: 0,
                 display: String(m.ratio),
                 value: { type: 'number', value: m.ratio } as SheetValue,
@@ -254,6 +302,7 @@ function entriesOf(b: BlockResult): Entry[] {
         line: c.line,
         display: c.pass ? 'pass' : 'fail',
         value: null,
+        identities: [`expression ${criterionExpression(c.source)}`, `label ${c.label}`],
       }));
     default:
       return [];
@@ -282,11 +331,12 @@ export function diffResults(
   const newIds = new Set(newResults.blocks.map((b) => b.blockId));
   for (const nb of newResults.blocks) {
     const ob = oldById.get(nb.blockId);
-    const oldEntries = new Map(ob ? entriesOf(ob).map((e) => [e.key, e]) : []);
-    const seen = new Set<string>();
-    for (const e of entriesOf(nb)) {
-      seen.add(e.key);
-      const o = oldEntries.get(e.key);
+    const oldList = ob ? entriesOf(ob) : [];
+    const newList = entriesOf(nb);
+    const pairs = pairEntries(oldList, newList);
+    const paired = new Set(pairs.values());
+    for (const e of newList) {
+      const o = pairs.get(e);
       if (o && o.display === e.display) continue;
       results.push({
         blockId: nb.blockId,
@@ -297,11 +347,11 @@ export function diffResults(
         relativeChange: relative(o?.value ?? null, e.value),
       });
     }
-    for (const [key, o] of oldEntries) {
-      if (!seen.has(key))
+    for (const o of oldList) {
+      if (!paired.has(o))
         results.push({
           blockId: nb.blockId,
-          key,
+          key: o.key,
           line: null,
           old: o.display,
           new: null,
@@ -309,11 +359,18 @@ export function diffResults(
         });
     }
     if (ob && ob.kind === 'criteria' && nb.kind === 'criteria') {
-      const was = new Map(ob.criteria.map((c) => [c.label, c.pass]));
-      for (const c of nb.criteria) {
-        const w = was.get(c.label);
-        if (w !== undefined && w !== c.pass)
-          flipped.push({ blockId: nb.blockId, label: c.label, line: c.line, was: w, now: c.pass });
+      // The same pairing as the entries: by expression, then by label.
+      for (const [i, c] of nb.criteria.entries()) {
+        const o = pairs.get(newList[i]!);
+        const w = o ? ob.criteria[oldList.indexOf(o)] : undefined;
+        if (w && w.pass !== c.pass)
+          flipped.push({
+            blockId: nb.blockId,
+            label: c.label,
+            line: c.line,
+            was: w.pass,
+            now: c.pass,
+          });
       }
     }
   }

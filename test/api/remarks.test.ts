@@ -199,3 +199,100 @@ describe('POST /api/remarks/:remarkId/replies and PATCH /api/remarks/:remarkId',
     expect(reply.body.remark.state).toBe('answered');
   });
 });
+
+describe('PATCH and DELETE /api/remarks/:remarkId/replies/:replyId', () => {
+  async function answered() {
+    const revId = await revisionInCheck();
+    const remark = await remarkOn(revId, {
+      blockId: 'calc',
+      line: 2,
+      type: 'query',
+      text: 'Is 18 t the whole storey?',
+    });
+    const reply = await author.post(`/api/remarks/${remark.body.remark.id}/replies`, {
+      text: 'Yes, finishes included.',
+    });
+    expect(reply.status).toBe(201);
+    expect(reply.body.remark.state).toBe('answered');
+    return {
+      revId,
+      remarkId: remark.body.remark.id as number,
+      replyId: reply.body.remark.replies[0].id as number,
+    };
+  }
+
+  it('lets the writer edit a reply nobody has acted on, marked edited and logged with the old text', async () => {
+    const { remarkId, replyId } = await answered();
+    const res = await author.patch(`/api/remarks/${remarkId}/replies/${replyId}`, {
+      text: 'Yes, finishes and services included (18 t).',
+    });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.remark.replies[0]).toMatchObject({
+      id: replyId,
+      text: 'Yes, finishes and services included (18 t).',
+    });
+    expect(res.body.remark.replies[0].editedAt).not.toBeNull();
+    const log = await t
+      .db('activity')
+      .where({ action: 'remark.reply_edited', object_id: remarkId })
+      .first();
+    expect(log.details).toMatchObject({
+      replyId,
+      text: 'Yes, finishes included.',
+    });
+  });
+
+  it('lets the writer withdraw the reply, which opens the remark again, on a returned revision too', async () => {
+    const { revId, remarkId, replyId } = await answered();
+    expect((await checker.post(`/api/revisions/${revId}/return`)).status).toBe(200);
+    const res = await author.delete(`/api/remarks/${remarkId}/replies/${replyId}`);
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.remark).toMatchObject({ state: 'open', replies: [] });
+    expect(await t.db('remark_replies').where({ id: replyId })).toHaveLength(0);
+    const log = await t
+      .db('activity')
+      .where({ action: 'remark.reply_withdrawn', object_id: remarkId })
+      .first();
+    expect(log.details).toMatchObject({ text: 'Yes, finishes included.' });
+  });
+
+  it('refuses someone else’s reply, and a reply the checker has answered or closed', async () => {
+    const { remarkId, replyId } = await answered();
+    const other = await checker.patch(`/api/remarks/${remarkId}/replies/${replyId}`, {
+      text: 'Changed by the checker',
+    });
+    expect(other.status).toBe(403);
+    expect(other.body.error.code).toBe('NOT_YOUR_REPLY');
+    await checker.post(`/api/remarks/${remarkId}/replies`, { text: 'And the services?' });
+    const after = await author.delete(`/api/remarks/${remarkId}/replies/${replyId}`);
+    expect(after.status).toBe(409);
+    expect(after.body.error.code).toBe('REPLY_SETTLED');
+    expect(after.body.error.message).toMatch(/someone has replied after it/);
+
+    const second = await answered();
+    await checker.patch(`/api/remarks/${second.remarkId}`, { state: 'closed' });
+    const closed = await author.patch(`/api/remarks/${second.remarkId}/replies/${second.replyId}`, {
+      text: 'Late edit',
+    });
+    expect(closed.status).toBe(409);
+    expect(closed.body.error.message).toMatch(/closed the remark/);
+  });
+
+  it('refuses a viewer, an outsider, a signed-out caller, an empty text and an unknown reply', async () => {
+    const { remarkId, replyId } = await answered();
+    const url = `/api/remarks/${remarkId}/replies/${replyId}`;
+    for (const client of [viewer, principal, outsider]) {
+      expect((await client.patch(url, { text: 'x' })).status).toBe(403);
+      expect((await client.delete(url)).status).toBe(403);
+    }
+    expect((await (await anonymous(t.app)).delete(url)).status).toBe(401);
+    const empty = await author.patch(url, { text: '  ' });
+    expect(empty.status).toBe(422);
+    expect(empty.body.error.field).toBe('text');
+    const missing = await author.delete(`/api/remarks/${remarkId}/replies/999999999`);
+    expect(missing.status).toBe(404);
+    const badId = await author.delete(`/api/remarks/${remarkId}/replies/first`);
+    expect(badId.status).toBe(422);
+    expect(badId.body.error.field).toBe('replyId');
+  });
+});

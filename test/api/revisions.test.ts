@@ -427,3 +427,78 @@ describe('GET /api/sheets/:sheetId/activity', () => {
     expect((await outsider.get(`/api/sheets/${sheetId}/activity`)).status).toBe(403);
   });
 });
+
+describe('a covering note on return and sign-off, and the purpose set at sign-off', () => {
+  it('keeps the return note on the revision, in the activity and in the author’s mail', async () => {
+    const sheetId = await newSheet();
+    const revId = await issued(author, sheetId);
+    const note = 'Please state the mass basis before I look at the criteria.';
+    const res = await checker.post(`/api/revisions/${revId}/return`, { note });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.revision).toMatchObject({ status: 'returned', checkNote: note });
+    expect((await t.db('revisions').where({ id: revId }).first()).check_note).toBe(note);
+    const activity = await t
+      .db('activity')
+      .where({ action: 'revision.returned', object_id: revId })
+      .first();
+    expect(activity.details).toMatchObject({ note });
+    const mail = await t
+      .db('outbox')
+      .where({ kind: 'revision.returned', related_sheet_id: sheetId })
+      .first();
+    expect(mail.text).toContain(`The checker's note:\n${note}`);
+    // Seen by every member who reads the revision.
+    expect((await viewer.get(`/api/revisions/${revId}`)).body.revision.checkNote).toBe(note);
+  });
+
+  it('signs off for the purpose the checker sets and names a failed criterion in the mail', async () => {
+    // f = 5.8 Hz here (closed form above) fails a 6 Hz criterion: a finding, not a refusal.
+    const sheetId = await newSheet(author, [
+      ...baseBlocks.slice(0, 2),
+      { id: 'crit', kind: 'criteria', source: 'f >= 6 Hz  # clear of the pump speed' },
+    ]);
+    const revId = await issued(author, sheetId);
+    const res = await checker.post(`/api/revisions/${revId}/sign-off`, {
+      note: 'Checked against the pump data sheet.',
+      purpose: 'For construction',
+    });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.revision).toMatchObject({
+      status: 'checked',
+      purpose: 'For check',
+      checkedPurpose: 'For construction',
+      checkNote: 'Checked against the pump data sheet.',
+    });
+    const mail = await t
+      .db('outbox')
+      .where({ kind: 'revision.signed_off', related_sheet_id: sheetId })
+      .first();
+    expect(mail.text).toContain('signed off Rev 1 for construction');
+    expect(mail.text).toContain('It records 1 failed criterion: clear of the pump speed.');
+  });
+
+  it('signs off without a note or a purpose, leaving the purpose as issued', async () => {
+    const revId = await issued(author, await newSheet());
+    const res = await checker.post(`/api/revisions/${revId}/sign-off`, {});
+    expect(res.status).toBe(200);
+    expect(res.body.revision).toMatchObject({ checkedPurpose: null, checkNote: null });
+  });
+
+  it('refuses a note that is not text, one too long, and an unknown field, naming it', async () => {
+    const revId = await issued(author, await newSheet());
+    const notText = await checker.post(`/api/revisions/${revId}/return`, { note: 12 });
+    expect(notText.status).toBe(422);
+    expect(notText.body.error.field).toBe('note');
+    const long = await checker.post(`/api/revisions/${revId}/sign-off`, {
+      purpose: 'x'.repeat(501),
+    });
+    expect(long.status).toBe(422);
+    expect(long.body.error.field).toBe('purpose');
+    const unknown = await checker.post(`/api/revisions/${revId}/return`, { reason: 'x' });
+    expect(unknown.status).toBe(422);
+    expect(unknown.body.error.message).toContain('Unknown field: reason.');
+    expect((await t.db('revisions').where({ id: revId }).first()).status).toBe('in_check');
+    // A viewer with a note is refused as without one.
+    expect((await viewer.post(`/api/revisions/${revId}/return`, { note: 'x' })).status).toBe(403);
+  });
+});

@@ -4,7 +4,17 @@
 // that differ only in the last binary digits.
 import { describe, expect, it } from 'vitest';
 import { saveScreenshot } from '../support/browser';
-import { openDemoRevision, useAuthorBrowser } from './editor-helpers';
+import {
+  RUN,
+  addBlock,
+  newSheet,
+  openDemoRevision,
+  setSource,
+  sheetIdOf,
+  useAuthorBrowser,
+  waitForResults,
+  waitSaved,
+} from './editor-helpers';
 
 describe('compare two revisions (browser)', () => {
   const session = useAuthorBrowser();
@@ -51,7 +61,46 @@ describe('compare two revisions (browser)', () => {
     ).toBe(false);
 
     const source = page.getByRole('article', { name: 'Block 2 (calc) · deck-data' });
-    await source.getByText('2 remarks on this block (listed below).').waitFor();
+    // Tomasz's query on Rev 1 and its carried copy on Rev 2 are one thread: counted once.
+    await source.getByText('1 remark on this block (listed below).').waitFor();
     await saveScreenshot(page, 'compare-rev1-rev2');
+  });
+
+  it('shows a criterion whose comment alone changed as one changed line and no result change', async () => {
+    const { page } = session();
+    const url = await newSheet(page, `E2E-C${RUN}`, 'Criterion comment');
+    const sheetId = sheetIdOf(url);
+    await addBlock(page, 'calc', 'k = 24 kN/mm\nm_1 = 18 t\nf = sqrt(k/m_1)/(2 pi)');
+    const checks = await addBlock(page, 'criteria', 'f >= 5 Hz  # above 5 Hz');
+    await waitForResults(page);
+    await waitSaved(page);
+    await page.getByRole('button', { name: 'Issue for check' }).click();
+    await page
+      .getByRole('form', { name: 'Issue for check' })
+      .getByRole('button', { name: 'Issue Rev 1' })
+      .click();
+    await page.getByRole('heading', { name: /Rev 1$/ }).waitFor({ timeout: 60_000 });
+    const revisionId = Number(/\/revisions\/(\d+)/.exec(page.url())?.[1]);
+
+    await page.goto(url);
+    await setSource(page, checks, 'criteria', 'f >= 5 Hz  # above 5 Hz, clear of walking');
+    await waitForResults(page);
+    await waitSaved(page);
+    await page.goto(`/sheets/${sheetId}/compare?from=${revisionId}&to=draft`);
+
+    const summary = page.getByRole('status').filter({ hasText: 'From Rev 1 to the draft' });
+    await summary.waitFor();
+    // f = 5.812 Hz passes either way: no result changed, no criterion flipped.
+    expect(await summary.innerText()).toMatch(
+      /1 block changed.*0 results changed; 0 criteria flipped/,
+    );
+    const source = page.getByRole('region', { name: 'Source changes' });
+    const changed = source.getByLabel('Line 1 changed');
+    expect((await changed.innerText()).replace(/\s+/g, ' ')).toBe(
+      '~ f >= 5 Hz # above 5 Hz, clear of walking',
+    );
+    expect(await changed.locator('ins').innerText()).toBe(', clear of walking');
+    expect(await source.getByText(/^[−+] /).count()).toBe(0);
+    await saveScreenshot(page, 'compare-criterion-comment');
   });
 });

@@ -6,6 +6,7 @@ import { saveScreenshot } from '../support/browser';
 import {
   RUN,
   addBlock,
+  column,
   block,
   newSheet,
   shotPath,
@@ -16,7 +17,7 @@ import {
 
 // "λmax/λ1 ≥ 7.4 × 10⁸" (max and 1 are subscripts; a lower bound, as the engine estimates it):
 // a mantissa, and a power of ten in superscript digits.
-const RATIO = /λmax\/λ1 ≥ \d(\.\d)? × 10[⁰¹²³⁴⁵⁶⁷⁸⁹]+/;
+const RATIO = /λₘₐₓ\/λ₁ ≥ \d(\.\d)? × 10[⁰¹²³⁴⁵⁶⁷⁸⁹]+/;
 
 describe('sheet editor: conditioning note and solve warnings (browser)', () => {
   const session = useAuthorBrowser();
@@ -60,6 +61,22 @@ describe('sheet editor: conditioning note and solve warnings (browser)', () => {
       /at least \d+\.\d of 16 digits are lost to the model, leaving at most \d+ for the lowest modes/,
     );
     expect(words).toContain('tolerance 1e−10');
+    // The note agrees with the table beside it: the backward errors shown are near ε, and the
+    // note names the largest of them instead of claiming they cannot reach the tolerance.
+    const shown = await column(
+      fineBlock.getByRole('table', { name: 'Modes of deck_modes' }),
+      'Backward error',
+    );
+    const worst = Math.max(...shown);
+    expect(worst).toBeLessThan(1e-10);
+    const [mantissa, exponent] = worst.toExponential(1).split('e');
+    const superscript = String(Number(exponent))
+      .replace('-', '⁻')
+      .replace(/\d/g, (d) => '⁰¹²³⁴⁵⁶⁷⁸⁹'[Number(d)]!);
+    expect(words).toContain(
+      `backward errors in the table (largest ${mantissa} × 10${superscript}) are small`,
+    );
+    expect(words).not.toMatch(/backward errors cannot reach/);
     // Nothing about the fine mesh is presented as a warning.
     expect(await fineBlock.getByRole('group', { name: 'Warnings' }).count()).toBe(0);
     // The Sturm check still proves no mode was missed.

@@ -26,7 +26,10 @@ describe('sheet editor: a viewer (browser)', () => {
       expect(await lena.page.getByRole('group', { name: 'Add a block' }).count()).toBe(0);
       const editable = await lena.page.locator('.cm-content[contenteditable="true"]').count();
       expect(editable).toBe(0);
-      await lena.page.getByTestId('sheet-caution').waitFor();
+      // The caution once on the screen (DESIGN §12), in the page's footer.
+      const caution = lena.page.getByText('Results must be verified by a qualified engineer');
+      await caution.first().waitFor();
+      expect(await caution.count()).toBe(1);
       await saveScreenshot(lena.page, 'editor-viewer');
     } finally {
       await lena.close();

@@ -1,7 +1,12 @@
 // Browser: the printed package reads as a calculation: a text block's Markdown is set as
 // headings and paragraphs with its formulas typeset, not printed as source; calc, modes and
-// criteria blocks keep their numbered source lines above their results.
-import { readFile } from 'node:fs/promises';
+// criteria blocks keep their numbered source lines above their results. Printed to PDF by Chromium,
+// every page is numbered ("Page n of N") and the check remarks follow the sheet (pdftotext, from
+// Debian's poppler-utils, reads the PDF back).
+import { execFileSync } from 'node:child_process';
+import { mkdtemp, readFile } from 'node:fs/promises';
+import os from 'node:os';
+import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { saveScreenshot } from '../support/browser';
 import { openDemoRevision, useAuthorBrowser } from './editor-helpers';
@@ -44,5 +49,45 @@ describe('print view (browser)', () => {
     expect(rows[0]![1]).toBe('f (Hz)');
     expect(Number(rows[1]![1]).toPrecision(4)).toBe('3.072');
     expect(rows[1]![1]!.length).toBeGreaterThan(8);
+  });
+});
+
+describe('print view: page numbers and the record of the check (browser)', () => {
+  const session = useAuthorBrowser();
+
+  it('numbers every printed page above the title block and prints the remarks after the sheet', async () => {
+    const { page } = session();
+    await openDemoRevision(page, 'DYN-01', 2);
+    await page.getByRole('link', { name: 'Print' }).first().click();
+
+    // The demo's Rev 2 (seeds/03_demo_review.ts) carries Tomasz's query on the services mass
+    // from Rev 1, answered by Ines and closed by him.
+    const record = page.getByRole('region', { name: 'Check remarks' });
+    await record.getByRole('heading', { name: 'Check remarks on Rev 2' }).waitFor();
+    const words = await record.innerText();
+    expect(words).toMatch(/Block \d+ \(calc\), line \d+ · Query · Closed · carried from Rev 1/);
+    expect(words).toContain('KQ-E-402');
+    expect(words).toMatch(/Reply on Rev 1: Agreed: services are 0\.20 t\/m[^\n]*— Ines Marlow/);
+    expect(words).toContain('Reply: Checked against KQ-E-402: agreed.');
+    expect(words).toContain('Closed by Tomasz Reyes');
+    const titleBlock = page.getByRole('group', { name: 'Title block' });
+    expect(await titleBlock.innerText()).not.toContain('see foot of page');
+
+    // Chromium's own print to PDF, read back as text: "Page n of N" on every page, n = 1…N.
+    const pdf = path.join(await mkdtemp(path.join(os.tmpdir(), 'mw-print-')), 'dyn-01.pdf');
+    await page.emulateMedia({ media: 'print' });
+    await page.pdf({ path: pdf, format: 'A4', preferCSSPageSize: true });
+    await page.emulateMedia({ media: 'screen' });
+    const text = execFileSync('pdftotext', ['-layout', pdf, '-'], { encoding: 'utf8' });
+    const pages = text.split('\f').filter((p) => p.trim() !== '');
+    expect(pages.length).toBeGreaterThan(1);
+    pages.forEach((p, i) =>
+      expect(p).toContain(`DYN-01 · Rev 2 · Page ${i + 1} of ${pages.length}`),
+    );
+    // The record comes after the calculation and before the caution.
+    const at = (s: string) => text.indexOf(s);
+    expect(at('Check remarks on Rev 2')).toBeGreaterThan(at('Calculation'));
+    expect(at('Caution.')).toBeGreaterThan(at('Check remarks on Rev 2'));
+    await saveScreenshot(page, 'print-dyn-01-remarks');
   });
 });

@@ -116,14 +116,18 @@ describe('review and seal, the whole flow (browser)', () => {
     await page.getByLabel('1 remark on line 3').waitFor();
     // Sign off waits while the remark is open, and says why (the server refuses it too:
     // test/api/revisions.test.ts).
-    const signOff = page.getByRole('button', { name: 'Sign off' });
+    const signOff = page.getByRole('button', { name: 'Sign off…' });
     await expect.poll(() => signOff.isDisabled()).toBe(true);
     const help = await signOff.getAttribute('aria-describedby');
     expect(await page.locator(`[id="${help}"]`).innerText()).toBe(
       '1 remark not closed: sign off needs every remark closed; return the revision for the author to act on them.',
     );
     await saveScreenshot(page, 'review-2-remark');
-    await page.getByRole('button', { name: 'Return to author' }).click();
+    await page.getByRole('button', { name: 'Return to author…' }).click();
+    await page
+      .getByRole('form', { name: 'Return Rev 1 to the author' })
+      .getByRole('button', { name: 'Return Rev 1' })
+      .click();
     await expect.poll(() => status(page).innerText()).toBe('Returned');
     await saveScreenshot(page, 'review-3-returned');
   });
@@ -185,7 +189,11 @@ describe('review and seal, the whole flow (browser)', () => {
     await remarks.getByText(new RegExp(`^${demoPeople.tomasz.name}, .* UTC, on Rev 1$`)).waitFor();
     await remarks.getByRole('button', { name: 'Close remark' }).click();
     await remarks.getByTestId('remark-state').getByText('Closed', { exact: true }).waitFor();
-    await page.getByRole('button', { name: 'Sign off' }).click();
+    await page.getByRole('button', { name: 'Sign off…' }).click();
+    await page
+      .getByRole('form', { name: 'Sign off Rev 2' })
+      .getByRole('button', { name: 'Sign off Rev 2' })
+      .click();
     await expect.poll(() => status(page).innerText()).toBe('Checked');
     // nothing is left for the checker to do on it: no empty actions panel either
     await expect.poll(() => page.getByRole('region', { name: 'Review actions' }).count()).toBe(0);

@@ -14,6 +14,8 @@ export interface RemarkReply {
   text: string;
   author: PersonRef;
   createdAt: string;
+  /** When its writer last edited it; null when never. */
+  editedAt: string | null;
 }
 
 /** A remark as it stood on an earlier revision, before it was carried to this one. */
@@ -90,6 +92,7 @@ interface ReplyRow {
   author_id: number;
   author_name: string;
   created_at: Date;
+  edited_at: Date | null;
 }
 
 function baseQuery(db: DbOrTx): Knex.QueryBuilder {
@@ -115,6 +118,7 @@ async function repliesOf(db: DbOrTx, ids: number[]): Promise<Map<number, RemarkR
             'p.author_id',
             'a.name as author_name',
             'p.created_at',
+            'p.edited_at',
           );
   const byRemark = new Map<number, RemarkReply[]>();
   for (const p of replies) {
@@ -124,6 +128,7 @@ async function repliesOf(db: DbOrTx, ids: number[]): Promise<Map<number, RemarkR
       text: p.text,
       author: { id: p.author_id, name: p.author_name },
       createdAt: new Date(p.created_at).toISOString(),
+      editedAt: p.edited_at === null ? null : new Date(p.edited_at).toISOString(),
     });
     byRemark.set(p.remark_id, list);
   }
@@ -258,6 +263,16 @@ export const remarksRepository = {
     });
     if (id === undefined) throw new Error('remark_replies insert returned no id');
     return id;
+  },
+
+  async updateReplyText(db: DbOrTx, replyId: number, text: string): Promise<void> {
+    await db('remark_replies')
+      .where({ id: replyId })
+      .update({ text, edited_at: db.fn.now(3) });
+  },
+
+  async deleteReply(db: DbOrTx, replyId: number): Promise<void> {
+    await db('remark_replies').where({ id: replyId }).delete();
   },
 
   async setState(db: DbOrTx, id: number, state: RemarkState, by: number): Promise<void> {

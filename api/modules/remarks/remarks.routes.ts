@@ -8,6 +8,7 @@ import {
   remarkParams,
   remarkStateBody,
   replyBody,
+  replyParams,
   revisionParams,
 } from './remarks.schemas';
 import { remarksService } from './remarks.service';
@@ -38,6 +39,25 @@ export function createRemarksRouter(ctx: AppContext): Router {
     const scope = await remarkRevisionAccess(ctx, user, remarkId, 'remark.reply');
     const remark = await remarksService.reply(ctx, user, scope, remarkId, text);
     res.status(201).json({ remark });
+  });
+
+  router.patch('/remarks/:remarkId/replies/:replyId', requireSignedIn, async (req, res) => {
+    const { remarkId, replyId } = parse(replyParams, req.params, 'params');
+    const { text } = parse(replyBody, req.body);
+    const user = currentUser(req);
+    const scope = await remarkRevisionAccess(ctx, user, remarkId, 'remark.reply');
+    res.json({
+      remark: await remarksService.editReply(ctx, user, scope, remarkId, replyId, text),
+    });
+  });
+
+  router.delete('/remarks/:remarkId/replies/:replyId', requireSignedIn, async (req, res) => {
+    const { remarkId, replyId } = parse(replyParams, req.params, 'params');
+    const user = currentUser(req);
+    const scope = await remarkRevisionAccess(ctx, user, remarkId, 'remark.reply');
+    res.json({
+      remark: await remarksService.withdrawReply(ctx, user, scope, remarkId, replyId),
+    });
   });
 
   router.patch('/remarks/:remarkId', requireSignedIn, async (req, res) => {

@@ -3,6 +3,7 @@ import { idOf, revisionParams } from '../revisions/revisions.schemas';
 
 export { revisionParams };
 export const remarkParams = z.object({ remarkId: idOf('remark') });
+export const replyParams = z.object({ remarkId: idOf('remark'), replyId: idOf('reply') });
 
 const unknownKeys = (issue: { code: string; keys?: string[] }) =>
   issue.code === 'unrecognized_keys'

@@ -12,6 +12,7 @@ import { carryRemarks } from './remarks.carry-over';
 import {
   remarksRepository,
   type Remark,
+  type RemarkReply,
   type RemarkState,
   type RemarkType,
 } from './remarks.repository';
@@ -20,6 +21,71 @@ async function mustFindRemark(db: DbOrTx, remarkId: number): Promise<Remark> {
   const remark = await remarksRepository.findById(db, remarkId);
   if (!remark) throw new NotFoundError(`There is no remark with id ${remarkId}.`);
   return remark;
+}
+
+/**
+ * A reply its writer may still change: their own, the last in its thread (nobody has acted on it
+ * yet), on a remark not closed, while the revision is in check or returned.
+ */
+async function ownLastReply(
+  db: DbOrTx,
+  user: User,
+  { rev }: RevisionInScope,
+  remarkId: number,
+  replyId: number,
+  what: 'edited' | 'withdrawn',
+): Promise<{ remark: Remark; reply: RemarkReply }> {
+  const remark = await mustFindRemark(db, remarkId);
+  const reply = remark.replies.find((r) => r.id === replyId);
+  if (!reply) throw new NotFoundError(`Remark ${remarkId} has no reply with id ${replyId}.`);
+  if (reply.author.id !== user.id) {
+    throw new AppError(
+      403,
+      'NOT_YOUR_REPLY',
+      `Only its writer can change a reply; it is ${reply.author.name}'s.`,
+    );
+  }
+  if (rev.status !== 'in_check' && rev.status !== 'returned') {
+    throw wrongState(
+      rev,
+      `a reply is ${what} while its revision is in check or returned`,
+      'REVISION_CLOSED_FOR_REMARKS',
+    );
+  }
+  if (remark.state === 'closed' || remark.replies.at(-1)?.id !== reply.id) {
+    throw new AppError(
+      409,
+      'REPLY_SETTLED',
+      `This reply can no longer be ${what}: ${remark.state === 'closed' ? 'the checker has closed the remark' : 'someone has replied after it'}. Write a new reply instead.`,
+    );
+  }
+  return { remark, reply };
+}
+
+async function recordReplyChange(
+  trx: DbOrTx,
+  user: User,
+  { rev, sheet }: RevisionInScope,
+  remarkId: number,
+  change: {
+    action: 'remark.reply_edited' | 'remark.reply_withdrawn';
+    replyId: number;
+    before: string;
+  },
+): Promise<void> {
+  await activityService.record(trx, {
+    actorId: user.id,
+    projectId: sheet.projectId,
+    action: change.action,
+    objectType: 'remark',
+    objectId: remarkId,
+    details: {
+      sheetId: sheet.id,
+      revisionNumber: rev.number,
+      replyId: change.replyId,
+      text: change.before,
+    },
+  });
 }
 
 /**
@@ -167,6 +233,65 @@ export const remarksService = {
     const updated = await remarksRepository.findById(ctx.db, remark.id);
     if (!updated) throw new Error('the remark was not found after the reply');
     return updated;
+  },
+
+  /** Edit one's own reply while it is the last word in the thread (see ownLastReply). */
+  async editReply(
+    ctx: AppContext,
+    user: User,
+    scope: RevisionInScope,
+    remarkId: number,
+    replyId: number,
+    text: string,
+  ): Promise<Remark> {
+    const { remark, reply } = await ownLastReply(ctx.db, user, scope, remarkId, replyId, 'edited');
+    if (reply.text === text) return remark;
+    await ctx.db.transaction(async (trx) => {
+      await remarksRepository.updateReplyText(trx, reply.id, text);
+      await recordReplyChange(trx, user, scope, remark.id, {
+        action: 'remark.reply_edited',
+        replyId: reply.id,
+        before: reply.text,
+      });
+    });
+    return mustFindRemark(ctx.db, remark.id);
+  },
+
+  /**
+   * Withdraw one's own reply while it is the last word in the thread. The remark it answered is
+   * open again unless an answer by someone else than the remark's writer remains. Its text stays
+   * in the activity log.
+   */
+  async withdrawReply(
+    ctx: AppContext,
+    user: User,
+    scope: RevisionInScope,
+    remarkId: number,
+    replyId: number,
+  ): Promise<Remark> {
+    const { remark, reply } = await ownLastReply(
+      ctx.db,
+      user,
+      scope,
+      remarkId,
+      replyId,
+      'withdrawn',
+    );
+    const answerRemains = remark.replies.some(
+      (r) => r.id !== reply.id && r.author.id !== remark.author.id,
+    );
+    await ctx.db.transaction(async (trx) => {
+      await remarksRepository.deleteReply(trx, reply.id);
+      if (remark.state === 'answered' && !answerRemains) {
+        await remarksRepository.setState(trx, remark.id, 'open', user.id);
+      }
+      await recordReplyChange(trx, user, scope, remark.id, {
+        action: 'remark.reply_withdrawn',
+        replyId: reply.id,
+        before: reply.text,
+      });
+    });
+    return mustFindRemark(ctx.db, remark.id);
   },
 
   /** Close or reopen (checker) while the revision is in check. */

@@ -57,10 +57,30 @@ export function issuedMail(
   };
 }
 
+const noteLines = (note: string | null) => (note ? `\n\nThe checker's note:\n${note}` : '');
+
+/**
+ * The labels of the failed criteria in a revision's stored results (the JSON text as stored), in
+ * sheet order; none when the results cannot be read.
+ */
+export function failedCriteria(resultsText: string): string[] {
+  let results: unknown;
+  try {
+    results = JSON.parse(resultsText);
+  } catch {
+    return [];
+  }
+  const blocks = (results as { blocks?: unknown } | null)?.blocks;
+  if (!Array.isArray(blocks)) return [];
+  return blocks.flatMap((b: { kind?: string; criteria?: { label: string; pass: boolean }[] }) =>
+    b.kind === 'criteria' ? (b.criteria ?? []).filter((c) => !c.pass).map((c) => c.label) : [],
+  );
+}
+
 export function returnedMail(
   sheet: SheetContext,
   to: string[],
-  rev: { number: number; by: string; openRemarks: number },
+  rev: { number: number; by: string; openRemarks: number; note: string | null },
 ): MailMessage {
   return {
     to,
@@ -69,6 +89,7 @@ export function returnedMail(
     subject: `[${sheet.projectJobNumber}] ${sheet.number} Rev ${rev.number} returned by the checker`,
     text:
       `${rev.by} returned Rev ${rev.number} with ${rev.openRemarks} remark(s) not closed.\n${sheetLine(sheet)}` +
+      noteLines(rev.note) +
       `\n\nPlease answer the remarks, edit the draft and issue the next revision.${footer}`,
   };
 }
@@ -100,15 +121,27 @@ export function remarkMail(
 export function signedOffMail(
   sheet: SheetContext,
   to: string[],
-  rev: { number: number; by: string },
+  rev: {
+    number: number;
+    by: string;
+    note: string | null;
+    purpose: string | null;
+    failed: string[];
+  },
 ): MailMessage {
+  const failed =
+    rev.failed.length === 0
+      ? ''
+      : `\n\nIt records ${rev.failed.length} failed criterion${rev.failed.length === 1 ? '' : 'a'}: ${rev.failed.join('; ')}.`;
   return {
     to,
     kind: 'revision.signed_off',
     relatedSheetId: sheet.id,
     subject: `[${sheet.projectJobNumber}] ${sheet.number} Rev ${rev.number} signed off — ready to seal`,
     text:
-      `${rev.by} signed off Rev ${rev.number}; every remark is closed.\n${sheetLine(sheet)}` +
+      `${rev.by} signed off Rev ${rev.number}${rev.purpose ? ` ${rev.purpose.replace(/^./, (c) => c.toLowerCase())}` : ''}; every remark is closed.\n${sheetLine(sheet)}` +
+      noteLines(rev.note) +
+      failed +
       `\n\nIt awaits your seal.${footer}`,
   };
 }

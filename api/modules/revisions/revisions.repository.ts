@@ -31,6 +31,10 @@ export interface RevisionSummary {
   sealedAt: string | null;
   supersededAt: string | null;
   sealCode: string | null;
+  /** The checker's covering note on the return or the sign-off, if one was written. */
+  checkNote: string | null;
+  /** What the checker signed the revision off for ("For construction"); null: as issued. */
+  checkedPurpose: string | null;
 }
 
 /** A revision with everything that was frozen when it was issued, exactly as stored. */
@@ -79,6 +83,8 @@ interface RevisionRow {
   sealed_at: Date | null;
   superseded_at: Date | null;
   seal_code: string | null;
+  check_note: string | null;
+  checked_purpose: string | null;
   blocks?: string;
   settings?: string;
   canonical_text?: string;
@@ -120,6 +126,8 @@ function summaryQuery(db: DbOrTx): Knex.QueryBuilder {
       'r.sealed_at',
       'r.superseded_at',
       's.code as seal_code',
+      'r.check_note',
+      'r.checked_purpose',
     );
 }
 
@@ -140,6 +148,8 @@ function toSummary(row: RevisionRow): RevisionSummary {
     sealedAt: iso(row.sealed_at),
     supersededAt: iso(row.superseded_at),
     sealCode: row.seal_code,
+    checkNote: row.check_note,
+    checkedPurpose: row.checked_purpose,
   };
 }
 
@@ -222,16 +232,32 @@ export const revisionsRepository = {
     return id;
   },
 
-  async markReturned(db: DbOrTx, id: number, by: number, at: Date): Promise<void> {
+  async markReturned(
+    db: DbOrTx,
+    id: number,
+    by: number,
+    at: Date,
+    note: string | null,
+  ): Promise<void> {
     await db('revisions')
       .where({ id })
-      .update({ status: 'returned', returned_by: by, returned_at: at });
+      .update({ status: 'returned', returned_by: by, returned_at: at, check_note: note });
   },
 
-  async markChecked(db: DbOrTx, id: number, by: number, at: Date): Promise<void> {
-    await db('revisions')
-      .where({ id })
-      .update({ status: 'checked', checked_by: by, checked_at: at });
+  async markChecked(
+    db: DbOrTx,
+    id: number,
+    by: number,
+    at: Date,
+    input: { note: string | null; purpose: string | null },
+  ): Promise<void> {
+    await db('revisions').where({ id }).update({
+      status: 'checked',
+      checked_by: by,
+      checked_at: at,
+      check_note: input.note,
+      checked_purpose: input.purpose,
+    });
   },
 
   async markSealed(db: DbOrTx, id: number, by: number, at: Date): Promise<void> {

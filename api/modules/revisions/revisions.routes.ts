@@ -4,7 +4,14 @@ import type { AppContext } from '../../http/context';
 import { parse } from '../../http/validate';
 import { sealsService } from '../seals/seals.service';
 import { comparePrintService } from './compare-print.service';
-import { compareQuery, issueBody, revisionParams, sheetParams } from './revisions.schemas';
+import {
+  compareQuery,
+  issueBody,
+  returnBody,
+  revisionParams,
+  sheetParams,
+  signOffBody,
+} from './revisions.schemas';
 import { revisionsService } from './revisions.service';
 
 /**
@@ -39,14 +46,18 @@ export function createRevisionsRouter(ctx: AppContext): Router {
 
   router.post('/revisions/:revisionId/return', requireSignedIn, async (req, res) => {
     const { revisionId } = parse(revisionParams, req.params, 'params');
+    const { note } = parse(returnBody, req.body ?? {});
     res.json({
-      revision: await revisionsService.returnRevision(ctx, currentUser(req), revisionId),
+      revision: await revisionsService.returnRevision(ctx, currentUser(req), revisionId, note),
     });
   });
 
   router.post('/revisions/:revisionId/sign-off', requireSignedIn, async (req, res) => {
     const { revisionId } = parse(revisionParams, req.params, 'params');
-    res.json({ revision: await revisionsService.signOff(ctx, currentUser(req), revisionId) });
+    const input = parse(signOffBody, req.body ?? {});
+    res.json({
+      revision: await revisionsService.signOff(ctx, currentUser(req), revisionId, input),
+    });
   });
 
   router.get('/sheets/:sheetId/compare', requireSignedIn, async (req, res) => {

@@ -15,6 +15,30 @@ const unknownKeys = (issue: { code: string; keys?: string[] }) =>
     ? `Unknown field: ${(issue.keys ?? []).join(', ')}.`
     : 'Send a JSON object.';
 
+const note = z
+  .string({ error: 'A note is text.' })
+  .trim()
+  .max(2000, { error: 'The note can be at most 2000 characters.' })
+  .optional()
+  .transform((v) => (v ? v : null));
+
+/** Return: an optional covering note to the author. */
+export const returnBody = z.strictObject({ note }, { error: unknownKeys });
+
+/** Sign off: an optional note, and what the checked revision is for ("For construction"). */
+export const signOffBody = z.strictObject(
+  {
+    note,
+    purpose: z
+      .string({ error: 'The purpose is text, e.g. "For construction".' })
+      .trim()
+      .max(500, { error: 'The purpose can be at most 500 characters.' })
+      .optional()
+      .transform((v) => (v ? v : null)),
+  },
+  { error: unknownKeys },
+);
+
 export const issueBody = z.strictObject(
   {
     purpose: z

@@ -13,7 +13,7 @@ import type { SheetContext } from '../sheets/sheets.repository';
 import { sheetsService } from '../sheets/sheets.service';
 import type { User } from '../users/users.repository';
 import { usersService } from '../users/users.service';
-import { issuedMail, returnedMail, signedOffMail } from './review-mail';
+import { failedCriteria, issuedMail, returnedMail, signedOffMail } from './review-mail';
 import { checkerIsAuthor, wrongState, type RevisionInScope } from './revision-state';
 import {
   revisionsRepository,
@@ -112,6 +112,7 @@ async function recordCheck(
   rev: RevisionRecord,
   sheetStatus: 'returned' | 'checked',
   action: 'revision.returned' | 'revision.signed_off',
+  extra: { note: string | null; purpose?: string | null },
 ): Promise<void> {
   await sheetsService.setStatus(trx, sheet.id, sheetStatus);
   await activityService.record(trx, {
@@ -120,7 +121,12 @@ async function recordCheck(
     action,
     objectType: 'revision',
     objectId: rev.id,
-    details: { sheetId: sheet.id, revisionNumber: rev.number },
+    details: {
+      sheetId: sheet.id,
+      revisionNumber: rev.number,
+      ...(extra.note ? { note: extra.note } : {}),
+      ...(extra.purpose ? { purpose: extra.purpose } : {}),
+    },
   });
 }
 
@@ -272,7 +278,13 @@ export const revisionsService = {
   },
 
   /** Return (checker, not the author): the revision goes back; the author edits the draft. */
-  async returnRevision(ctx: AppContext, user: User, revisionId: number): Promise<RevisionSummary> {
+  /** Return (checker, not the author), with an optional covering note to the author. */
+  async returnRevision(
+    ctx: AppContext,
+    user: User,
+    revisionId: number,
+    note: string | null = null,
+  ): Promise<RevisionSummary> {
     const { rev, sheet } = await checkerAccess(ctx, user, revisionId, 'revision.return', 'return');
     const at = await dbNow(ctx.db);
     await ctx.db.transaction(async (trx) => {
@@ -283,8 +295,8 @@ export const revisionsService = {
         'only a revision in check can be returned',
         'REVISION_NOT_IN_CHECK',
       );
-      await revisionsRepository.markReturned(trx, rev.id, user.id, at);
-      await recordCheck(trx, user, sheet, rev, 'returned', 'revision.returned');
+      await revisionsRepository.markReturned(trx, rev.id, user.id, at, note);
+      await recordCheck(trx, user, sheet, rev, 'returned', 'revision.returned', { note });
     });
     const open = await remarksService.countNotClosed(ctx.db, rev.id);
     await sendAfterCommit(
@@ -294,13 +306,23 @@ export const revisionsService = {
         number: rev.number,
         by: user.name,
         openRemarks: open,
+        note,
       }),
     );
     return summaryOf(ctx.db, rev.id);
   },
 
-  /** Sign off (checker, not the author): every remark of the revision must be closed. */
-  async signOff(ctx: AppContext, user: User, revisionId: number): Promise<RevisionSummary> {
+  /**
+   * Sign off (checker, not the author): every remark of the revision must be closed. A failed
+   * criterion does not refuse it (a failing check can be the finding the sheet records); the mail
+   * names it. The note and the purpose ("For construction") are optional.
+   */
+  async signOff(
+    ctx: AppContext,
+    user: User,
+    revisionId: number,
+    input: { note: string | null; purpose: string | null } = { note: null, purpose: null },
+  ): Promise<RevisionSummary> {
     const { rev, sheet } = await checkerAccess(
       ctx,
       user,
@@ -326,8 +348,8 @@ export const revisionsService = {
           { details: { notClosed } },
         );
       }
-      await revisionsRepository.markChecked(trx, rev.id, user.id, at);
-      await recordCheck(trx, user, sheet, rev, 'checked', 'revision.signed_off');
+      await revisionsRepository.markChecked(trx, rev.id, user.id, at, input);
+      await recordCheck(trx, user, sheet, rev, 'checked', 'revision.signed_off', input);
     });
     await sendAfterCommit(
       ctx.mailer,
@@ -335,6 +357,9 @@ export const revisionsService = {
       signedOffMail(sheet, await emails(ctx, sheet.projectId, ['principal']), {
         number: rev.number,
         by: user.name,
+        note: input.note,
+        purpose: input.purpose,
+        failed: failedCriteria(rev.resultsText),
       }),
     );
     return summaryOf(ctx.db, rev.id);

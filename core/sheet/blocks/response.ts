@@ -45,42 +45,20 @@ import type {
   WalkingResponseData,
 } from '../types';
 import { refuseHiddenUnits } from './calc';
+import {
+  RESPONSE_ANALYSIS_KEYS,
+  RESPONSE_COMMON_KEYS,
+  RESPONSE_KEYS,
+  type ResponseKey,
+} from '../../vocabulary';
 import { checkBlockName, readKeyLines, type KeyLine } from './key-lines';
 
-const COMMON = ['modes', 'analysis', 'damping', 'name'] as const;
+const COMMON = RESPONSE_COMMON_KEYS;
 
-/** The keys of each analysis, besides the common ones. */
-const ANALYSIS_KEYS = {
-  spectrum: [
-    'spectrum',
-    'sds',
-    'sd1',
-    'tl',
-    'r',
-    'ie',
-    'ground',
-    'ag',
-    'q',
-    'table',
-    'table unit',
-    'combine',
-    'direction',
-    'directional',
-    'heights',
-    'elf base shear',
-    'elf share',
-  ],
-  harmonic: ['force', 'unbalance', 'at', 'running speed', 'range', 'points', 'rayleigh', 'dofs'],
-  history: ['record', 'record unit', 'force', 'direction', 'step', 'duration', 'method', 'dofs'],
-  walking: ['mode', 'at', 'force', 'limit'],
-} as const satisfies Record<ResponseAnalysis, readonly string[]>;
+/** The keys of each analysis, besides the common ones (the list is in core/vocabulary.ts). */
+const ANALYSIS_KEYS = RESPONSE_ANALYSIS_KEYS satisfies Record<ResponseAnalysis, readonly string[]>;
 
-type Key = (typeof COMMON)[number] | (typeof ANALYSIS_KEYS)[ResponseAnalysis][number];
-
-/** Every key a response block knows, in the order the documentation lists them. */
-export const RESPONSE_KEYS: readonly Key[] = [
-  ...new Set<Key>([...COMMON, ...Object.values(ANALYSIS_KEYS).flat()]),
-];
+type Key = ResponseKey;
 
 /** The caution every response result carries (DESIGN §12). */
 export const RESPONSE_CAUTION =

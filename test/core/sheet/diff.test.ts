@@ -60,6 +60,39 @@ describe('diffSheets', () => {
     ]);
   });
 
+  it('keeps a criterion whose comment alone changed as the same criterion, with no result change', () => {
+    const next = edit(
+      (s) => (s.blocks[2]!.source = 'f >= 5 Hz  # above 5 Hz, clear of walking\nT < 1 s  # period'),
+    );
+    const d = diffSheets(base, next, evaluateSheet(base), evaluateSheet(next));
+    const checks = d.blocks.find((b) => b.blockId === 'checks')!;
+    expect(checks.status).toBe('changed');
+    expect(checks.hunks).toHaveLength(1);
+    expect(checks.hunks[0]).toMatchObject({ oldCount: 1, newCount: 1 });
+    // Still passes under its new label: nothing removed, nothing added, nothing flipped.
+    expect(d.results.filter((r) => r.blockId === 'checks')).toEqual([]);
+    expect(d.flipped).toEqual([]);
+  });
+
+  it('pairs a criterion whose expression changed under the same comment, and reports its flip', () => {
+    // f = 5.812 Hz (k = 24 kN/mm, m = 18 t): ≥ 5 Hz passes, ≥ 6 Hz fails.
+    const next = edit((s) => (s.blocks[2]!.source = 'f >= 6 Hz  # above 5 Hz\nT < 1 s  # period'));
+    const d = diffSheets(base, next, evaluateSheet(base), evaluateSheet(next));
+    expect(d.results.filter((r) => r.blockId === 'checks')).toEqual([
+      {
+        blockId: 'checks',
+        key: 'criterion above 5 Hz',
+        line: 1,
+        old: 'pass',
+        new: 'fail',
+        relativeChange: null,
+      },
+    ]);
+    expect(d.flipped).toEqual([
+      { blockId: 'checks', label: 'above 5 Hz', line: 1, was: true, now: false },
+    ]);
+  });
+
   it('reports added, removed and moved blocks', () => {
     const next = edit((s) => {
       const notes = s.blocks.pop()!;

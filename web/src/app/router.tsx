@@ -43,6 +43,10 @@ const AdminRoute = screen(
   () => import('./routes/admin'),
   (m) => m.AdminRoute,
 );
+const ReferenceRoute = screen(
+  () => import('./routes/reference'),
+  (m) => m.ReferenceRoute,
+);
 const VerifyRoute = screen(
   () => import('./routes/verify'),
   (m) => m.VerifyRoute,
@@ -163,6 +167,14 @@ function createAppRouter() {
           element: (
             <Opening>
               <AdminRoute />
+            </Opening>
+          ),
+        },
+        {
+          path: paths.reference.path,
+          element: (
+            <Opening>
+              <ReferenceRoute />
             </Opening>
           ),
         },

@@ -40,7 +40,10 @@ export function SheetRoute() {
         />
       </Suspense>
       <Section title="Revisions">
-        <RevisionList sheetId={sheetId} revisionHref={paths.revision.href} />
+        {/* a wide table scrolls in its own box on a phone, not the page */}
+        <div className="overflow-x-auto">
+          <RevisionList sheetId={sheetId} revisionHref={paths.revision.href} />
+        </div>
       </Section>
       <Section title="History">
         <SheetHistory sheetId={sheetId} />

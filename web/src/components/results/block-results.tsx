@@ -28,14 +28,14 @@ function CalcLines({ result }: { result: CalcBlockResult }) {
   return (
     <ol className="divide-y divide-rule/60" aria-label="Calculation results">
       {result.lines.map((line) => (
-        <li key={line.line} className="flex items-baseline justify-between gap-4 py-1">
-          <span className="min-w-0 overflow-x-auto">
+        <li key={line.line} className="flex flex-wrap items-baseline justify-between gap-x-4 py-1">
+          <span className="relative min-w-0 overflow-x-auto">
             <span className="mr-2 font-mono text-xs text-ink-faint">{line.line}</span>
             <Tex tex={handParts(line.latex).join(' = ')} />
             <span className="sr-only"> result {line.display}</span>
           </span>
           {line.comment ? (
-            <span className="shrink-0 text-xs text-ink-faint">{line.comment}</span>
+            <span className="min-w-0 text-xs text-ink-faint">{line.comment}</span>
           ) : null}
         </li>
       ))}

@@ -14,6 +14,8 @@ import { rhoAxis } from './rho-axis';
 
 export const SERIES_COLOURS = ['#1f6b5c', '#8a4b12', '#5b3f8c', '#a3261b', '#4a4f57', '#2d6a2f'];
 const MAX_SHAPES = 6;
+/** Above this many points along the model, each mode gets its own chart. */
+const MANY_POINTS = 40;
 
 /** One DOF label read as node and component: "w3" → (3, w), "N2 ux" → (2, ux), "u4" → (4, u). */
 function parseDof(label: string): { node: number; component: string } | null {
@@ -115,6 +117,60 @@ export function ModeShapePlot({
     tick: { fontSize: 11 },
     tickFormatter: (v: number) => sig(v, 2),
   };
+  // Six overlaid shapes of a model with many DOFs are a tangle: draw each mode in its own small
+  // chart instead (small multiples), which also prints.
+  const separate = modes > 1 && rows.length > MANY_POINTS;
+  const chart = (keys: number[], height: number, legend: boolean) => (
+    <div style={{ height }}>
+      <ResponsiveContainer width="100%" height="100%">
+        <LineChart
+          data={data}
+          layout={alongSpan ? 'horizontal' : 'vertical'}
+          margin={{ top: 4, right: 12, bottom: alongSpan ? 12 : 4, left: 0 }}
+        >
+          <CartesianGrid stroke="#d6cfbf" strokeDasharray="2 3" />
+          {alongSpan ? (
+            <>
+              <XAxis
+                {...positionAxis}
+                label={{ value: axisName, position: 'insideBottom', offset: -8, fontSize: 11 }}
+              />
+              <YAxis {...valueAxis} width={36} />
+            </>
+          ) : (
+            <>
+              <XAxis {...valueAxis} />
+              <YAxis
+                {...positionAxis}
+                reversed
+                width={32}
+                label={{ value: axisName, angle: -90, position: 'insideLeft', fontSize: 11 }}
+              />
+            </>
+          )}
+          <Tooltip
+            formatter={(v) => sig(Number(v), 4)}
+            labelFormatter={(l) => `${axisName} ${String(l)}`}
+          />
+          {legend ? (
+            <Legend wrapperStyle={{ fontSize: 11, paddingTop: alongSpan ? 14 : 0 }} />
+          ) : null}
+          {keys.map((j) => (
+            <Line
+              key={j}
+              dataKey={`m${j + 1}`}
+              name={`Mode ${j + 1}`}
+              stroke={SERIES_COLOURS[j % SERIES_COLOURS.length]}
+              dot={data.length <= 30}
+              isAnimationActive={false}
+              strokeWidth={1.5}
+            />
+          ))}
+        </LineChart>
+      </ResponsiveContainer>
+    </div>
+  );
+  const all = Array.from({ length: modes }, (_, j) => j);
   return (
     <figure className="min-w-0 flex-1" aria-label="Mode shapes">
       <figcaption className="mb-1 flex items-center justify-between gap-2 text-xs font-semibold tracking-wide text-ink-soft uppercase">
@@ -122,7 +178,7 @@ export function ModeShapePlot({
           Mode shapes{' '}
           <span className="font-normal normal-case">
             ({layout && component ? `${component} at each node, ` : ''}each scaled to a largest
-            value of 1)
+            value of 1{separate ? `; ${rows.length} points, one chart per mode` : ''})
           </span>
         </span>
         {layout && layout.components.length > 1 ? (
@@ -144,52 +200,18 @@ export function ModeShapePlot({
           </label>
         ) : null}
       </figcaption>
-      <div style={{ height: 240 }}>
-        <ResponsiveContainer width="100%" height="100%">
-          <LineChart
-            data={data}
-            layout={alongSpan ? 'horizontal' : 'vertical'}
-            margin={{ top: 4, right: 12, bottom: alongSpan ? 12 : 4, left: 0 }}
-          >
-            <CartesianGrid stroke="#d6cfbf" strokeDasharray="2 3" />
-            {alongSpan ? (
-              <>
-                <XAxis
-                  {...positionAxis}
-                  label={{ value: axisName, position: 'insideBottom', offset: -8, fontSize: 11 }}
-                />
-                <YAxis {...valueAxis} width={36} />
-              </>
-            ) : (
-              <>
-                <XAxis {...valueAxis} />
-                <YAxis
-                  {...positionAxis}
-                  reversed
-                  width={32}
-                  label={{ value: axisName, angle: -90, position: 'insideLeft', fontSize: 11 }}
-                />
-              </>
-            )}
-            <Tooltip
-              formatter={(v) => sig(Number(v), 4)}
-              labelFormatter={(l) => `${axisName} ${String(l)}`}
-            />
-            <Legend wrapperStyle={{ fontSize: 11, paddingTop: alongSpan ? 14 : 0 }} />
-            {Array.from({ length: modes }, (_, j) => (
-              <Line
-                key={j}
-                dataKey={`m${j + 1}`}
-                name={`Mode ${j + 1}`}
-                stroke={SERIES_COLOURS[j % SERIES_COLOURS.length]}
-                dot={data.length <= 30}
-                isAnimationActive={false}
-                strokeWidth={1.5}
-              />
-            ))}
-          </LineChart>
-        </ResponsiveContainer>
-      </div>
+      {separate ? (
+        <ol className="grid grid-cols-1 gap-2 sm:grid-cols-2" aria-label="One chart per mode">
+          {all.map((j) => (
+            <li key={j} className="min-w-0 break-inside-avoid" aria-label={`Mode ${j + 1}`}>
+              <p className="text-xs text-ink-soft">Mode {j + 1}</p>
+              {chart([j], 150, false)}
+            </li>
+          ))}
+        </ol>
+      ) : (
+        chart(all, 240, true)
+      )}
     </figure>
   );
 }
@@ -227,6 +249,11 @@ export function ConvergencePlot({ histories }: { histories: number[][] }) {
         {data.length === 0 ? (
           <p className="text-xs text-ink-faint">
             This method reports no iteration history for mode {mode + 1}.
+          </p>
+        ) : data.length === 1 ? (
+          // one point is not a curve: say what it means instead of drawing a lone dot
+          <p className="text-xs text-ink-soft">
+            Mode {mode + 1} converged in one step: ρ = {sig(data[0]!.rho, 8)} (1/s²).
           </p>
         ) : (
           <ResponsiveContainer width="100%" height="100%">

@@ -84,17 +84,44 @@ export function powerOfTen(value: number, digits = 2): string {
   return `${mantissa} × 10${superscript}`;
 }
 
-/** The conditioning note: what the numbers are and why the results can still be used. */
-export function ConditioningNote({
-  conditioning,
-  compact = false,
-}: {
-  conditioning: Conditioning;
-  compact?: boolean;
-}) {
+/**
+ * What the conditioning means for the numbers on screen, in words that agree with them. The
+ * backward error ‖Kφ − λMφ‖ / ((‖K‖ + |λ|‖M‖)‖φ‖) of a stable solve stays near ε whatever the
+ * conditioning; it is the eigenvalue itself whose relative error can reach about
+ * (backward error) × λ_max/λ₁ (Parlett, The Symmetric Eigenvalue Problem, ch. 4 — from memory).
+ */
+export function conditioningWords(
+  conditioning: Pick<Conditioning, 'estimate' | 'digitsLost' | 'tolerance'>,
+  worstBackwardError: number | null,
+): string {
   const { estimate, digitsLost, tolerance } = conditioning;
   // digits of λ₁ that rounding leaves: −log10(ε·λ_max/λ₁), as the engine counts them
   const kept = Math.max(0, Math.floor(-Math.log10(estimate * EPS)));
+  const tol = tolerance !== null ? tolerance.toExponential(0).replace('-', '−') : null;
+  let words = `λₘₐₓ/λ₁ ≥ ${powerOfTen(estimate)}: at least ${digitsLost.toFixed(1)} of 16 digits are lost to the model, leaving at most ${kept.toFixed(0)} for the lowest modes`;
+  words += tol ? `, so their last digits may not reach the tolerance ${tol}.` : '.';
+  if (worstBackwardError !== null && Number.isFinite(worstBackwardError)) {
+    const worst = powerOfTen(worstBackwardError);
+    const bound = powerOfTen(worstBackwardError * estimate);
+    words +=
+      tolerance !== null && worstBackwardError > tolerance
+        ? ` The backward errors above the tolerance (largest ${worst}) are explained by it.`
+        : ` The backward errors in the table (largest ${worst}) are small: the solve is accurate for this model; an eigenvalue's relative error can still be about ${worst} × λₘₐₓ/λ₁ ≈ ${bound}.`;
+  }
+  return `${words} This is usual for a fine mesh; it does not mean a mode was missed.`;
+}
+
+/** The conditioning note: what the numbers are and why the results can still be used. */
+export function ConditioningNote({
+  conditioning,
+  worstBackwardError,
+  compact = false,
+}: {
+  conditioning: Conditioning;
+  /** The largest backward error of the modes shown beside the note. */
+  worstBackwardError: number | null;
+  compact?: boolean;
+}) {
   return (
     <div
       role="note"
@@ -104,16 +131,8 @@ export function ConditioningNote({
       }`}
     >
       <p>
-        <span className="font-semibold text-ink">Conditioning (information).</span> λ<sub>max</sub>
-        /λ<sub>1</sub> ≥ {powerOfTen(estimate)}: at least {digitsLost.toFixed(1)} of 16 digits are
-        lost to the model, leaving at most {kept.toFixed(0)} for the lowest modes
-        {tolerance !== null ? (
-          <>
-            , so their last digits and backward errors cannot reach the tolerance{' '}
-            {tolerance.toExponential(0).replace('-', '−')}
-          </>
-        ) : null}
-        . This is usual for a fine mesh; it does not mean a mode was missed.
+        <span className="font-semibold text-ink">Conditioning (information).</span>{' '}
+        {conditioningWords(conditioning, worstBackwardError)}
       </p>
       {!compact ? (
         <details className="mt-0.5 text-xs">
@@ -157,14 +176,24 @@ export function ModesWarnings({
   result,
   compact = false,
 }: {
-  result: Pick<ModesBlockResult, 'engine'> & { warnings: readonly ModesMessage[] };
+  result: Pick<ModesBlockResult, 'engine' | 'modes'> & { warnings: readonly ModesMessage[] };
   compact?: boolean;
 }) {
   const { conditioning, warnings } = splitModesWarnings(result);
+  const errors = result.modes
+    .map((m) => m.backwardError)
+    .filter((e): e is number => e !== null && Number.isFinite(e));
+  const worst = errors.length > 0 ? Math.max(...errors) : null;
   return (
     <>
       <ModesWarningList warnings={warnings} compact={compact} />
-      {conditioning ? <ConditioningNote conditioning={conditioning} compact={compact} /> : null}
+      {conditioning ? (
+        <ConditioningNote
+          conditioning={conditioning}
+          worstBackwardError={worst}
+          compact={compact}
+        />
+      ) : null}
     </>
   );
 }

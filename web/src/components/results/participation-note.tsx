@@ -9,7 +9,17 @@ import { massText } from '../../lib/format';
  */
 export function ParticipationNote({ result }: { result: ModesBlockResult }) {
   const p = result.participation;
-  if (!p) return null;
+  if (!p) {
+    // The Γ, effective-mass and cumulative columns show "—": say why and what to write.
+    return (
+      <p className="text-xs text-ink-soft" data-testid="participation-reason">
+        Γ, effective mass and cumulative are empty (—): no influence direction. Give{' '}
+        <code>direction:</code> a vector with one entry per DOF (
+        <code>ones({result.size ?? 'n'})</code> when every DOF moves with the ground) or a
+        generator’s direction name (<code>x</code>, <code>transverse</code>).
+      </p>
+    );
+  }
   return (
     <p className="text-xs text-ink-faint">
       Effective masses are shares of rᵀMr = {massText(p.mass)} in the direction {p.direction}: the

@@ -1,7 +1,39 @@
 import type { ReactNode, TdHTMLAttributes, ThHTMLAttributes } from 'react';
 
-/** A ruled table in the sheet style: hairlines between rows, no zebra stripes. */
-export function Table({ caption, children }: { caption: string; children: ReactNode }) {
+/**
+ * A ruled table in the sheet style: hairlines between rows, no zebra stripes. A wide table scrolls
+ * sideways inside its own box; with `scrollable`, that box is a named region a keyboard can focus
+ * and scroll, and narrow screens are told it scrolls.
+ */
+export function Table({
+  caption,
+  children,
+  scrollable = false,
+}: {
+  caption: string;
+  children: ReactNode;
+  scrollable?: boolean;
+}) {
+  if (scrollable) {
+    return (
+      <div className="min-w-0">
+        <div
+          className="max-w-full overflow-x-auto overscroll-x-contain"
+          role="region"
+          aria-label={`${caption} (scrolls sideways)`}
+          tabIndex={0}
+        >
+          <table className="w-full border-collapse text-left text-sm">
+            <caption className="sr-only">{caption}</caption>
+            {children}
+          </table>
+        </div>
+        <p className="mt-0.5 text-xs text-ink-faint sm:hidden" aria-hidden="true">
+          Scroll the table sideways for more columns.
+        </p>
+      </div>
+    );
+  }
   return (
     <div className="overflow-x-auto">
       <table className="w-full border-collapse text-left text-sm">

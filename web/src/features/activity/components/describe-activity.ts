@@ -161,6 +161,14 @@ const DESCRIBERS: Record<string, Describer> = {
     text: `replied to a remark on ${revisionName(e, d)}`,
     facts: d.answered === true ? ['marked it answered'] : [],
   }),
+  'remark.reply_edited': (e, d) => ({
+    text: `edited a reply on ${revisionName(e, d)}`,
+    facts: [],
+  }),
+  'remark.reply_withdrawn': (e, d) => ({
+    text: `withdrew a reply on ${revisionName(e, d)}`,
+    facts: [],
+  }),
   'remark.answered': (e, d) => ({
     text: `answered a remark on ${revisionName(e, d)}`,
     facts: [],

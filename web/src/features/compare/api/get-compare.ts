@@ -18,6 +18,8 @@ export type RemarkInContext = {
   text: string;
   state: 'open' | 'answered' | 'closed';
   author: { id: number; name: string };
+  /** For a remark carried from an earlier revision: the remark it continues. */
+  carriedFrom?: { remarkId: number; revisionNumber: number; line: number } | null;
   mapped: { status: 'same' | 'changed' | 'gone'; blockId: string | null; line: number | null };
 };
 

@@ -13,6 +13,7 @@ import {
   type ResultChange,
   type RevisionChoice,
 } from '../api/get-compare';
+import { hunkRows, remarkThreads } from '../lib/hunk-rows';
 
 const count = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
 
@@ -264,23 +265,46 @@ function BlockDiff({ change, comparison }: { change: BlockChange; comparison: Co
       {change.hunks.map((h) => (
         <div key={`${h.oldStart}-${h.newStart}`} className="font-mono text-xs">
           <p className="bg-paper-deep px-3 py-0.5 text-ink-faint">
-            @ line {h.oldStart} (−{h.oldCount}) → line {h.newStart} (+{h.newCount})
+            {h.oldCount === h.newCount
+              ? `@ line ${h.oldStart}${h.oldStart === h.newStart ? '' : ` → line ${h.newStart}`}: ${count(h.newCount, 'line')} changed`
+              : `@ line ${h.oldStart} (−${h.oldCount}) → line ${h.newStart} (+${h.newCount})`}
           </p>
-          {h.removed.map((l, i) => (
-            <p key={`r${i}`} className="bg-fail-soft px-3 whitespace-pre-wrap text-fail">
-              − {l}
-            </p>
-          ))}
-          {h.added.map((l, i) => (
-            <p key={`a${i}`} className="bg-pass-soft px-3 whitespace-pre-wrap text-pass">
-              + {l}
-            </p>
-          ))}
+          {hunkRows(h).map((row) =>
+            row.kind === 'changed' ? (
+              <p
+                key={`c${row.oldLine}`}
+                className="bg-paper-deep/60 px-3 whitespace-pre-wrap"
+                aria-label={`Line ${row.newLine} changed`}
+              >
+                <span className="text-ink-faint">~ </span>
+                {row.prefix}
+                {row.removed ? <del className="bg-fail-soft text-fail">{row.removed}</del> : null}
+                {row.added ? (
+                  <ins className="bg-pass-soft text-pass no-underline">{row.added}</ins>
+                ) : null}
+                {row.suffix}
+              </p>
+            ) : row.kind === 'removed' ? (
+              <p
+                key={`r${row.oldLine}`}
+                className="bg-fail-soft px-3 whitespace-pre-wrap text-fail"
+              >
+                − {row.text}
+              </p>
+            ) : (
+              <p
+                key={`a${row.newLine}`}
+                className="bg-pass-soft px-3 whitespace-pre-wrap text-pass"
+              >
+                + {row.text}
+              </p>
+            ),
+          )}
         </div>
       ))}
       {remarksHere.length > 0 ? (
         <p className="px-3 py-1 text-xs text-ink-soft">
-          {count(remarksHere.length, 'remark')} on this block (listed below).
+          {count(remarkThreads(remarksHere), 'remark')} on this block (listed below).
         </p>
       ) : null}
     </article>

@@ -3,6 +3,7 @@ import type { BlockResult, SheetIssue } from '../api/results';
 import type { Block } from '../api/types';
 import { renderMarkdown } from '../../../components/results/markdown';
 import { ResponseResults } from '../../../components/results/response-results';
+import { blockAnchor } from '../lib/outline';
 import type { ScopeName } from '../lib/scope';
 import { BlockSource, type RemarkMark } from './block-source';
 import { CalcResult } from './calc-result';
@@ -100,11 +101,12 @@ export function BlockCard(props: BlockCardProps) {
   return (
     <section
       aria-label={label}
+      id={blockAnchor(block.id)}
       data-block-id={block.id}
       data-kind={block.kind}
       onDragOver={props.onDragOver}
       onDrop={props.onDrop}
-      className={`group rounded-sm border bg-paper-sheet shadow-sheet ${
+      className={`group scroll-mt-28 rounded-sm border bg-paper-sheet shadow-sheet ${
         props.dropTarget ? 'border-accent ring-2 ring-accent/30' : 'border-rule'
       }`}
     >

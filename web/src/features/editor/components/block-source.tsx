@@ -5,7 +5,7 @@ import CodeMirror from '@uiw/react-codemirror';
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { SheetIssue } from '../api/results';
 import type { BlockKind } from '../api/types';
-import { sheetCompletion } from '../lib/completion';
+import { sheetCompletion, sheetHover } from '../lib/completion';
 import type { ScopeName } from '../lib/scope';
 import { sheetLanguage } from '../lib/sheet-language';
 
@@ -116,6 +116,7 @@ export function BlockSource({
         (line) => live.current.names(line),
         () => live.current.uploads(),
       ),
+      sheetHover(kind),
       theme,
       // The lint state is part of the configuration from the start (no lint source of its own:
       // the diagnostics come from the server's evaluation), so they survive a reconfigure.

@@ -11,7 +11,7 @@ export function CalcResult({ result }: { result: CalcBlockResult }) {
         return (
           <li
             key={line.line}
-            className="flex items-baseline justify-between gap-4 py-1"
+            className="flex flex-wrap items-baseline justify-between gap-x-4 py-1"
             data-line={line.line}
           >
             <span className="min-w-0 overflow-x-auto">
@@ -19,7 +19,7 @@ export function CalcResult({ result }: { result: CalcBlockResult }) {
               <span className="sr-only"> result {line.display}</span>
             </span>
             {line.comment ? (
-              <span className="shrink-0 text-xs text-ink-faint">{line.comment}</span>
+              <span className="min-w-0 text-xs text-ink-faint">{line.comment}</span>
             ) : null}
           </li>
         );

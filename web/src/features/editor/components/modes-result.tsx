@@ -15,6 +15,17 @@ const ConvergencePlot = lazy(() =>
 );
 
 /**
+ * Δt_cr = 2/ω_max is for explicit integration: it belongs where the author asked for the highest
+ * mode (forward iteration) or for every mode of the model, not under every floor-frequency solve.
+ */
+export function showsCriticalTimeStep(
+  result: Pick<ModesBlockResult, 'method' | 'methodUsed' | 'size' | 'modes'>,
+): boolean {
+  if (result.method === 'forward' || result.methodUsed === 'forward') return true;
+  return result.size !== null && result.size > 0 && result.modes.length >= result.size;
+}
+
+/**
  * The modes table, the Sturm check, warnings (and the conditioning note, which is information)
  * and the two plots of one eigen-solve.
  */
@@ -29,6 +40,8 @@ export function ModesResult({
   fileStem: string;
 }) {
   const name = result.name ?? 'modes';
+  // A direct solve has no iteration history: no empty chart for it.
+  const iterated = result.histories.some((h) => h.length > 0);
   return (
     <div className="flex flex-col gap-3 text-sm">
       <p className="text-ink-soft">
@@ -40,7 +53,7 @@ export function ModesResult({
           : null}
       </p>
       {result.modes.length > 0 ? (
-        <Table caption={`Modes of ${name}`}>
+        <Table caption={`Modes of ${name}`} scrollable>
           <thead>
             <tr>
               <Th caps={false} className="text-right">
@@ -76,7 +89,7 @@ export function ModesResult({
               </Th>
             </tr>
           </thead>
-          <tbody className="num">
+          <tbody className="num whitespace-nowrap">
             {result.modes.map((m) => (
               <tr key={m.mode}>
                 <Td className="py-1 text-right">{m.mode}</Td>
@@ -114,7 +127,7 @@ export function ModesResult({
           {result.sturm.missed ? 'a mode was missed.' : 'no mode missed.'}
         </p>
       ) : null}
-      {result.criticalTimeStep !== null ? (
+      {result.criticalTimeStep !== null && showsCriticalTimeStep(result) ? (
         <p>
           Critical time step Δt<sub>cr</sub> = 2/ω<sub>max</sub> ={' '}
           <span className="num">{sig(result.criticalTimeStep, digits)}</span> s
@@ -122,7 +135,7 @@ export function ModesResult({
       ) : null}
       <ModesWarnings result={result} />
       <ModesDownloads result={result} fileStem={fileStem} />
-      {(result.shapes && result.shapes.length > 0) || result.histories.length > 0 ? (
+      {(result.shapes && result.shapes.length > 0) || iterated ? (
         <Suspense fallback={<Spinner label="Drawing the plots…" />}>
           <div className="flex flex-col gap-4 md:flex-row">
             {result.shapes && result.shapes.length > 0 ? (
@@ -132,7 +145,7 @@ export function ModesResult({
                 dofLabels={result.dofLabels}
               />
             ) : null}
-            {result.histories.length > 0 ? <ConvergencePlot histories={result.histories} /> : null}
+            {iterated ? <ConvergencePlot histories={result.histories} /> : null}
           </div>
         </Suspense>
       ) : null}

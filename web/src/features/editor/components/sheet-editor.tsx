@@ -1,7 +1,8 @@
 import { useCallback, useEffect, useMemo, useRef, useState, type DragEvent } from 'react';
+import { Link } from 'react-router-dom';
 import { Alert, QueryError } from '../../../components/ui/alert';
+import { paths } from '../../../config/paths';
 import { Spinner } from '../../../components/ui/spinner';
-import { CAUTION } from '../../../config/words';
 import { useSheet } from '../api/get-sheet';
 import type { SheetIssue } from '../api/results';
 import {
@@ -20,6 +21,7 @@ import { BlockCard, KIND_LABELS } from './block-card';
 import type { RemarkMark } from './block-source';
 import { ConflictDialog } from './conflict-dialog';
 import { SheetHeader } from './sheet-header';
+import { SheetOutline } from './sheet-outline';
 import { UploadZone } from './upload-zone';
 
 type Undo = { label: string; blocks: Block[] };
@@ -115,6 +117,10 @@ function EditorSurface({
     }
     return map;
   }, [evaluation.results]);
+  const errorCounts = useMemo(
+    () => new Map([...issuesByBlock].map(([id, list]) => [id, list.length])),
+    [issuesByBlock],
+  );
 
   const update = useCallback((id: string, source: string) => {
     setBlocks((current) => current.map((b) => (b.id === id ? { ...b, source } : b)));
@@ -189,6 +195,8 @@ function EditorSurface({
           it is; changes here go into Rev {sheet.latestRevision.number + 1} when it is issued.
         </p>
       ) : null}
+
+      <SheetOutline blocks={blocks} errorsByBlock={errorCounts} />
 
       {undo ? (
         <div
@@ -286,6 +294,13 @@ function EditorSurface({
               + {KIND_LABELS[kind]}
             </button>
           ))}
+          <Link
+            to={paths.reference.href()}
+            target="_blank"
+            className="text-xs text-accent-strong underline underline-offset-2"
+          >
+            Sheet reference
+          </Link>
           <label className="ml-auto flex items-center gap-1 text-xs text-ink-soft">
             Significant figures
             <input
@@ -307,10 +322,7 @@ function EditorSurface({
         <Alert title="The draft was not saved.">{save.error}</Alert>
       ) : null}
 
-      <p className="border-t border-rule pt-2 text-xs text-ink-soft" data-testid="sheet-caution">
-        <span className="font-semibold">Caution.</span> {CAUTION}
-      </p>
-
+      {/* The caution is the page's own, in the footer of every signed-in screen: once per screen. */}
       {conflict ? (
         <ConflictDialog
           mine={blocks}

@@ -48,100 +48,106 @@ export function SheetHeader({
 }) {
   const running = evaluation.phase === 'running';
   return (
-    <header className="sticky top-0 z-20 -mx-2 border-b border-rule bg-paper/95 px-2 py-2 backdrop-blur">
-      <div className="flex flex-wrap items-baseline gap-x-3 gap-y-1">
-        <Link to={projectHref} className="text-xs text-accent-strong hover:underline">
+    <>
+      {/* The project and subject scroll away; the sticky part is the title line and the status,
+          one or two lines on a phone. */}
+      <div className="-mb-2 flex flex-col gap-0.5">
+        <Link to={projectHref} className="self-start text-xs text-accent-strong hover:underline">
           {sheet.projectJobNumber} · {sheet.projectName}
         </Link>
-        <h1 className="text-lg font-semibold text-ink">
-          <span className="num mr-2">{sheet.number}</span>
-          {sheet.title}
-        </h1>
-        <span className="rounded-sm border border-rule-strong px-1.5 text-xs text-ink-soft">
-          {STATUS_LABELS[sheet.status] ?? sheet.status}
-          {sheet.latestRevision ? ` · Rev ${sheet.latestRevision.number}` : ''}
-        </span>
-        {readOnly ? <span className="text-xs text-ink-faint">Read only</span> : null}
+        {sheet.subject ? <p className="text-sm text-ink-soft">{sheet.subject}</p> : null}
       </div>
-      {sheet.subject ? <p className="text-sm text-ink-soft">{sheet.subject}</p> : null}
-      <div
-        className="mt-1 flex flex-wrap items-center gap-x-4 gap-y-1 text-sm"
-        aria-label="Sheet status"
-      >
-        {results ? (
-          <p className="flex items-center gap-3" data-testid="criteria-summary">
-            <span className="font-medium text-pass">{results.summary.passed} passed</span>
-            <span
-              className={`font-medium ${results.summary.failed > 0 ? 'text-fail' : 'text-ink-soft'}`}
-            >
-              {results.summary.failed} failed
-            </span>
-            {results.summary.errors > 0 ? (
-              <span className="font-medium text-fail">
-                {results.summary.errors} error{results.summary.errors === 1 ? '' : 's'}
+      <header className="sticky top-0 z-20 -mx-2 border-b border-rule bg-paper/95 px-2 py-1 backdrop-blur sm:py-2">
+        <div className="flex min-w-0 items-baseline gap-x-3 gap-y-1 sm:flex-wrap">
+          <h1 className="min-w-0 truncate text-base font-semibold text-ink sm:text-lg sm:whitespace-normal">
+            <span className="num mr-2">{sheet.number}</span>
+            {sheet.title}
+          </h1>
+          <span className="shrink-0 rounded-sm border border-rule-strong px-1.5 text-xs text-ink-soft">
+            {STATUS_LABELS[sheet.status] ?? sheet.status}
+            {sheet.latestRevision ? ` · Rev ${sheet.latestRevision.number}` : ''}
+          </span>
+          {readOnly ? <span className="shrink-0 text-xs text-ink-faint">Read only</span> : null}
+        </div>
+        <div
+          className="mt-1 flex flex-wrap items-center gap-x-3 gap-y-1 text-sm sm:gap-x-4"
+          aria-label="Sheet status"
+        >
+          {results ? (
+            <p className="flex items-center gap-3" data-testid="criteria-summary">
+              <span className="font-medium text-pass">{results.summary.passed} passed</span>
+              <span
+                className={`font-medium ${results.summary.failed > 0 ? 'text-fail' : 'text-ink-soft'}`}
+              >
+                {results.summary.failed} failed
               </span>
+              {results.summary.errors > 0 ? (
+                <span className="font-medium text-fail">
+                  {results.summary.errors} error{results.summary.errors === 1 ? '' : 's'}
+                </span>
+              ) : null}
+            </p>
+          ) : (
+            <p className="text-ink-faint">Not evaluated yet</p>
+          )}
+          {/* Run / Cancel before the status, so the changing progress text never moves it */}
+          <div className="flex items-center gap-2">
+            {running ? (
+              <Button variant="danger" className="py-0.5" onClick={onCancel}>
+                Cancel
+              </Button>
+            ) : (
+              <Button variant="secondary" className="py-0.5" onClick={onRun}>
+                Run
+              </Button>
+            )}
+          </div>
+          <p role="status" aria-live="polite" className="flex items-center gap-2">
+            {running ? (
+              <>
+                <span
+                  aria-hidden="true"
+                  className="size-3 animate-spin rounded-full border-2 border-accent border-t-transparent"
+                />
+                {evaluation.progress?.fraction !== null &&
+                evaluation.progress?.fraction !== undefined ? (
+                  <progress
+                    className="h-1.5 w-24 accent-accent"
+                    max={1}
+                    value={evaluation.progress.fraction}
+                    aria-label="Evaluation progress"
+                  />
+                ) : null}
+                <span>{evaluation.progress?.message ?? 'Evaluating…'}</span>
+              </>
+            ) : evaluation.phase === 'cancelled' ? (
+              <span className="font-medium text-ink">Evaluation cancelled — results are stale</span>
+            ) : evaluation.phase === 'failed' ? (
+              <span className="text-fail">{evaluation.message}</span>
+            ) : stale ? (
+              <span className="font-medium text-ink">Results are stale</span>
+            ) : results ? (
+              <span className="text-ink-faint">Results up to date</span>
             ) : null}
           </p>
-        ) : (
-          <p className="text-ink-faint">Not evaluated yet</p>
-        )}
-        {/* Run / Cancel before the status, so the changing progress text never moves it */}
-        <div className="flex items-center gap-2">
-          {running ? (
-            <Button variant="danger" className="py-0.5" onClick={onCancel}>
-              Cancel
-            </Button>
-          ) : (
-            <Button variant="secondary" className="py-0.5" onClick={onRun}>
-              Run
-            </Button>
-          )}
-        </div>
-        <p role="status" aria-live="polite" className="flex items-center gap-2">
-          {running ? (
-            <>
-              <span
-                aria-hidden="true"
-                className="size-3 animate-spin rounded-full border-2 border-accent border-t-transparent"
-              />
-              {evaluation.progress?.fraction !== null &&
-              evaluation.progress?.fraction !== undefined ? (
-                <progress
-                  className="h-1.5 w-24 accent-accent"
-                  max={1}
-                  value={evaluation.progress.fraction}
-                  aria-label="Evaluation progress"
-                />
-              ) : null}
-              <span>{evaluation.progress?.message ?? 'Evaluating…'}</span>
-            </>
-          ) : evaluation.phase === 'cancelled' ? (
-            <span className="font-medium text-ink">Evaluation cancelled — results are stale</span>
-          ) : evaluation.phase === 'failed' ? (
-            <span className="text-fail">{evaluation.message}</span>
-          ) : stale ? (
-            <span className="font-medium text-ink">Results are stale</span>
-          ) : results ? (
-            <span className="text-ink-faint">Results up to date</span>
+          {!readOnly ? (
+            <p
+              className={`ml-auto text-xs ${
+                saveState === 'saved'
+                  ? 'text-ink-faint'
+                  : saveState === 'error' || saveState === 'conflict' || saveState === 'offline'
+                    ? 'font-medium text-fail'
+                    : 'text-ink-soft'
+              }`}
+              title={saveError ?? undefined}
+              data-testid="save-state"
+            >
+              {SAVE_LABELS[saveState]}
+              {saveState === 'error' && saveError ? `: ${saveError}` : ''}
+            </p>
           ) : null}
-        </p>
-        {!readOnly ? (
-          <p
-            className={`ml-auto text-xs ${
-              saveState === 'saved'
-                ? 'text-ink-faint'
-                : saveState === 'error' || saveState === 'conflict' || saveState === 'offline'
-                  ? 'font-medium text-fail'
-                  : 'text-ink-soft'
-            }`}
-            title={saveError ?? undefined}
-            data-testid="save-state"
-          >
-            {SAVE_LABELS[saveState]}
-            {saveState === 'error' && saveError ? `: ${saveError}` : ''}
-          </p>
-        ) : null}
-      </div>
-    </header>
+        </div>
+      </header>
+    </>
   );
 }

@@ -1,4 +1,5 @@
-import type { Block, BlockKind, Draft } from '../api/types';
+import { BLOCK_REFERENCE } from '../../../config/sheet-reference';
+import { BLOCK_KINDS, type Block, type BlockKind, type Draft } from '../api/types';
 
 /** A fresh block id, stable across revisions once saved (its shape: lib/block-ids.ts). */
 export function newBlockId(): string {
@@ -7,15 +8,10 @@ export function newBlockId(): string {
   return `b${Array.from(bytes, (b) => b.toString(16).padStart(2, '0')).join('')}`;
 }
 
-export const BLOCK_STARTERS: Record<BlockKind, string> = {
-  text: '',
-  calc: '',
-  matrix: 'name: K\nunit: kN/m\n',
-  modes: 'stiffness: K\nmass: M\nmethod: auto\ncount: 3\nname: modes\n',
-  response:
-    'modes: modes\nanalysis: spectrum\nspectrum: ASCE 7-16\nSDS: 1.0\nSD1: 0.6\nTL: 8 s\nR: 8\ndamping: 0.05\ncombine: cqc\nname: rsa\n',
-  criteria: '',
-};
+/** What a new block starts with: the reference's starting points, which evaluate as they are. */
+export const BLOCK_STARTERS: Record<BlockKind, string> = Object.fromEntries(
+  BLOCK_KINDS.map((kind) => [kind, BLOCK_REFERENCE.find((b) => b.kind === kind)?.starter ?? '']),
+) as Record<BlockKind, string>;
 
 export function moveBlock(blocks: readonly Block[], from: number, to: number): Block[] {
   if (to < 0 || to >= blocks.length || from === to) return [...blocks];

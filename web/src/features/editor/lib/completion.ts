@@ -5,6 +5,8 @@ import {
   type CompletionResult,
 } from '@codemirror/autocomplete';
 import type { Extension } from '@codemirror/state';
+import { hoverTooltip } from '@codemirror/view';
+import { functionReference, keyReference } from '../../../config/sheet-reference';
 import type { BlockKind } from '../api/types';
 import {
   MATRIX_KEYS,
@@ -16,60 +18,20 @@ import {
 } from './sheet-language';
 import type { ScopeName } from './scope';
 
-const KEY_HINTS: Record<string, string> = {
-  stiffness: 'name of K, e.g. frame.K',
-  mass: 'name of M, e.g. frame.M',
-  method: MODES_METHODS.join(' | '),
-  count: 'number of modes',
-  shift: 'target frequency, e.g. 24.5 Hz',
-  tolerance: 'e.g. 1e-10',
-  'max iterations': 'e.g. 200',
-  normalize: 'mass | max | dof <n>',
-  direction: 'influence vector for participation',
-  name: 'results are bound under this name',
-  unit: 'one unit for every entry, e.g. kN/m',
-  symmetric: 'yes | no',
-  from: 'name of an uploaded file',
-};
+/** A key's value as the reference states it, beside the key in the completion list. */
+const keyHint = (kind: BlockKind, key: string) => keyReference(kind, key)?.value ?? '';
 
-const RESPONSE_HINTS: Record<string, string> = {
-  modes: 'name of a modes block above',
-  analysis: 'spectrum | harmonic | history | walking',
-  damping: 'ratio, e.g. 0.05, or one per mode',
-  name: 'results are bound under this name',
-  spectrum: 'ASCE 7-16 | EN 1998-1 type 1|2 | table',
-  sds: 'S_DS in g (ASCE 7-16)',
-  sd1: 'S_D1 in g (ASCE 7-16)',
-  tl: 'T_L, e.g. 8 s',
-  r: 'response modification coefficient R',
-  ie: 'importance factor I_e',
-  ground: 'A–E (EN 1998-1)',
-  ag: 'a_g, e.g. 2.5 m/s^2 or 0.25 (× g)',
-  q: 'behaviour factor (design spectrum)',
-  table: 'uploaded CSV or two-column matrix',
-  'table unit': 'g | m/s^2',
-  combine: 'cqc | srss',
-  direction: 'a direction of the modes, e.g. x or x, y',
-  directional: 'srss | 100-30',
-  heights: 'storey heights, e.g. 3.5 m',
-  'elf base shear': 'V_ELF to scale to, e.g. 1450 kN',
-  'elf share': '1.0 (ASCE 7-16) or 0.85',
-  force: 'force per DOF, e.g. [0, 0, 5 kN]; walking P_o',
-  unbalance: 'm·e, e.g. 12 kg m',
-  at: 'DOF number',
-  'running speed': 'e.g. 1480 rpm',
-  range: 'e.g. [2 Hz, 60 Hz]',
-  points: 'frequencies in the range',
-  rayleigh: 'two frequencies, e.g. [8 Hz, 40 Hz]',
-  dofs: 'DOF numbers, e.g. [1, 3]',
-  record: 'uploaded CSV or two-column matrix (t, value)',
-  'record unit': 'g | m/s^2 (ground record)',
-  step: 'time step, e.g. 0.005 s',
-  duration: 'end time, e.g. 20 s',
-  method: 'exact | newmark',
-  mode: 'mode number (walking)',
-  limit: 'acceleration limit, e.g. 0.7 m/s^2',
-};
+/** A function's signature beside it, its units and summary in the info panel. */
+function functionOption(name: string): Completion {
+  const ref = functionReference(name);
+  return {
+    label: name,
+    type: 'function',
+    ...(ref
+      ? { detail: ref.signature, info: `${ref.summary} Units: ${ref.units}.`.replace(/`/g, '') }
+      : {}),
+  };
+}
 
 /**
  * Completion of names in scope (and, in `modes` and `matrix` blocks, of the header keys and the
@@ -86,7 +48,6 @@ export function sheetCompletion(
     if (kind === 'modes' || kind === 'matrix' || kind === 'response') {
       const keys: readonly string[] =
         kind === 'modes' ? MODES_KEYS : kind === 'response' ? RESPONSE_KEYS : MATRIX_KEYS;
-      const hints = kind === 'response' ? RESPONSE_HINTS : KEY_HINTS;
       if (!before.includes(':')) {
         const word = /[A-Za-z ]*$/.exec(before);
         const from = line.from + (before.length - (word?.[0].trimStart().length ?? 0));
@@ -96,7 +57,8 @@ export function sheetCompletion(
           options: keys.map<Completion>((key) => ({
             label: `${key}: `,
             displayLabel: key,
-            detail: hints[key] ?? '',
+            detail: keyHint(kind, key),
+            info: keyReference(kind, key)?.summary ?? '',
             type: 'property',
           })),
           validFor: /^[A-Za-z ]*$/,
@@ -165,10 +127,56 @@ export function sheetCompletion(
           type: 'variable',
           boost: 1,
         })),
-        ...SHEET_FUNCTIONS.map<Completion>((f) => ({ label: f, type: 'function' })),
+        ...SHEET_FUNCTIONS.map(functionOption),
       ],
       validFor: /^[\w.]*$/,
     };
   };
   return autocompletion({ override: [source], activateOnTyping: true, icons: false });
+}
+
+/** The reference's words for a name under the pointer: a function's signature or a block key. */
+export function referenceAt(kind: BlockKind, lineText: string, column: number): string | null {
+  if (kind === 'modes' || kind === 'matrix' || kind === 'response') {
+    const colon = lineText.indexOf(':');
+    if (colon < 0 || column > colon) return null;
+    const key = lineText.slice(0, colon).trim().toLowerCase();
+    const ref = keyReference(kind, key);
+    return ref
+      ? `${ref.key}: ${ref.value}\n${ref.summary}${ref.default ? ` Default: ${ref.default}.` : ' Required.'}`
+      : null;
+  }
+  if (kind !== 'calc' && kind !== 'criteria') return null;
+  const hash = lineText.indexOf('#');
+  if (hash >= 0 && column >= hash) return null;
+  let start = column;
+  let end = column;
+  while (start > 0 && /\w/.test(lineText[start - 1]!)) start--;
+  while (end < lineText.length && /\w/.test(lineText[end]!)) end++;
+  const ref = functionReference(lineText.slice(start, end));
+  return ref ? `${ref.signature}\n${ref.summary} Units: ${ref.units}.` : null;
+}
+
+/** Hover on a function, generator or block key shows its signature and summary. */
+export function sheetHover(kind: BlockKind): Extension {
+  return hoverTooltip((view, pos) => {
+    const line = view.state.doc.lineAt(pos);
+    const text = referenceAt(kind, line.text, pos - line.from);
+    if (!text) return null;
+    return {
+      pos,
+      above: true,
+      create: () => {
+        const dom = document.createElement('div');
+        dom.className = 'mw-reference-tip';
+        dom.setAttribute('role', 'tooltip');
+        dom.style.whiteSpace = 'pre-line';
+        dom.style.maxWidth = '28rem';
+        dom.style.padding = '2px 6px';
+        dom.style.fontSize = '12px';
+        dom.textContent = text.replace(/`/g, '');
+        return { dom };
+      },
+    };
+  });
 }

@@ -9,6 +9,7 @@ import {
 } from '@codemirror/language';
 import { tags as t } from '@lezer/highlight';
 import type { Extension } from '@codemirror/state';
+import { RESPONSE_ANALYSES, RESPONSE_KEYS } from '../../../../../core/vocabulary';
 import type { BlockKind } from '../api/types';
 
 export const MODES_KEYS = [
@@ -26,49 +27,12 @@ export const MODES_KEYS = [
 
 export const MATRIX_KEYS = ['name', 'unit', 'symmetric', 'from'] as const;
 
-/** The keys of a response block (core/sheet/blocks/response.ts), lower case. */
-export const RESPONSE_KEYS = [
-  'modes',
-  'analysis',
-  'damping',
-  'name',
-  'spectrum',
-  'sds',
-  'sd1',
-  'tl',
-  'r',
-  'ie',
-  'ground',
-  'ag',
-  'q',
-  'table',
-  'table unit',
-  'combine',
-  'direction',
-  'directional',
-  'heights',
-  'elf base shear',
-  'elf share',
-  'force',
-  'unbalance',
-  'at',
-  'running speed',
-  'range',
-  'points',
-  'rayleigh',
-  'dofs',
-  'record',
-  'record unit',
-  'step',
-  'duration',
-  'method',
-  'mode',
-  'limit',
-] as const;
+/** The keys of a response block, lower case: the engine's own list (core/vocabulary.ts). */
+export { RESPONSE_KEYS };
 
 /** Words a response block's keyword keys take. */
 export const RESPONSE_CHOICES: Record<string, readonly string[]> = {
-  analysis: ['spectrum', 'harmonic', 'history', 'walking'],
+  analysis: RESPONSE_ANALYSES,
   spectrum: ['ASCE 7-16', 'EN 1998-1 type 1', 'EN 1998-1 type 2', 'table'],
   combine: ['cqc', 'srss'],
   directional: ['srss', '100-30'],

@@ -6,7 +6,10 @@ import { Button } from '../../../components/ui/button';
 import { Spinner } from '../../../components/ui/spinner';
 import { formatUtc } from '../../../lib/format';
 import { usePrint, type PrintPackage } from '../api/get-print';
+import { pageMarginCss } from '../lib/page-margins';
+import { RemarksRecord, type PrintRemarks } from './remarks-record';
 import './print.css';
+import { DIGEST_WORDS } from '../../../config/digests';
 
 // Markdown's own elements at print sizes (the base styles reset them).
 const PRINTED_MARKDOWN = [
@@ -48,14 +51,13 @@ function TitleBlock({ pkg }: { pkg: PrintPackage }) {
     >
       <Cell label="Firm" value={pkg.firm.name} wide />
       <Cell label="Project" value={pkg.project.name} wide />
+      <Cell label="Title" value={pkg.sheet.title} wide />
       <Cell label="Job no." value={pkg.project.jobNumber} />
       <Cell label="Sheet no." value={pkg.sheet.number} />
       <Cell label="Revision" value={`Rev ${r.number} — ${STATUS[r.status] ?? r.status}`} />
-      <Cell label="Title" value={pkg.sheet.title} />
       <Cell label="Prepared by" value={who(r.preparedBy, r.preparedAt)} />
       <Cell label="Checked by" value={who(r.checkedBy, r.checkedAt)} />
       <Cell label="Sealed by" value={who(r.sealedBy, r.sealedAt)} />
-      <Cell label="Page" value="see foot of page" />
     </div>
   );
 }
@@ -74,10 +76,13 @@ export function PrintView({
   revisionId,
   backHref,
   verifyUrl,
+  remarks,
 }: {
   revisionId: number;
   backHref: string;
   verifyUrl: (path: string) => string;
+  /** The revision's check remarks, printed after the sheet. */
+  remarks: PrintRemarks;
 }) {
   const print = usePrint(revisionId);
   if (print.isPending) return <Spinner label="Composing the calculation package…" />;
@@ -89,13 +94,16 @@ export function PrintView({
 
   return (
     <div className="mw-print mx-auto max-w-[210mm] bg-white p-6 shadow-sheet">
+      {/* the page numbers sit in the page's margin, right above the title block of each page */}
+      <style>{pageMarginCss(`${pkg.sheet.number} · Rev ${r.number}`)}</style>
       <div className="mw-no-print mb-4 flex items-center gap-3">
         <Link to={backHref} className="text-sm text-accent-strong hover:underline">
           ← Back to Rev {r.number}
         </Link>
         <Button onClick={() => window.print()}>Print or save as PDF</Button>
         <span className="text-xs text-ink-faint">
-          The title block repeats on every page; page numbers are printed at the foot.
+          The title block repeats on every page, with the sheet, revision and “Page x of y” above
+          it.
         </span>
       </div>
       <table className="mw-package">
@@ -203,6 +211,8 @@ export function PrintView({
                 Engine {r.engineVersion}.
               </p>
 
+              <RemarksRecord revisionNumber={r.number} remarks={remarks} blocks={pkg.blocks} />
+
               <p
                 className="mt-3 border border-black/60 px-2 py-1 text-[8.5pt]"
                 aria-label="Caution"
@@ -225,8 +235,9 @@ export function PrintView({
                   <p>
                     Seal code <span className="font-mono font-bold">{pkg.seal.code}</span>
                   </p>
-                  <p className="font-mono text-[7.5pt] break-all">
-                    SHA-256 digest {pkg.seal.digest}
+                  <p className="text-[7.5pt] break-all">
+                    {DIGEST_WORDS.seal.label} <span className="font-mono">{pkg.seal.digest}</span> (
+                    {DIGEST_WORDS.seal.covers})
                   </p>
                   <p>
                     Verify at <span className="font-mono">{verifyUrl(pkg.seal.verifyPath)}</span>

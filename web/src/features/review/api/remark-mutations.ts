@@ -17,6 +17,17 @@ export async function setRemarkState(remarkId: number, state: 'open' | 'closed')
   return (await api.patch<{ remark: Remark }>(`/api/remarks/${remarkId}`, { state })).remark;
 }
 
+export async function editReply(remarkId: number, replyId: number, text: string): Promise<Remark> {
+  return (
+    await api.patch<{ remark: Remark }>(`/api/remarks/${remarkId}/replies/${replyId}`, { text })
+  ).remark;
+}
+
+export async function withdrawReply(remarkId: number, replyId: number): Promise<Remark> {
+  return (await api.delete<{ remark: Remark }>(`/api/remarks/${remarkId}/replies/${replyId}`))
+    .remark;
+}
+
 function useRefresh(revisionId: number) {
   const queryClient = useQueryClient();
   return () =>
@@ -48,6 +59,24 @@ export function useSetRemarkState(revisionId: number) {
   return useMutation({
     mutationFn: ({ remarkId, state }: { remarkId: number; state: 'open' | 'closed' }) =>
       setRemarkState(remarkId, state),
+    onSuccess: refresh,
+  });
+}
+
+/** Edit (with text) or withdraw (without) one's own reply while nobody has acted on it. */
+export function useChangeReply(revisionId: number) {
+  const refresh = useRefresh(revisionId);
+  return useMutation({
+    mutationFn: ({
+      remarkId,
+      replyId,
+      text,
+    }: {
+      remarkId: number;
+      replyId: number;
+      text?: string;
+    }) =>
+      text === undefined ? withdrawReply(remarkId, replyId) : editReply(remarkId, replyId, text),
     onSuccess: refresh,
   });
 }

@@ -10,14 +10,26 @@ export async function issueRevision(sheetId: number, purpose: string): Promise<R
   ).revision;
 }
 
-export async function returnRevision(revisionId: number): Promise<RevisionSummary> {
-  return (await api.post<{ revision: RevisionSummary }>(`/api/revisions/${revisionId}/return`, {}))
-    .revision;
+/** The checker's covering note; with a sign-off, what the revision is checked for. */
+export type CheckInput = { note: string; purpose?: string };
+
+export async function returnRevision(
+  revisionId: number,
+  input: CheckInput,
+): Promise<RevisionSummary> {
+  return (
+    await api.post<{ revision: RevisionSummary }>(`/api/revisions/${revisionId}/return`, {
+      note: input.note,
+    })
+  ).revision;
 }
 
-export async function signOffRevision(revisionId: number): Promise<RevisionSummary> {
+export async function signOffRevision(
+  revisionId: number,
+  input: CheckInput,
+): Promise<RevisionSummary> {
   return (
-    await api.post<{ revision: RevisionSummary }>(`/api/revisions/${revisionId}/sign-off`, {})
+    await api.post<{ revision: RevisionSummary }>(`/api/revisions/${revisionId}/sign-off`, input)
   ).revision;
 }
 
@@ -42,10 +54,16 @@ export function useIssueRevision(sheetId: number) {
 
 export function useReturnRevision(revisionId: number) {
   const refresh = useRefresh();
-  return useMutation({ mutationFn: () => returnRevision(revisionId), onSuccess: refresh });
+  return useMutation({
+    mutationFn: (input: CheckInput) => returnRevision(revisionId, input),
+    onSuccess: refresh,
+  });
 }
 
 export function useSignOffRevision(revisionId: number) {
   const refresh = useRefresh();
-  return useMutation({ mutationFn: () => signOffRevision(revisionId), onSuccess: refresh });
+  return useMutation({
+    mutationFn: (input: CheckInput) => signOffRevision(revisionId, input),
+    onSuccess: refresh,
+  });
 }

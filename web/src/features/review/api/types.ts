@@ -20,6 +20,10 @@ export type RevisionSummary = {
   sealedAt: string | null;
   supersededAt: string | null;
   sealCode: string | null;
+  /** The checker's covering note on the return or the sign-off. */
+  checkNote: string | null;
+  /** What the checker signed the revision off for; null: as issued. */
+  checkedPurpose: string | null;
 };
 
 export type SealView = {
@@ -78,7 +82,14 @@ export type Remark = {
   }[];
 };
 
-export type RemarkReply = { id: number; text: string; author: PersonRef; createdAt: string };
+export type RemarkReply = {
+  id: number;
+  text: string;
+  author: PersonRef;
+  createdAt: string;
+  /** When its writer last edited it; null when never. */
+  editedAt: string | null;
+};
 
 export const REVISION_STATUS_LABELS: Record<RevisionStatus, string> = {
   in_check: 'In check',

@@ -2,7 +2,7 @@ import { useId, useState, type FormEvent } from 'react';
 import { Button } from '../../../components/ui/button';
 import { Alert } from '../../../components/ui/alert';
 import { formatUtc } from '../../../lib/format';
-import { useReplyToRemark, useSetRemarkState } from '../api/remark-mutations';
+import { useChangeReply, useReplyToRemark, useSetRemarkState } from '../api/remark-mutations';
 import {
   REMARK_STATE_LABELS,
   REMARK_TYPE_LABELS,
@@ -16,18 +16,24 @@ const stateTone: Record<Remark['state'], string> = {
   closed: 'border-pass text-pass',
 };
 
-/** One remark with its thread; the author answers, the checker closes or reopens. */
+/**
+ * One remark with its thread; the author answers, the checker closes or reopens. The writer of
+ * the last reply may edit or withdraw it until someone acts on it (a reply after it, or a close).
+ */
 export function RemarkCard({
   remark,
   where,
   canReply,
   canClose,
+  me,
   onShow,
 }: {
   remark: Remark;
   where: string;
   canReply: boolean;
   canClose: boolean;
+  /** The signed-in person's id: their own last reply can be changed. */
+  me: number;
   onShow?: () => void;
 }) {
   const id = useId();
@@ -109,7 +115,15 @@ export function RemarkCard({
               <p className="text-xs text-ink-faint">
                 {reply.author.name}, {formatUtc(reply.createdAt)}
                 {onRev === null ? null : `, on Rev ${onRev}`}
+                {reply.editedAt ? `, edited ${formatUtc(reply.editedAt)}` : null}
               </p>
+              {canReply &&
+              onRev === null &&
+              reply.author.id === me &&
+              remark.state !== 'closed' &&
+              reply.id === remark.replies.at(-1)?.id ? (
+                <OwnReply remarkId={remark.id} revisionId={remark.revisionId} reply={reply} />
+              ) : null}
             </li>
           ))}
         </ol>
@@ -152,5 +166,97 @@ export function RemarkCard({
         </div>
       ) : null}
     </article>
+  );
+}
+
+/** Edit or withdraw one's own last reply; a withdrawal asks once more. */
+function OwnReply({
+  remarkId,
+  revisionId,
+  reply,
+}: {
+  remarkId: number;
+  revisionId: number;
+  reply: RemarkReply;
+}) {
+  const id = useId();
+  const change = useChangeReply(revisionId);
+  const [mode, setMode] = useState<'idle' | 'edit' | 'withdraw'>('idle');
+  const [text, setText] = useState(reply.text);
+  const done = () => setMode('idle');
+
+  if (mode === 'edit') {
+    return (
+      <form
+        aria-label="Edit your reply"
+        className="mt-1 flex flex-col gap-1"
+        onSubmit={(e) => {
+          e.preventDefault();
+          change.mutate({ remarkId, replyId: reply.id, text }, { onSuccess: done });
+        }}
+      >
+        <label htmlFor={`${id}-edit`} className="text-xs font-medium">
+          Your reply
+        </label>
+        <textarea
+          id={`${id}-edit`}
+          value={text}
+          onChange={(e) => setText(e.target.value)}
+          rows={2}
+          className="rounded-sm border border-rule-strong bg-paper-sheet px-2 py-1 text-sm"
+        />
+        <div className="flex gap-2">
+          <Button type="submit" variant="secondary" busy={change.isPending}>
+            Save the reply
+          </Button>
+          <Button type="button" variant="secondary" onClick={done}>
+            Cancel
+          </Button>
+        </div>
+        {change.error ? <Alert>{change.error.message}</Alert> : null}
+      </form>
+    );
+  }
+  return (
+    <div className="mt-1 flex flex-wrap items-center gap-3 text-xs">
+      {mode === 'withdraw' ? (
+        <>
+          <span>
+            Withdraw this reply? The remark is open again unless it was answered otherwise.
+          </span>
+          <button
+            type="button"
+            className="font-semibold text-fail underline underline-offset-2"
+            onClick={() => change.mutate({ remarkId, replyId: reply.id })}
+          >
+            Withdraw the reply
+          </button>
+          <button type="button" className="underline underline-offset-2" onClick={done}>
+            Keep it
+          </button>
+        </>
+      ) : (
+        <>
+          <button
+            type="button"
+            className="text-accent-strong underline underline-offset-2"
+            onClick={() => {
+              setText(reply.text);
+              setMode('edit');
+            }}
+          >
+            Edit
+          </button>
+          <button
+            type="button"
+            className="text-accent-strong underline underline-offset-2"
+            onClick={() => setMode('withdraw')}
+          >
+            Withdraw
+          </button>
+        </>
+      )}
+      {change.error ? <Alert>{change.error.message}</Alert> : null}
+    </div>
   );
 }

@@ -5,12 +5,13 @@ import { Alert, QueryError } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { Spinner } from '../../../components/ui/spinner';
+import { DIGEST_WORDS } from '../../../config/digests';
 import { formatUtc } from '../../../lib/format';
 import type { User } from '../../../types/api';
 import { useRemarks } from '../api/get-remarks';
 import { useRevision } from '../api/get-revision';
 import { useRevisions } from '../api/get-revisions';
-import { useReturnRevision, useSignOffRevision } from '../api/revision-mutations';
+import { useReturnRevision, useSignOffRevision, type CheckInput } from '../api/revision-mutations';
 import {
   REMARK_STATE_LABELS,
   REMARK_TYPE_LABELS,
@@ -98,14 +99,18 @@ export function RevisionView({
       {remarks.isError ? (
         <QueryError what="the remarks" error={remarks.error} onRetry={() => remarks.refetch()} />
       ) : null}
-      <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_22rem]">
+      <div className="grid grid-cols-1 gap-4 lg:grid-cols-[minmax(0,1fr)_22rem]">
         <Blocks rev={rev} remarks={remarks.data ?? []} canRemark={isChecker && inCheck} />
         <RemarkList
           rev={rev}
           remarks={remarks.data ?? []}
           loading={remarks.isPending}
-          canReply={inCheck && (roles.includes('author') || roles.includes('checker'))}
+          canReply={
+            (inCheck || rev.status === 'returned') &&
+            (roles.includes('author') || roles.includes('checker'))
+          }
           canClose={isChecker && inCheck}
+          me={user.id}
         />
       </div>
     </div>
@@ -135,7 +140,7 @@ function RevisionHeader({ rev, links }: { rev: RevisionDetail; links: RevisionLi
       <h1 className="text-xl font-semibold text-ink">
         {rev.sheet.title}: Rev {rev.number}
       </h1>
-      <dl className="mt-2 grid gap-x-6 gap-y-1 text-sm sm:grid-cols-2">
+      <dl className="mt-2 grid grid-cols-1 gap-x-6 gap-y-1 text-sm sm:grid-cols-2">
         <div className="flex gap-2">
           <dt className="text-ink-soft">Status</dt>
           <dd className="font-medium" data-testid="revision-status">
@@ -144,7 +149,16 @@ function RevisionHeader({ rev, links }: { rev: RevisionDetail; links: RevisionLi
         </div>
         <div className="flex gap-2">
           <dt className="text-ink-soft">Purpose</dt>
-          <dd>{rev.purpose}</dd>
+          <dd data-testid="revision-purpose">
+            {rev.checkedPurpose ? (
+              <>
+                {rev.checkedPurpose}{' '}
+                <span className="text-ink-soft">(set at sign-off; issued “{rev.purpose}”)</span>
+              </>
+            ) : (
+              rev.purpose
+            )}
+          </dd>
         </div>
         <div className="flex gap-2">
           <dt className="text-ink-soft">Prepared</dt>
@@ -185,14 +199,71 @@ function RevisionHeader({ rev, links }: { rev: RevisionDetail; links: RevisionLi
             </dd>
           </div>
         ) : null}
-        <div className="flex gap-2 sm:col-span-2">
-          <dt className="text-ink-soft">Digest</dt>
-          <dd className="truncate font-mono text-xs leading-5">{rev.digests.canonicalText}</dd>
-        </div>
+        {rev.checkNote ? (
+          <div className="flex min-w-0 gap-2 sm:col-span-2">
+            <dt className="shrink-0 text-ink-soft">Checker’s note</dt>
+            <dd className="min-w-0 whitespace-pre-wrap" data-testid="check-note">
+              {rev.checkNote}
+            </dd>
+          </div>
+        ) : null}
+        <FailedCriteria rev={rev} />
       </dl>
+      <Digests rev={rev} />
     </header>
   );
 }
+
+/** The labels of the revision's failed criteria, in sheet order. */
+function failedCriteria(rev: RevisionDetail): string[] {
+  return rev.results.blocks.flatMap((b) =>
+    b.kind === 'criteria' ? b.criteria.filter((c) => !c.pass).map((c) => c.label) : [],
+  );
+}
+
+const countFailed = (n: number) => `${n} failed criteri${n === 1 ? 'on' : 'a'}`;
+
+/** Named, not refused: a failing check can be the finding the sheet records. */
+function FailedCriteria({ rev }: { rev: RevisionDetail }) {
+  const failed = failedCriteria(rev);
+  if (failed.length === 0) return null;
+  return (
+    <div className="flex min-w-0 gap-2 sm:col-span-2">
+      <dt className="shrink-0 text-ink-soft">Criteria</dt>
+      <dd className="min-w-0 font-medium text-fail" data-testid="failed-criteria">
+        {countFailed(failed.length)}: {failed.join('; ')}
+      </dd>
+    </div>
+  );
+}
+
+/** Each digest with what it covers (config/digests.ts), the seal's the one print and verify show. */
+function Digests({ rev }: { rev: RevisionDetail }) {
+  const rows = [
+    { ...DIGEST_WORDS.text, value: rev.digests.canonicalText },
+    { ...DIGEST_WORDS.results, value: rev.digests.results },
+    ...(rev.seal ? [{ ...DIGEST_WORDS.seal, value: rev.seal.digest }] : []),
+  ];
+  return (
+    <details className="mt-2 text-sm">
+      <summary className="cursor-pointer text-ink-soft">
+        Digests{rev.seal ? ' (the seal digest is the one print and verify show)' : ''}
+      </summary>
+      <dl className="mt-1 flex flex-col gap-1" aria-label="Digests">
+        {rows.map((d) => (
+          <div key={d.label} className="min-w-0">
+            <dt className="font-medium">
+              {d.label} <span className="font-normal text-ink-soft">— {d.covers}</span>
+            </dt>
+            <dd className="font-mono text-xs break-all">{d.value}</dd>
+          </div>
+        ))}
+      </dl>
+    </details>
+  );
+}
+
+type Confirming = 'return' | 'sign-off' | null;
 
 function ReviewActions({
   rev,
@@ -207,7 +278,9 @@ function ReviewActions({
 }) {
   const returnMutation = useReturnRevision(rev.id);
   const signOff = useSignOffRevision(rev.id);
+  const [confirming, setConfirming] = useState<Confirming>(null);
   const unclosed = remarks.filter((r) => r.state !== 'closed').length;
+  const failed = failedCriteria(rev);
   const error = returnMutation.error ?? signOff.error;
   const seal = sealAction && rev.status === 'checked' ? sealAction(rev) : null;
   if (!(isChecker && rev.status === 'in_check') && !seal) return null;
@@ -217,6 +290,15 @@ function ReviewActions({
       aria-label="Review actions"
       className="flex flex-col gap-2 rounded-sm border border-rule bg-paper-sheet px-5 py-3"
     >
+      {failed.length > 0 ? (
+        <p className="text-sm font-medium text-fail" data-testid="actions-failed-criteria">
+          This revision records {countFailed(failed.length)}: {failed.join('; ')}.{' '}
+          <span className="font-normal text-ink-soft">
+            {rev.status === 'checked' ? 'Sealing' : 'Signing off'} does not refuse it; be sure it is
+            the finding the sheet means to record.
+          </span>
+        </p>
+      ) : null}
       {isChecker && rev.status === 'in_check' ? (
         <>
           <p id={`sign-off-help-${rev.id}`} className="text-sm text-ink-soft">
@@ -224,34 +306,123 @@ function ReviewActions({
               ? 'Every remark is closed: the revision can be signed off.'
               : `${countRemarks(unclosed)} not closed: sign off needs every remark closed; return the revision for the author to act on them.`}
           </p>
-          <div className="flex gap-2">
-            <Button
-              variant="secondary"
-              busy={returnMutation.isPending}
-              onClick={() => {
-                signOff.reset();
-                returnMutation.mutate();
-              }}
-            >
-              Return to author
-            </Button>
-            <Button
-              busy={signOff.isPending}
-              disabled={unclosed > 0}
-              aria-describedby={`sign-off-help-${rev.id}`}
-              onClick={() => {
-                returnMutation.reset();
-                signOff.mutate();
-              }}
-            >
-              Sign off
-            </Button>
-          </div>
+          {confirming === null ? (
+            <div className="flex flex-wrap gap-2">
+              <Button
+                variant="secondary"
+                onClick={() => {
+                  signOff.reset();
+                  setConfirming('return');
+                }}
+              >
+                Return to author…
+              </Button>
+              <Button
+                disabled={unclosed > 0}
+                aria-describedby={`sign-off-help-${rev.id}`}
+                onClick={() => {
+                  returnMutation.reset();
+                  setConfirming('sign-off');
+                }}
+              >
+                Sign off…
+              </Button>
+            </div>
+          ) : (
+            <ConfirmCheck
+              rev={rev}
+              action={confirming}
+              unclosed={unclosed}
+              busy={returnMutation.isPending || signOff.isPending}
+              onCancel={() => setConfirming(null)}
+              onConfirm={(input) =>
+                (confirming === 'return' ? returnMutation : signOff).mutate(input, {
+                  onSuccess: () => setConfirming(null),
+                })
+              }
+            />
+          )}
         </>
       ) : null}
       {error ? <Alert title="Refused.">{error.message}</Alert> : null}
       {seal}
     </section>
+  );
+}
+
+/** The deliberate second step of a return or a sign-off, with the checker's covering note. */
+function ConfirmCheck({
+  rev,
+  action,
+  unclosed,
+  busy,
+  onCancel,
+  onConfirm,
+}: {
+  rev: RevisionDetail;
+  action: 'return' | 'sign-off';
+  unclosed: number;
+  busy: boolean;
+  onCancel: () => void;
+  onConfirm: (input: CheckInput) => void;
+}) {
+  const id = useId();
+  const [note, setNote] = useState('');
+  const [purpose, setPurpose] = useState('');
+  const returning = action === 'return';
+  const title = returning ? `Return Rev ${rev.number} to the author` : `Sign off Rev ${rev.number}`;
+  return (
+    <form
+      aria-label={title}
+      className="flex flex-col gap-2 rounded-sm border border-rule-strong p-3"
+      onSubmit={(e) => {
+        e.preventDefault();
+        onConfirm(returning ? { note } : { note, purpose });
+      }}
+    >
+      <p className="text-sm font-semibold">{title}?</p>
+      <p className="text-sm text-ink-soft">
+        {returning
+          ? `${rev.issuedBy.name} is told by e-mail, with ${countRemarks(unclosed)} not closed and your note; the revision then takes no more remarks.`
+          : `The principal is told it awaits the seal. A signed-off revision cannot be returned.`}
+      </p>
+      {returning ? null : (
+        <div className="flex flex-col gap-1">
+          <label htmlFor={`${id}-purpose`} className="text-xs font-medium">
+            Checked for (leave empty to keep “{rev.purpose}”)
+          </label>
+          <input
+            id={`${id}-purpose`}
+            value={purpose}
+            onChange={(e) => setPurpose(e.target.value)}
+            placeholder="For construction"
+            maxLength={500}
+            className="rounded-sm border border-rule-strong bg-paper-sheet px-2 py-1 text-sm"
+          />
+        </div>
+      )}
+      <div className="flex flex-col gap-1">
+        <label htmlFor={`${id}-note`} className="text-xs font-medium">
+          {returning ? 'Note to the author (optional)' : 'Note (optional)'}
+        </label>
+        <textarea
+          id={`${id}-note`}
+          value={note}
+          onChange={(e) => setNote(e.target.value)}
+          rows={3}
+          maxLength={2000}
+          className="rounded-sm border border-rule-strong bg-paper-sheet px-2 py-1 text-sm"
+        />
+      </div>
+      <div className="flex flex-wrap gap-2">
+        <Button type="submit" busy={busy}>
+          {returning ? `Return Rev ${rev.number}` : `Sign off Rev ${rev.number}`}
+        </Button>
+        <Button type="button" variant="secondary" onClick={onCancel}>
+          Cancel
+        </Button>
+      </div>
+    </form>
   );
 }
 
@@ -276,7 +447,7 @@ function Blocks({
 
   if (rev.blocks.length === 0) return <EmptyState title="This revision has no blocks" />;
   return (
-    <div className="flex flex-col gap-3" aria-label="Blocks of the revision">
+    <div className="flex min-w-0 flex-col gap-3" aria-label="Blocks of the revision">
       {canRemark ? (
         <p className="text-sm text-ink-soft">Click a line number to add a remark on that line.</p>
       ) : null}
@@ -369,7 +540,7 @@ function Blocks({
               })}
             </ol>
             {result && result.kind !== 'text' ? (
-              <div className="border-t border-rule px-3 py-2">
+              <div className="relative min-w-0 overflow-x-auto border-t border-rule px-3 py-2">
                 <BlockResultView
                   result={result}
                   fileStem={`${rev.sheet.number}_Rev${rev.number}`}
@@ -389,12 +560,14 @@ function RemarkList({
   loading,
   canReply,
   canClose,
+  me,
 }: {
   rev: RevisionDetail;
   remarks: Remark[];
   loading: boolean;
   canReply: boolean;
   canClose: boolean;
+  me: number;
 }) {
   const id = useId();
   const [state, setState] = useState<RemarkState | ''>('');
@@ -458,6 +631,7 @@ function RemarkList({
             where={where}
             canReply={canReply}
             canClose={canClose}
+            me={me}
             onShow={() =>
               document
                 .getElementById(r.line === 0 ? `block-${r.blockId}` : `line-${r.blockId}-${r.line}`)

@@ -173,6 +173,8 @@ const ACTION_WORDS: Record<string, string> = {
   'remark.added': 'added a remark',
   'remark.carried': 'carried a remark to the new revision',
   'remark.replied': 'replied to a remark',
+  'remark.reply_edited': 'edited a reply',
+  'remark.reply_withdrawn': 'withdrew a reply',
   'remark.closed': 'closed a remark',
   'remark.reopened': 'reopened a remark',
   'seal.refused': 'was refused a seal',

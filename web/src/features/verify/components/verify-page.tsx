@@ -5,6 +5,7 @@ import { Spinner } from '../../../components/ui/spinner';
 import { TextField } from '../../../components/ui/text-field';
 import { formatUtc } from '../../../lib/format';
 import { useVerification, type Verification } from '../api/get-verification';
+import { DIGEST_WORDS } from '../../../config/digests';
 
 /** The code box of /verify: anyone types the code printed in a seal block. */
 export function VerifyCodeForm({
@@ -153,8 +154,11 @@ export function VerifyResult({ code }: { code: string }) {
           </dd>
           <dt className="text-ink-soft">Sealed</dt>
           <dd>{v.sealedAt ? formatUtc(v.sealedAt) : '—'}</dd>
-          <dt className="text-ink-soft">Digest (SHA-256)</dt>
-          <dd className="font-mono text-xs break-all">{v.digest}</dd>
+          <dt className="text-ink-soft">{DIGEST_WORDS.seal.label}</dt>
+          <dd>
+            <span className="font-mono text-xs break-all">{v.digest}</span>
+            <span className="block text-xs text-ink-soft">{DIGEST_WORDS.seal.covers}</span>
+          </dd>
         </dl>
       ) : null}
     </section>
