@@ -177,6 +177,7 @@ export const comparePrintService = {
         sealCode: h.sealCode,
       })),
       blocks: rev.blocks,
+      settings: rev.settings,
       results: JSON.parse(rev.resultsText) as unknown,
       seal: sealed ? { ...sealed, verifyPath: `/verify/${sealed.code}` } : null,
       caution: CAUTION,

@@ -1,5 +1,6 @@
 import type { ModesBlockResult } from '../../../../core/index';
 import { modesCsv, shapesCsv } from './modes-csv';
+import { useUnits } from './units';
 
 /** Hands the text to the browser as a file download (no server round trip: the results are here). */
 function download(fileName: string, text: string): void {
@@ -21,7 +22,7 @@ function safeName(text: string): string {
 
 /**
  * "Download" links for a modes block: the modes table and the mode shapes as CSV, every value in
- * full and in SI, for a response-spectrum spreadsheet or a report. `fileStem` names the files
+ * full and in the page's units, for a response-spectrum spreadsheet or a report. `fileStem` names the files
  * (e.g. "DYN-01_Rev2_deck_v"). Not printed.
  */
 export function ModesDownloads({
@@ -31,6 +32,7 @@ export function ModesDownloads({
   result: ModesBlockResult;
   fileStem: string;
 }) {
+  const units = useUnits();
   if (result.modes.length === 0) return null;
   const stem = safeName(fileStem);
   const hasShapes = !!result.shapes && result.shapes.length > 0;
@@ -41,7 +43,7 @@ export function ModesDownloads({
       <button
         type="button"
         className={link}
-        onClick={() => download(`${stem}_modes.csv`, modesCsv(result))}
+        onClick={() => download(`${stem}_modes.csv`, modesCsv(result, units.system))}
       >
         Modes table
       </button>

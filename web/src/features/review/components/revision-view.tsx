@@ -1,6 +1,7 @@
 import { useId, useMemo, useState, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
-import { BlockResultView } from '../../../components/results';
+import { BlockResultView, UnitSystemProvider } from '../../../components/results';
+import { unitSystemOf } from '../../../../../core/display-units';
 import { Alert, QueryError } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { EmptyState } from '../../../components/ui/empty-state';
@@ -370,10 +371,13 @@ function Blocks({
             </ol>
             {result && result.kind !== 'text' ? (
               <div className="border-t border-rule px-3 py-2">
-                <BlockResultView
-                  result={result}
-                  fileStem={`${rev.sheet.number}_Rev${rev.number}`}
-                />
+                <UnitSystemProvider system={unitSystemOf(rev.settings)}>
+                  <BlockResultView
+                    result={result}
+                    fileStem={`${rev.sheet.number}_Rev${rev.number}`}
+                    digits={rev.results.significantFigures}
+                  />
+                </UnitSystemProvider>
               </div>
             ) : null}
           </section>
