@@ -23,6 +23,7 @@ import {
 } from '../api/types';
 import { RemarkCard } from './remark-card';
 import { RemarkForm } from './remark-form';
+import { SpreadsheetButton } from './spreadsheet-button';
 
 const countRemarks = (n: number) => `${n} remark${n === 1 ? '' : 's'}`;
 
@@ -68,7 +69,7 @@ export function RevisionView({
 
   return (
     <div className="flex flex-col gap-4">
-      <nav aria-label="Breadcrumb" className="flex gap-4 text-sm">
+      <nav aria-label="Breadcrumb" className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
         <Link
           to={links.sheet(rev.sheet.projectId, rev.sheet.id)}
           className="text-accent-strong hover:underline"
@@ -78,6 +79,7 @@ export function RevisionView({
         <Link to={links.print(rev.id)} className="text-accent-strong hover:underline">
           Print
         </Link>
+        <SpreadsheetButton revisionId={rev.id} fileStem={`${rev.sheet.number}_Rev${rev.number}`} />
         {rev.number > 1 ? (
           <CompareLink rev={rev} links={links} />
         ) : (
