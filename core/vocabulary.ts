@@ -53,5 +53,8 @@ export const ACTIVITY_ACTIONS = [
   'remark.reopened',
   'seal.refused',
   'signing_key.created',
+  'template.saved',
+  'template.updated',
+  'template.deleted',
 ] as const;
 export type ActivityAction = (typeof ACTIVITY_ACTIONS)[number];
