@@ -43,6 +43,10 @@ const AdminRoute = screen(
   () => import('./routes/admin'),
   (m) => m.AdminRoute,
 );
+const TemplatesRoute = screen(
+  () => import('./routes/templates'),
+  (m) => m.TemplatesRoute,
+);
 const VerifyRoute = screen(
   () => import('./routes/verify'),
   (m) => m.VerifyRoute,
@@ -154,6 +158,15 @@ function createAppRouter() {
           element: (
             <Opening>
               <OutboxRoute />
+            </Opening>
+          ),
+        },
+        {
+          path: paths.templates.path,
+          errorElement: <RouteError screen="firm templates" />,
+          element: (
+            <Opening>
+              <TemplatesRoute />
             </Opening>
           ),
         },

@@ -14,6 +14,7 @@ export const paths = {
   },
   admin: { path: '/admin', href: () => '/admin' },
   outbox: { path: '/outbox', href: () => '/outbox' },
+  templates: { path: '/templates', href: () => '/templates' },
   sheet: {
     path: '/projects/:projectId/sheets/:sheetId',
     href: (projectId: number | string, sheetId: number | string) =>

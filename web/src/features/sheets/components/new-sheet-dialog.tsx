@@ -5,11 +5,18 @@ import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/text-field';
 import { splitFormError } from '../../../lib/form-errors';
 import { useCreateSheet } from '../api/create-sheet';
+import { useFirmTemplates, useStartSheetFromTemplate } from '../api/firm-templates';
 import { useTemplates } from '../api/get-templates';
+import { originText } from '../api/types';
 
 const FIELDS = ['number', 'title', 'subject', 'template'] as const;
 
-/** Start a sheet: its number, title and subject, empty or from one of the templates. */
+const FIRM = 'firm:';
+
+/**
+ * Start a sheet: its number, title and subject, empty, from a built-in template or from one of
+ * the firm's templates.
+ */
 export function NewSheetDialog({
   projectId,
   onClose,
@@ -19,13 +26,17 @@ export function NewSheetDialog({
   onClose: () => void;
   sheetHref: (projectId: number, sheetId: number) => string;
 }) {
-  const create = useCreateSheet(projectId);
+  const createBuiltIn = useCreateSheet(projectId);
+  const createFromFirm = useStartSheetFromTemplate(projectId);
   const templates = useTemplates();
+  const firmTemplates = useFirmTemplates();
   const navigate = useNavigate();
   const [number, setNumber] = useState('');
   const [title, setTitle] = useState('');
   const [subject, setSubject] = useState('');
   const [template, setTemplate] = useState('empty');
+  const firmId = template.startsWith(FIRM) ? Number(template.slice(FIRM.length)) : null;
+  const create = firmId === null ? createBuiltIn : createFromFirm;
   const dialog = useRef<HTMLDivElement>(null);
   const { fieldErrors, formError } = splitFormError(create.error, FIELDS);
 
@@ -40,15 +51,16 @@ export function NewSheetDialog({
 
   const submit = (event: FormEvent) => {
     event.preventDefault();
-    create.mutate(
-      {
-        number: number.trim(),
-        title: title.trim(),
-        ...(subject.trim() ? { subject: subject.trim() } : {}),
-        template,
-      },
-      { onSuccess: ({ sheet }) => navigate(sheetHref(projectId, sheet.id)) },
-    );
+    const sheet = {
+      number: number.trim(),
+      title: title.trim(),
+      ...(subject.trim() ? { subject: subject.trim() } : {}),
+    };
+    const opened = {
+      onSuccess: ({ sheet: s }: { sheet: { id: number } }) => navigate(sheetHref(projectId, s.id)),
+    };
+    if (firmId === null) createBuiltIn.mutate({ ...sheet, template }, opened);
+    else createFromFirm.mutate({ ...sheet, templateId: firmId }, opened);
   };
 
   return (
@@ -58,7 +70,7 @@ export function NewSheetDialog({
         role="dialog"
         aria-modal="true"
         aria-labelledby="new-sheet-title"
-        className="w-full max-w-lg rounded-sm border border-rule-strong bg-paper-sheet p-5 shadow-sheet"
+        className="max-h-[90vh] w-full max-w-lg overflow-y-auto rounded-sm border border-rule-strong bg-paper-sheet p-5 shadow-sheet"
       >
         <h2 id="new-sheet-title" className="mb-3 text-base font-semibold">
           New sheet
@@ -125,6 +137,35 @@ export function NewSheetDialog({
                 </span>
               </label>
             ))}
+            {firmTemplates.data && firmTemplates.data.templates.length > 0 ? (
+              <p className="mt-2 text-xs font-semibold text-ink-soft">The firm’s templates</p>
+            ) : null}
+            {firmTemplates.data?.templates.map((t) => (
+              <label key={t.id} className="flex items-start gap-2 text-sm">
+                <input
+                  type="radio"
+                  name="template"
+                  value={`${FIRM}${t.id}`}
+                  checked={template === `${FIRM}${t.id}`}
+                  onChange={() => setTemplate(`${FIRM}${t.id}`)}
+                  className="mt-1 accent-accent"
+                />
+                <span>
+                  <span className="font-medium">{t.name}</span>
+                  {t.description ? (
+                    <span className="block text-xs text-ink-soft">{t.description}</span>
+                  ) : null}
+                  <span className="block text-xs text-ink-faint">
+                    From {originText(t.origin)}, saved by {t.createdBy.name}
+                  </span>
+                </span>
+              </label>
+            ))}
+            {firmTemplates.isError ? (
+              <p className="text-xs text-fail">
+                The firm’s templates could not be loaded: {firmTemplates.error.message}
+              </p>
+            ) : null}
             {templates.isError ? (
               <p className="text-xs text-fail">
                 The templates could not be loaded: {templates.error.message}
