@@ -1,18 +1,11 @@
 import type { ModesBlockResult } from '../../../../core/index';
+import { saveFile } from '../../lib/save-file';
 import { modesCsv, shapesCsv } from './modes-csv';
 import { useUnits } from './units';
 
-/** Hands the text to the browser as a file download (no server round trip: the results are here). */
+/** Hands CSV text to the browser as a file download (no server round trip: the results are here). */
 function download(fileName: string, text: string): void {
-  const url = URL.createObjectURL(new Blob([text], { type: 'text/csv;charset=utf-8' }));
-  const link = document.createElement('a');
-  link.href = url;
-  link.download = fileName;
-  document.body.append(link);
-  link.click();
-  link.remove();
-  // Revoked after the click has been handled, so the download has started.
-  setTimeout(() => URL.revokeObjectURL(url), 0);
+  saveFile(fileName, new Blob([text], { type: 'text/csv;charset=utf-8' }));
 }
 
 /** A file name safe on every system: letters, digits, dot, dash and underscore. */

@@ -1,5 +1,6 @@
 import { useMutation } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
+import { saveFile } from '../../../lib/save-file';
 
 /** The revision's results tables as an .xlsx file (GET /api/revisions/:id/spreadsheet). */
 export function getRevisionSpreadsheet(revisionId: number): Promise<Blob> {
@@ -10,16 +11,6 @@ export function getRevisionSpreadsheet(revisionId: number): Promise<Blob> {
 export function useDownloadSpreadsheet(revisionId: number, fileName: string) {
   return useMutation({
     mutationFn: () => getRevisionSpreadsheet(revisionId),
-    onSuccess: (blob) => {
-      const url = URL.createObjectURL(blob);
-      const link = document.createElement('a');
-      link.href = url;
-      link.download = fileName;
-      document.body.append(link);
-      link.click();
-      link.remove();
-      // Revoked after the click has been handled, so the download has started.
-      setTimeout(() => URL.revokeObjectURL(url), 0);
-    },
+    onSuccess: (blob) => saveFile(fileName, blob),
   });
 }

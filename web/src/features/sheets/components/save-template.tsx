@@ -1,6 +1,7 @@
-import { useEffect, useRef, useState, type FormEvent } from 'react';
+import { useState, type FormEvent } from 'react';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
+import { Dialog } from '../../../components/ui/dialog';
 import { TextField } from '../../../components/ui/text-field';
 import { splitFormError } from '../../../lib/form-errors';
 import { useSaveTemplate } from '../api/firm-templates';
@@ -66,17 +67,7 @@ function SaveTemplateDialog({
   const save = useSaveTemplate();
   const [name, setName] = useState('');
   const [description, setDescription] = useState('');
-  const dialog = useRef<HTMLDivElement>(null);
   const { fieldErrors, formError } = splitFormError(save.error, FIELDS);
-
-  useEffect(() => {
-    dialog.current?.querySelector('input')?.focus();
-    const onKey = (e: KeyboardEvent) => {
-      if (e.key === 'Escape') onClose();
-    };
-    window.addEventListener('keydown', onKey);
-    return () => window.removeEventListener('keydown', onKey);
-  }, [onClose]);
 
   const submit = (event: FormEvent) => {
     event.preventDefault();
@@ -92,53 +83,42 @@ function SaveTemplateDialog({
   };
 
   return (
-    <div className="fixed inset-0 z-50 flex items-center justify-center bg-ink/40 p-4">
-      <div
-        ref={dialog}
-        role="dialog"
-        aria-modal="true"
-        aria-labelledby="save-template-title"
-        className="max-h-[90vh] w-full max-w-lg overflow-y-auto rounded-sm border border-rule-strong bg-paper-sheet p-5 shadow-sheet"
-      >
-        <h2 id="save-template-title" className="mb-1 text-base font-semibold">
-          Save as firm template
-        </h2>
-        <p className="mb-3 text-sm text-ink-soft">
-          Copies the blocks and settings of {what} into the firm’s library. Numbers typed in it come
-          along: check them before each new use.
-        </p>
-        <form onSubmit={submit} className="flex flex-col gap-3" noValidate>
-          <TextField
-            label="Template name"
-            name="name"
-            required
-            value={name}
-            onChange={(e) => setName(e.target.value)}
-            error={fieldErrors.name}
-            hint="Unique in the firm, e.g. Steel frame, modal mass participation"
-          />
-          <TextField
-            label="Description"
-            name="description"
-            value={description}
-            onChange={(e) => setDescription(e.target.value)}
-            error={fieldErrors.description}
-            hint="Optional: when to use it"
-          />
-          {fieldErrors.revisionId ? (
-            <p className="text-sm text-fail">{fieldErrors.revisionId}</p>
-          ) : null}
-          {formError ? <Alert title="The template was not saved.">{formError}</Alert> : null}
-          <div className="flex justify-end gap-2">
-            <Button variant="secondary" onClick={onClose}>
-              Cancel
-            </Button>
-            <Button type="submit" busy={save.isPending}>
-              Save template
-            </Button>
-          </div>
-        </form>
-      </div>
-    </div>
+    <Dialog title="Save as firm template" onClose={onClose}>
+      <p className="-mt-2 mb-3 text-sm text-ink-soft">
+        Copies the blocks and settings of {what} into the firm’s library. Numbers typed in it come
+        along: check them before each new use.
+      </p>
+      <form onSubmit={submit} className="flex flex-col gap-3" noValidate>
+        <TextField
+          label="Template name"
+          name="name"
+          required
+          value={name}
+          onChange={(e) => setName(e.target.value)}
+          error={fieldErrors.name}
+          hint="Unique in the firm, e.g. Steel frame, modal mass participation"
+        />
+        <TextField
+          label="Description"
+          name="description"
+          value={description}
+          onChange={(e) => setDescription(e.target.value)}
+          error={fieldErrors.description}
+          hint="Optional: when to use it"
+        />
+        {fieldErrors.revisionId ? (
+          <p className="text-sm text-fail">{fieldErrors.revisionId}</p>
+        ) : null}
+        {formError ? <Alert title="The template was not saved.">{formError}</Alert> : null}
+        <div className="flex justify-end gap-2">
+          <Button variant="secondary" onClick={onClose}>
+            Cancel
+          </Button>
+          <Button type="submit" busy={save.isPending}>
+            Save template
+          </Button>
+        </div>
+      </form>
+    </Dialog>
   );
 }
