@@ -67,7 +67,13 @@ export default tseslint.config(
             {
               target: ['./api', './web', './scripts', './seeds'],
               from: './core',
-              except: ['./index.ts', './threads.ts', './engine.ts', './vocabulary.ts'],
+              except: [
+                './index.ts',
+                './threads.ts',
+                './engine.ts',
+                './vocabulary.ts',
+                './display-units.ts',
+              ],
               message:
                 'Import core/ only through core/index.ts (helper threads: core/threads.ts; the solver alone, without the sheet engine: core/engine.ts; the stored words: core/vocabulary.ts).',
             },
@@ -75,6 +81,11 @@ export default tseslint.config(
               target: './core/vocabulary.ts',
               from: ['./core', './api', './web'],
               message: 'core/vocabulary.ts is the words both sides read: it imports nothing.',
+            },
+            {
+              target: './core/display-units.ts',
+              from: ['./core', './api', './web'],
+              message: 'core/display-units.ts is read by both sides: it imports nothing.',
             },
             {
               target: './web',
@@ -186,7 +197,8 @@ export default tseslint.config(
   },
   {
     // The client may read the engine's types, never its runtime (mathjs stays on the server);
-    // values both sides need live in core/vocabulary.ts, which imports nothing.
+    // values both sides need live in core/vocabulary.ts and core/display-units.ts, which import
+    // nothing.
     files: ['web/**/*.{ts,tsx}'],
     rules: {
       '@typescript-eslint/no-restricted-imports': [
@@ -195,12 +207,12 @@ export default tseslint.config(
           paths: noDriver,
           patterns: [
             {
-              // one expression: a gitignore group that excludes the folder `core` cannot
-              // re-include a file inside it
-              regex: '(^|/)core(/(?!vocabulary(\\.ts)?$).*)?$',
+              // Any path into core/ except the two modules that import nothing (one expression: a
+              // gitignore group that excludes the folder `core` cannot re-include a file inside it).
+              regex: '(^|/)core(/(?!(vocabulary|display-units)(\\.ts)?$).*)?$',
               allowTypeImports: true,
               message:
-                'The client imports core/ as types only (import type); shared values live in core/vocabulary.ts.',
+                'The client imports core/ as types only (import type); shared values live in core/vocabulary.ts and core/display-units.ts.',
             },
           ],
         },

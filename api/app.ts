@@ -24,6 +24,7 @@ import { createOutboxRouter } from './modules/outbox/outbox.routes';
 import { createProjectsRouter } from './modules/projects/projects.routes';
 import { createRemarksRouter } from './modules/remarks/remarks.routes';
 import { createRevisionsRouter } from './modules/revisions/revisions.routes';
+import { createTemplatesRouter } from './modules/templates/templates.routes';
 import { createSealsRouter } from './modules/seals/seals.routes';
 import { createSheetsRouter } from './modules/sheets/sheets.routes';
 import { createUploadsRouter } from './modules/uploads/uploads.routes';
@@ -168,6 +169,7 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     api.use(createRemarksRouter(ctx));
     api.use(createSealsRouter(ctx));
     api.use(createVerifyRouter(ctx));
+    api.use(createTemplatesRouter(ctx));
     api.use('/outbox', createOutboxRouter(ctx));
     api.use(apiNotFound);
     app.use('/api', api);

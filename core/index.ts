@@ -5,3 +5,4 @@ export * from './eigen/index';
 export * from './models/index';
 export * from './sheet/index';
 export * from './response/index';
+export * from './display-units';

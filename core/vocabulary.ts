@@ -59,6 +59,9 @@ export const ACTIVITY_ACTIONS = [
   'remark.reopened',
   'seal.refused',
   'signing_key.created',
+  'template.saved',
+  'template.updated',
+  'template.deleted',
 ] as const;
 export type ActivityAction = (typeof ACTIVITY_ACTIONS)[number];
 

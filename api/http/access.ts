@@ -43,6 +43,12 @@ export const ACCESS_RULES = {
   'remark.reply': only(['author', 'checker'], 'reply to remarks'),
   'remark.set_state': only(['checker'], 'close or reopen remarks'),
   'revision.seal': only(['principal'], 'seal a revision'),
+  // The firm's library: a project's authors add to it, and an admin may without the role.
+  'template.save': {
+    roles: ['author'],
+    adminWithoutRole: true,
+    doing: 'save a sheet as a firm template',
+  },
 } as const satisfies Record<string, AccessRule>;
 
 export type AccessAction = keyof typeof ACCESS_RULES;

@@ -3,6 +3,7 @@
  * (numbers, strings, booleans, arrays, objects), so results can be stored, hashed, diffed and sent
  * to the client as they are. See core/sheet/README.md for the block syntax.
  */
+import type { UnitSystem } from '../display-units';
 import type { DenseTeam } from '../eigen/dense/team';
 import type { WalkingResult } from '../response/walking';
 
@@ -20,6 +21,11 @@ export interface SheetBlock {
 export interface SheetSettings {
   /** Significant figures of displayed results, 1–15. Default 4. */
   significantFigures?: number;
+  /**
+   * The units results are shown in: SI (default) or US customary. Display only: evaluation,
+   * stored results and digests are SI and the same for both.
+   */
+  units?: UnitSystem;
 }
 
 /** A sheet's source: ordered blocks and its settings. */

@@ -25,6 +25,7 @@ const TABLE: Record<AccessAction, string> = {
   'remark.reply': '        ✓      ✓       ✗         ✗      ✗     ✗',
   'remark.set_state': '    ✗      ✓       ✗         ✗      ✗     ✗',
   'revision.seal': '       ✗      ✗       ✓         ✗      ✗     ✗',
+  'template.save': '       ✓      ✗       ✗         ✗      ✓     ✗',
 };
 
 function person(who: Who): { actor: { id: number; isAdmin: boolean }; held: ProjectRole[] } {

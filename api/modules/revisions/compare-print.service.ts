@@ -5,6 +5,7 @@ import {
   type SheetBlock,
   type SheetResults,
 } from '../../../core/index';
+import { unitSystemOf } from '../../../core/display-units';
 import type { AppContext } from '../../http/context';
 import { AppError } from '../../http/errors';
 import type { User } from '../users/users.repository';
@@ -12,6 +13,7 @@ import type { Remark } from '../remarks/remarks.repository';
 import { remarksService } from '../remarks/remarks.service';
 import { sealsService } from '../seals/seals.service';
 import { sheetsService } from '../sheets/sheets.service';
+import { revisionWorkbook } from './revision-spreadsheet';
 import type { RevisionRecord, RevisionSummary } from './revisions.repository';
 import { revisionAccess, revisionsService, sheetOf } from './revisions.service';
 
@@ -130,6 +132,25 @@ export const comparePrintService = {
     };
   },
 
+  /**
+   * The revision's results tables (modes, response results, criteria) as an .xlsx workbook in the
+   * revision's display units, for anyone who may read the revision.
+   */
+  async spreadsheet(ctx: AppContext, user: User, revisionId: number) {
+    const { rev, sheet } = await revisionAccess(ctx, user, revisionId, 'sheet.read');
+    const bytes = await revisionWorkbook({
+      firm: firmName(),
+      project: { jobNumber: sheet.projectJobNumber, name: sheet.projectName },
+      sheet: { number: sheet.number, title: sheet.title },
+      revision: { number: rev.number, status: rev.status, engineVersion: rev.engineVersion },
+      system: unitSystemOf(rev.settings),
+      results: JSON.parse(rev.resultsText) as SheetResults,
+      caution: CAUTION,
+    });
+    const stem = `${sheet.number}_Rev${rev.number}`.replace(/[^A-Za-z0-9._-]+/g, '_');
+    return { fileName: `${stem}_tables.xlsx`, bytes };
+  },
+
   /** Everything the print view needs, in one call. */
   async print(ctx: AppContext, user: User, revisionId: number) {
     const { rev, sheet } = await revisionAccess(ctx, user, revisionId, 'sheet.read');
@@ -177,6 +198,7 @@ export const comparePrintService = {
         sealCode: h.sealCode,
       })),
       blocks: rev.blocks,
+      settings: rev.settings,
       results: JSON.parse(rev.resultsText) as unknown,
       seal: sealed ? { ...sealed, verifyPath: `/verify/${sealed.code}` } : null,
       caution: CAUTION,

@@ -71,5 +71,14 @@ export function createRevisionsRouter(ctx: AppContext): Router {
     res.json(await comparePrintService.print(ctx, currentUser(req), revisionId));
   });
 
+  router.get('/revisions/:revisionId/spreadsheet', requireSignedIn, async (req, res) => {
+    const { revisionId } = parse(revisionParams, req.params, 'params');
+    const file = await comparePrintService.spreadsheet(ctx, currentUser(req), revisionId);
+    res
+      .type('application/vnd.openxmlformats-officedocument.spreadsheetml.sheet')
+      .attachment(file.fileName)
+      .send(file.bytes);
+  });
+
   return router;
 }

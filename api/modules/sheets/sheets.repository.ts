@@ -3,6 +3,7 @@ import { readJson, type DbOrTx } from '../../db/index';
 
 import type { BlockKind } from '../../../core/index';
 import type { SheetStatus } from '../../../core/vocabulary';
+import type { UnitSystem } from '../../../core/display-units';
 
 export type { BlockKind, SheetStatus };
 
@@ -14,6 +15,8 @@ export interface SheetBlock {
 
 export interface SheetSettings {
   significantFigures: number;
+  /** The units results are shown in (display only); SI when absent. */
+  units?: UnitSystem;
 }
 
 export interface SheetDraft {

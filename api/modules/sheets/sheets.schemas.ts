@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { BLOCK_KINDS } from '../../../core/vocabulary';
+import { UNIT_SYSTEMS } from '../../../core/display-units';
 
 /** Template keys a new sheet can start from (see sheets.templates.ts). */
 export const TEMPLATE_KEYS = [
@@ -75,6 +76,7 @@ export const settingsSchema = z.object({
     .min(1, 'must be a whole number from 1 to 15')
     .max(15, 'must be a whole number from 1 to 15')
     .default(4),
+  units: z.enum(UNIT_SYSTEMS, { message: `must be one of ${UNIT_SYSTEMS.join(', ')}` }).optional(),
 });
 
 export const draftBody = z

@@ -70,10 +70,15 @@ export const sheetsService = {
     user: User,
     projectId: number,
     input: CreateSheetBody,
+    /**
+     * A draft to start from instead of a built-in template (a firm template), with what the
+     * activity row records about it.
+     */
+    start?: { draft: SheetDraft; details: Record<string, unknown> },
   ): Promise<SheetDetail> {
     const access = await policy.project(user, projectId, 'sheet.create');
     const template = input.template ?? 'empty';
-    const draft = draftFromTemplate(template);
+    const draft = start?.draft ?? draftFromTemplate(template);
     let id: number;
     try {
       id = await db.transaction(async (trx) => {
@@ -91,7 +96,11 @@ export const sheetsService = {
           action: 'sheet.created',
           objectType: 'sheet',
           objectId: sheetId,
-          details: { number: input.number, title: input.title, template },
+          details: {
+            number: input.number,
+            title: input.title,
+            ...(start ? start.details : { template }),
+          },
         });
         return sheetId;
       });

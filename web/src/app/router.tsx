@@ -47,6 +47,10 @@ const ReferenceRoute = screen(
   () => import('./routes/reference'),
   (m) => m.ReferenceRoute,
 );
+const TemplatesRoute = screen(
+  () => import('./routes/templates'),
+  (m) => m.TemplatesRoute,
+);
 const VerifyRoute = screen(
   () => import('./routes/verify'),
   (m) => m.VerifyRoute,
@@ -158,6 +162,15 @@ function createAppRouter() {
           element: (
             <Opening>
               <OutboxRoute />
+            </Opening>
+          ),
+        },
+        {
+          path: paths.templates.path,
+          errorElement: <RouteError screen="firm templates" />,
+          element: (
+            <Opening>
+              <TemplatesRoute />
             </Opening>
           ),
         },

@@ -15,6 +15,7 @@ export const paths = {
   admin: { path: '/admin', href: () => '/admin' },
   outbox: { path: '/outbox', href: () => '/outbox' },
   reference: { path: '/reference', href: () => '/reference' },
+  templates: { path: '/templates', href: () => '/templates' },
   sheet: {
     path: '/projects/:projectId/sheets/:sheetId',
     href: (projectId: number | string, sheetId: number | string) =>

@@ -87,6 +87,7 @@ async function request<T>(
   path: string,
   body?: unknown,
   headers: Record<string, string> = {},
+  read: 'json' | 'blob' = 'json',
 ): Promise<T> {
   let response: Response;
   try {
@@ -114,6 +115,7 @@ async function request<T>(
   }
   noteApiAnswer(response.status);
   if (response.status === 204) return undefined as T;
+  if (read === 'blob') return (await response.blob()) as T;
   const text = await response.text();
   return (text ? JSON.parse(text) : undefined) as T;
 }
@@ -136,6 +138,8 @@ async function mutate<T>(method: Method, path: string, body?: unknown): Promise<
 
 export const api = {
   get: <T>(path: string) => request<T>('GET', path),
+  /** A file the server sends (a spreadsheet); errors arrive as ApiError like any other answer. */
+  getFile: (path: string) => request<Blob>('GET', path, undefined, { Accept: '*/*' }, 'blob'),
   post: <T>(path: string, body?: unknown) => mutate<T>('POST', path, body ?? {}),
   put: <T>(path: string, body?: unknown) => mutate<T>('PUT', path, body ?? {}),
   patch: <T>(path: string, body?: unknown) => mutate<T>('PATCH', path, body ?? {}),

@@ -36,6 +36,9 @@ export function AppShell({ user, children }: { user: User; children: ReactNode }
               <NavLink to={paths.projects.href()} end className={navClass}>
                 Projects
               </NavLink>
+              <NavLink to={paths.templates.href()} className={navClass}>
+                Templates
+              </NavLink>
               {user.isAdmin ? (
                 <NavLink to={paths.admin.href()} className={navClass}>
                   Admin

@@ -1,7 +1,9 @@
 import { Link, useParams } from 'react-router-dom';
 import { Alert } from '../../components/ui/alert';
 import { paths } from '../../config/paths';
+import { useRevision } from '../../features/review/api/get-revision';
 import { RevisionView } from '../../features/review/components/revision-view';
+import { SaveTemplate } from '../../features/sheets/components/save-template';
 import { SealDialog } from '../../features/seal/components/seal-dialog';
 import { useSignedInUser } from './use-user';
 
@@ -10,6 +12,9 @@ export function RevisionRoute() {
   const user = useSignedInUser();
   const { revisionId: raw } = useParams();
   const revisionId = Number(raw);
+  const valid = Number.isInteger(revisionId) && revisionId > 0;
+  // The view's own query (cached): whether this person may save the revision as a firm template.
+  const rev = useRevision(revisionId, valid).data;
   if (!Number.isInteger(revisionId) || revisionId <= 0) {
     return (
       <Alert title="No such revision.">
@@ -18,21 +23,30 @@ export function RevisionRoute() {
     );
   }
   return (
-    <RevisionView
-      revisionId={revisionId}
-      user={user}
-      links={{
-        sheet: paths.sheet.href,
-        print: paths.print.href,
-        compare: paths.compare.href,
-        verify: (code) => paths.verify.href(code),
-      }}
-      // only a principal of the project has a seal action; for everyone else the panel stays away
-      sealAction={(rev) =>
-        rev.myRoles.includes('principal') ? (
-          <SealDialog key={rev.id} revisionId={rev.id} revisionNumber={rev.number} />
-        ) : null
-      }
-    />
+    <div className="flex flex-col gap-4">
+      <RevisionView
+        revisionId={revisionId}
+        user={user}
+        links={{
+          sheet: paths.sheet.href,
+          print: paths.print.href,
+          compare: paths.compare.href,
+          verify: (code) => paths.verify.href(code),
+        }}
+        // only a principal of the project has a seal action; for everyone else the panel stays away
+        sealAction={(rev) =>
+          rev.myRoles.includes('principal') ? (
+            <SealDialog key={rev.id} revisionId={rev.id} revisionNumber={rev.number} />
+          ) : null
+        }
+      />
+      {rev && (rev.myRoles.includes('author') || user.isAdmin) ? (
+        <SaveTemplate
+          sheetId={rev.sheet.id}
+          sheetNumber={rev.sheet.number}
+          revision={{ id: rev.id, number: rev.number }}
+        />
+      ) : null}
+    </div>
   );
 }

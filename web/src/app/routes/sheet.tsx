@@ -4,7 +4,10 @@ import { Alert } from '../../components/ui/alert';
 import { Spinner } from '../../components/ui/spinner';
 import { Section } from '../../components/ui/section';
 import { paths } from '../../config/paths';
+import { useSheet } from '../../features/editor/api/get-sheet';
 import { useDraftRemarkMarks } from '../../features/review/api/pending-remarks';
+import { SaveTemplate } from '../../features/sheets/components/save-template';
+import { useSignedInUser } from './use-user';
 import {
   IssueForCheck,
   RevisionList,
@@ -22,6 +25,9 @@ export function SheetRoute() {
   const sheetId = Number(raw);
   const valid = Number.isInteger(sheetId) && sheetId > 0;
   const remarks = useDraftRemarkMarks(valid ? sheetId : 0);
+  const user = useSignedInUser();
+  // The editor's own query (cached): whether this person may save the draft as a firm template.
+  const sheet = useSheet(valid ? sheetId : 0);
   if (!valid) {
     return (
       <Alert title="No such sheet.">
@@ -39,6 +45,9 @@ export function SheetRoute() {
           {...(remarks ? { remarks } : {})}
         />
       </Suspense>
+      {sheet.data && (sheet.data.sheet.myRoles.includes('author') || user.isAdmin) ? (
+        <SaveTemplate sheetId={sheetId} sheetNumber={sheet.data.sheet.number} />
+      ) : null}
       <Section title="Revisions">
         {/* a wide table scrolls in its own box on a phone, not the page */}
         <div className="overflow-x-auto">

@@ -9,12 +9,12 @@ import type {
 } from '../../../../core/index';
 import { lazy, Suspense } from 'react';
 import { participationFactor, percent, sig } from '../../lib/format';
-import { handParts } from './hand-parts';
 import { ModesDownloads } from './modes-downloads';
 import { ModesWarnings } from './modes-warnings';
 import { ParticipationNote } from './participation-note';
 import { ResponseResults } from './response-results';
-import { Tex } from './tex';
+import { CalcLineTex } from './calc-line';
+import { useUnits } from './units';
 
 export type { BlockResult, SheetResults } from '../../../../core/index';
 
@@ -23,7 +23,8 @@ const ModeShapePlot = lazy(() =>
   import('./modes-plots').then((m) => ({ default: m.ModeShapePlot })),
 );
 
-function CalcLines({ result }: { result: CalcBlockResult }) {
+function CalcLines({ result, digits }: { result: CalcBlockResult; digits: number }) {
+  const units = useUnits();
   if (result.lines.length === 0) return null;
   return (
     <ol className="divide-y divide-rule/60" aria-label="Calculation results">
@@ -31,8 +32,7 @@ function CalcLines({ result }: { result: CalcBlockResult }) {
         <li key={line.line} className="flex flex-wrap items-baseline justify-between gap-x-4 py-1">
           <span className="relative min-w-0 overflow-x-auto">
             <span className="mr-2 font-mono text-xs text-ink-faint">{line.line}</span>
-            <Tex tex={handParts(line.latex).join(' = ')} />
-            <span className="sr-only"> result {line.display}</span>
+            <CalcLineTex line={line} system={units.system} digits={digits} />
           </span>
           {line.comment ? (
             <span className="min-w-0 text-xs text-ink-faint">{line.comment}</span>
@@ -87,6 +87,8 @@ function Matrix({ result }: { result: MatrixBlockResult }) {
 }
 
 function Modes({ result, fileStem }: { result: ModesBlockResult; fileStem?: string }) {
+  const units = useUnits();
+  const gammas = result.modes.map((o) => units.value('rootMass', o.gamma ?? Number.NaN));
   return (
     <div className="overflow-x-auto">
       <table className="w-full border-collapse text-sm" aria-label={`Modes ${result.name ?? ''}`}>
@@ -100,7 +102,7 @@ function Modes({ result, fileStem }: { result: ModesBlockResult; fileStem?: stri
               className="py-1 pr-3"
               title="Participation factor φᵀMr, with φ mass-normalized (φᵀMφ = 1 kg)"
             >
-              Γ (√kg)
+              Γ ({units.unit('rootMass')})
             </th>
             <th className="py-1 pr-3">Eff. mass</th>
             <th className="py-1 pr-3">Cumulative</th>
@@ -116,8 +118,8 @@ function Modes({ result, fileStem }: { result: ModesBlockResult; fileStem?: stri
               <td className="py-1 pr-3">{sig(m.omega)}</td>
               <td className="py-1 pr-3">
                 {participationFactor(
-                  m.gamma,
-                  result.modes.map((o) => o.gamma),
+                  m.gamma === null ? null : units.value('rootMass', m.gamma),
+                  gammas,
                 )}
               </td>
               <td className="py-1 pr-3">{percent(m.ratio)}</td>
@@ -166,14 +168,17 @@ function Modes({ result, fileStem }: { result: ModesBlockResult; fileStem?: stri
 export function BlockResultView({
   result,
   fileStem,
+  digits = 4,
 }: {
   result: BlockResult | undefined;
   fileStem?: string;
+  /** Significant figures of converted results (the sheet's setting). */
+  digits?: number;
 }) {
   if (!result) return null;
   switch (result.kind) {
     case 'calc':
-      return <CalcLines result={result} />;
+      return <CalcLines result={result} digits={digits} />;
     case 'criteria':
       return <Criteria result={result} />;
     case 'matrix':

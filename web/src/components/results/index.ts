@@ -5,3 +5,4 @@ export { ModesWarnings, splitModesWarnings, powerOfTen } from './modes-warnings'
 export { ParticipationNote } from './participation-note';
 export { ModesDownloads } from './modes-downloads';
 export { ResponseResults } from './response-results';
+export { UnitSystemProvider, useUnits, unitsFor, type Units } from './units';

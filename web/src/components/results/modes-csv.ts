@@ -1,11 +1,14 @@
 import type { ModesBlockResult } from '../../../../core/index';
+import { DISPLAY_UNITS, toDisplay, type UnitSystem } from '../../../../core/display-units';
 import { csvText } from '../../lib/csv';
 
 /**
- * The modes table of a modes block as CSV, in SI, every value in full: one row per mode. The
- * headers name the quantity and its unit in plain ASCII, so any spreadsheet reads them.
+ * The modes table of a modes block as CSV, every value in full: one row per mode, in SI or with
+ * Γ and the effective mass in US customary units. The headers name the quantity and its unit in
+ * plain ASCII, so any spreadsheet reads them.
  */
-export function modesCsv(result: ModesBlockResult): string {
+export function modesCsv(result: ModesBlockResult, system: UnitSystem = 'si'): string {
+  const units = DISPLAY_UNITS[system];
   return csvText([
     [
       'mode',
@@ -13,8 +16,8 @@ export function modesCsv(result: ModesBlockResult): string {
       'T (s)',
       'omega (rad/s)',
       'lambda (rad^2/s^2)',
-      'Gamma (kg^0.5)',
-      'effective mass (kg)',
+      `Gamma (${units.rootMass.ascii})`,
+      `effective mass (${units.mass.ascii})`,
       'effective mass ratio',
       'cumulative ratio',
       'backward error',
@@ -26,8 +29,8 @@ export function modesCsv(result: ModesBlockResult): string {
       m.period,
       m.omega,
       m.lambda,
-      m.gamma,
-      m.effectiveMass,
+      toDisplay(m.gamma, 'rootMass', system),
+      toDisplay(m.effectiveMass, 'mass', system),
       m.ratio,
       m.cumulative,
       m.backwardError,

@@ -1,17 +1,11 @@
 import type { ModesBlockResult } from '../../../../core/index';
+import { saveFile } from '../../lib/save-file';
 import { modesCsv, shapesCsv } from './modes-csv';
+import { useUnits } from './units';
 
-/** Hands the text to the browser as a file download (no server round trip: the results are here). */
+/** Hands CSV text to the browser as a file download (no server round trip: the results are here). */
 function download(fileName: string, text: string): void {
-  const url = URL.createObjectURL(new Blob([text], { type: 'text/csv;charset=utf-8' }));
-  const link = document.createElement('a');
-  link.href = url;
-  link.download = fileName;
-  document.body.append(link);
-  link.click();
-  link.remove();
-  // Revoked after the click has been handled, so the download has started.
-  setTimeout(() => URL.revokeObjectURL(url), 0);
+  saveFile(fileName, new Blob([text], { type: 'text/csv;charset=utf-8' }));
 }
 
 /** A file name safe on every system: letters, digits, dot, dash and underscore. */
@@ -21,7 +15,7 @@ function safeName(text: string): string {
 
 /**
  * "Download" links for a modes block: the modes table and the mode shapes as CSV, every value in
- * full and in SI, for a response-spectrum spreadsheet or a report. `fileStem` names the files
+ * full and in the page's units, for a response-spectrum spreadsheet or a report. `fileStem` names the files
  * (e.g. "DYN-01_Rev2_deck_v"). Not printed.
  */
 export function ModesDownloads({
@@ -31,6 +25,7 @@ export function ModesDownloads({
   result: ModesBlockResult;
   fileStem: string;
 }) {
+  const units = useUnits();
   if (result.modes.length === 0) return null;
   const stem = safeName(fileStem);
   const hasShapes = !!result.shapes && result.shapes.length > 0;
@@ -41,7 +36,7 @@ export function ModesDownloads({
       <button
         type="button"
         className={link}
-        onClick={() => download(`${stem}_modes.csv`, modesCsv(result))}
+        onClick={() => download(`${stem}_modes.csv`, modesCsv(result, units.system))}
       >
         Modes table
       </button>

@@ -1,5 +1,5 @@
 import type { ModesBlockResult } from '../../../../core/index';
-import { massText } from '../../lib/format';
+import { useUnits } from './units';
 
 /**
  * What the effective-mass percentages are shares of: rᵀMr for the direction, the mass that moves
@@ -8,6 +8,7 @@ import { massText } from '../../lib/format';
  * 8/π²).
  */
 export function ParticipationNote({ result }: { result: ModesBlockResult }) {
+  const units = useUnits();
   const p = result.participation;
   if (!p) {
     // The Γ, effective-mass and cumulative columns show "—": say why and what to write.
@@ -22,8 +23,9 @@ export function ParticipationNote({ result }: { result: ModesBlockResult }) {
   }
   return (
     <p className="text-xs text-ink-faint">
-      Effective masses are shares of rᵀMr = {massText(p.mass)} in the direction {p.direction}: the
-      mass that moves with a unit ground displacement (mass at restrained DOFs is not in it).
+      Effective masses are shares of rᵀMr = {units.text('mass', p.mass)} in the direction{' '}
+      {p.direction}: the mass that moves with a unit ground displacement (mass at restrained DOFs is
+      not in it).
     </p>
   );
 }

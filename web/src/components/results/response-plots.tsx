@@ -19,6 +19,7 @@ import type {
 } from '../../../../core/index';
 import { sig } from '../../lib/format';
 import { SERIES_COLOURS } from './modes-plots';
+import { useUnits, type Units } from './units';
 
 const GRID = '#d6cfbf';
 const MARK = '#8a4b12';
@@ -102,17 +103,19 @@ function XYChart({
   );
 }
 
-/** S_a(T) in m/s² with a dashed line at each mode's period. */
+/** S_a(T) in the page's acceleration unit, with a dashed line at each mode's period. */
 export function SpectrumPlot({ data }: { data: SpectrumResponseData }) {
+  const u = useUnits();
+  const acc = u.unit('acceleration');
   return (
     <XYChart
       label="Design spectrum, modes' periods marked"
-      points={data.curve.map(([T, sa]) => ({ T, sa }))}
+      points={data.curve.map(([T, sa]) => ({ T, sa: u.value('acceleration', sa) }))}
       x="T"
       xLabel="Period T (s)"
       xText={(T) => `T = ${sig(T, 3)} s`}
-      unit="m/s²"
-      series={[{ key: 'sa', name: 'S_a (m/s²)' }]}
+      unit={acc}
+      series={[{ key: 'sa', name: `S_a (${acc})` }]}
       marks={data.periods.map((T, i) => (
         <ReferenceLine
           key={i}
@@ -126,26 +129,34 @@ export function SpectrumPlot({ data }: { data: SpectrumResponseData }) {
   );
 }
 
-/** Per-DOF series of a plot, in mm. */
+/** Per-DOF series of a plot, displacements in the page's unit (mm or in). */
 function dofSeries(
   xs: readonly number[],
   x: string,
   dofs: readonly { label: string; values: readonly number[] }[],
+  u: Units,
 ) {
+  const unit = u.unit('displacement');
   const points = xs.map((v, i) => {
     const p: Record<string, number> = { [x]: v };
-    dofs.forEach((d, j) => (p[`d${j}`] = (d.values[i] ?? 0) * 1000));
+    dofs.forEach((d, j) => (p[`d${j}`] = u.value('displacement', d.values[i] ?? 0)));
     return p;
   });
-  return { points, series: dofs.map((d, j) => ({ key: `d${j}`, name: `${d.label} (mm)` })) };
+  return {
+    points,
+    series: dofs.map((d, j) => ({ key: `d${j}`, name: `${d.label} (${unit})` })),
+    unit,
+  };
 }
 
-/** Displacement amplitude (mm) against frequency (Hz), running speed and ±20 % band marked. */
+/** Displacement amplitude against frequency (Hz), running speed and ±20 % band marked. */
 export function HarmonicPlot({ data }: { data: HarmonicResponseData }) {
-  const { points, series } = dofSeries(
+  const u = useUnits();
+  const { points, series, unit } = dofSeries(
     data.frequencies,
     'f',
     data.dofs.map((d) => ({ label: d.label, values: d.amplitude })),
+    u,
   );
   const run = data.runningSpeed;
   return (
@@ -155,7 +166,7 @@ export function HarmonicPlot({ data }: { data: HarmonicResponseData }) {
       x="f"
       xLabel="Frequency (Hz)"
       xText={(f) => `${sig(f, 4)} Hz`}
-      unit="mm"
+      unit={unit}
       series={series}
       marks={[
         ...(run !== null
@@ -183,12 +194,15 @@ export function HarmonicPlot({ data }: { data: HarmonicResponseData }) {
   );
 }
 
-/** Displacements (mm) and, under ground motion, base shear (kN) against time. */
+/** Displacements and, under ground motion, base shear against time, in the page's units. */
 export function HistoryPlot({ data }: { data: HistoryResponseData }) {
-  const { points, series } = dofSeries(
+  const u = useUnits();
+  const force = u.unit('force');
+  const { points, series, unit } = dofSeries(
     data.time,
     't',
     data.dofs.map((d) => ({ label: d.label, values: d.displacement })),
+    u,
   );
   const time = (t: number) => `t = ${sig(t, 4)} s`;
   return (
@@ -199,18 +213,21 @@ export function HistoryPlot({ data }: { data: HistoryResponseData }) {
         x="t"
         xLabel="Time (s)"
         xText={time}
-        unit="mm"
+        unit={unit}
         series={series}
       />
       {data.baseShear ? (
         <XYChart
           label="Base shear against time"
-          points={data.time.map((t, i) => ({ t, v: (data.baseShear!.values[i] ?? 0) / 1000 }))}
+          points={data.time.map((t, i) => ({
+            t,
+            v: u.value('force', data.baseShear!.values[i] ?? 0),
+          }))}
           x="t"
           xLabel="Time (s)"
           xText={time}
-          unit="kN"
-          series={[{ key: 'v', name: 'Base shear (kN)' }]}
+          unit={force}
+          series={[{ key: 'v', name: `Base shear (${force})` }]}
         />
       ) : null}
     </div>

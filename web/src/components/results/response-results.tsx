@@ -9,7 +9,8 @@ import type {
   SpectrumResponseData,
   WalkingResponseData,
 } from '../../../../core/index';
-import { massText, percent, sig } from '../../lib/format';
+import { percent, sig } from '../../lib/format';
+import { useUnits } from './units';
 
 const SpectrumPlot = lazy(() =>
   import('./response-plots').then((m) => ({ default: m.SpectrumPlot })),
@@ -22,8 +23,6 @@ const HistoryPlot = lazy(() =>
 );
 
 const G = 9.80665;
-const kN = (n: number) => `${sig(n / 1000, 4)} kN`;
-const mm = (m: number) => `${sig(m * 1000, 4)} mm`;
 const TH = 'border-b border-rule px-2 py-1 text-right font-semibold';
 const TD = 'px-2 py-0.5 text-right font-mono tabular-nums';
 
@@ -67,6 +66,9 @@ function Plot({ children }: { children: React.ReactNode }) {
 }
 
 function Direction({ d, several }: { d: SpectrumDirectionResult; several: boolean }) {
+  const u = useUnits();
+  const kN = (n: number) => u.text('force', n);
+  const mm = (m: number) => u.text('displacement', m);
   return (
     <section
       className="flex flex-col gap-2"
@@ -85,14 +87,14 @@ function Direction({ d, several }: { d: SpectrumDirectionResult; several: boolea
       <p className="text-xs text-ink-soft">{d.description}</p>
       <Table
         label="Modal responses"
-        head={['Mode', 'T (s)', 'ζ', 'S_a (m/s²)', 'Γ', 'M*', 'V_n']}
+        head={['Mode', 'T (s)', 'ζ', `S_a (${u.unit('acceleration')})`, 'Γ', 'M*', 'V_n']}
         rows={d.modes.map((m) => [
           String(m.mode),
           sig(m.period, 4),
           sig(m.damping, 3),
-          sig(m.sa, 4),
-          sig(m.gamma, 4),
-          massText(m.effectiveMass),
+          sig(u.value('acceleration', m.sa), 4),
+          sig(u.value('rootMass', m.gamma), 4),
+          u.text('mass', m.effectiveMass),
           kN(m.baseShear),
         ])}
       />
@@ -104,7 +106,7 @@ function Direction({ d, several }: { d: SpectrumDirectionResult; several: boolea
             String(i + 1),
             kN(d.storeys!.force[i]!),
             kN(d.storeys!.shear[i]!),
-            `${sig(d.storeys!.overturning[i]! / 1000, 4)} kN·m`,
+            u.text('moment', d.storeys!.overturning[i]!),
             mm(d.storeys!.drift[i]!),
             `${sig(d.storeys!.driftRatio[i]! * 100, 3)} %`,
             mm(d.displacement[i]!),
@@ -112,7 +114,7 @@ function Direction({ d, several }: { d: SpectrumDirectionResult; several: boolea
         />
       ) : (
         <p className="text-xs">
-          Peak displacements: {d.displacement.map((u, i) => `${i + 1}: ${mm(u)}`).join(' · ')}
+          Peak displacements: {d.displacement.map((x, i) => `${i + 1}: ${mm(x)}`).join(' · ')}
         </p>
       )}
     </section>
@@ -120,6 +122,8 @@ function Direction({ d, several }: { d: SpectrumDirectionResult; several: boolea
 }
 
 function Spectrum({ data }: { data: SpectrumResponseData }) {
+  const u = useUnits();
+  const mm = (m: number) => u.text('displacement', m);
   const several = data.directions.length > 1;
   return (
     <div className="flex flex-col gap-3">
@@ -129,9 +133,9 @@ function Spectrum({ data }: { data: SpectrumResponseData }) {
       {data.combined ? (
         <p className="text-xs">
           Directions combined by {data.combined.rule === 'srss' ? 'SRSS' : 'the 100 %/30 % rule'}:
-          displacements {data.combined.displacement.map((u) => mm(u)).join(', ')}
+          displacements {data.combined.displacement.map((x) => mm(x)).join(', ')}
           {data.combined.drift
-            ? `; drifts ${data.combined.drift.map((u) => mm(u)).join(', ')}`
+            ? `; drifts ${data.combined.drift.map((x) => mm(x)).join(', ')}`
             : ''}
         </p>
       ) : null}
@@ -143,6 +147,8 @@ function Spectrum({ data }: { data: SpectrumResponseData }) {
 }
 
 function Harmonic({ data }: { data: HarmonicResponseData }) {
+  const u = useUnits();
+  const mm = (m: number) => u.text('displacement', m);
   return (
     <div className="flex flex-col gap-2">
       <p className="text-sm">
@@ -170,7 +176,7 @@ function Harmonic({ data }: { data: HarmonicResponseData }) {
             ...(run
               ? [
                   mm(run.amplitude),
-                  `${sig(run.velocity * 1000, 4)} mm/s`,
+                  u.text('velocity', run.velocity),
                   `${sig((run.phase * 180) / Math.PI, 4)}°`,
                 ]
               : []),
@@ -185,6 +191,8 @@ function Harmonic({ data }: { data: HarmonicResponseData }) {
 }
 
 function History({ data }: { data: HistoryResponseData }) {
+  const u = useUnits();
+  const mm = (m: number) => u.text('displacement', m);
   return (
     <div className="flex flex-col gap-2">
       <p className="text-sm">
@@ -201,7 +209,13 @@ function History({ data }: { data: HistoryResponseData }) {
         rows={[
           ...data.dofs.map((d) => [`Displacement ${d.label}`, mm(d.peak), `${sig(d.time, 4)} s`]),
           ...(data.baseShear
-            ? [['Base shear', kN(data.baseShear.peak), `${sig(data.baseShear.time, 4)} s`]]
+            ? [
+                [
+                  'Base shear',
+                  u.text('force', data.baseShear.peak),
+                  `${sig(data.baseShear.time, 4)} s`,
+                ],
+              ]
             : []),
         ]}
       />
@@ -213,15 +227,17 @@ function History({ data }: { data: HistoryResponseData }) {
 }
 
 function Walking({ data }: { data: WalkingResponseData }) {
+  const u = useUnits();
+  const acc = (a: number, digits: number) => u.text('acceleration', a, digits);
   return (
     <div className="flex flex-col gap-2">
       <p className="text-sm">
         Mode {data.mode} at {sig(data.frequency, 4)} Hz, walker at {data.label}: peak acceleration{' '}
-        <strong>{sig(data.acceleration, 3)} m/s²</strong> ({sig(data.ratio * 100, 3)} % g)
+        <strong>{acc(data.acceleration, 3)}</strong> ({sig(data.ratio * 100, 3)} % g)
         {data.limit !== null ? (
           <>
             {' '}
-            against the limit {sig(data.limit, 3)} m/s² ({sig((data.limit / G) * 100, 3)} % g):{' '}
+            against the limit {acc(data.limit, 3)} ({sig((data.limit / G) * 100, 3)} % g):{' '}
             <span className={data.pass ? 'font-semibold text-pass' : 'font-semibold text-fail'}>
               {data.pass ? 'within' : 'exceeds'}
             </span>
@@ -234,11 +250,11 @@ function Walking({ data }: { data: WalkingResponseData }) {
         head={['P_o', 'β', 'Modal mass', 'W', 'a_p', 'a_p/g']}
         rows={[
           [
-            kN(data.force),
+            u.text('force', data.force),
             sig(data.damping, 3),
-            massText(data.modalMass),
-            kN(data.weight),
-            `${sig(data.acceleration, 4)} m/s²`,
+            u.text('mass', data.modalMass),
+            u.text('force', data.weight),
+            acc(data.acceleration, 4),
             `${sig(data.ratio * 100, 3)} %`,
           ],
         ]}

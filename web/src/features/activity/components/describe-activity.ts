@@ -48,6 +48,11 @@ const REFUSALS: Record<string, string> = {
 
 type Describer = (entry: ActivityEntry, d: Details) => DescribedActivity;
 
+function firmTemplateName(d: Details): string | null {
+  const t = d.firmTemplate as { name?: unknown } | undefined;
+  return t && typeof t.name === 'string' ? t.name : null;
+}
+
 const DESCRIBERS: Record<string, Describer> = {
   'project.created': (_e, d) => ({
     text: 'created the project',
@@ -89,7 +94,22 @@ const DESCRIBERS: Record<string, Describer> = {
     facts: [
       str(d.title) ?? e.sheet?.title ?? null,
       str(d.template) && d.template !== 'empty' ? `from the ${String(d.template)} template` : null,
+      firmTemplateName(d) ? `from the firm template “${firmTemplateName(d)}”` : null,
     ].filter((x): x is string => x !== null),
+  }),
+  'template.saved': (e, d) => ({
+    text: `saved ${str(d.sheetNumber) ?? sheetName(e, d)} ${
+      num(d.revisionNumber) === null ? 'draft' : `Rev ${num(d.revisionNumber)}`
+    } as the firm template “${str(d.name) ?? ''}”`,
+    facts: [],
+  }),
+  'template.updated': (_e, d) => ({
+    text: `changed the firm template “${str(d.name) ?? ''}”`,
+    facts: [],
+  }),
+  'template.deleted': (_e, d) => ({
+    text: `deleted the firm template “${str(d.name) ?? ''}”`,
+    facts: [],
   }),
   'sheet.renamed': (e, d) => ({ text: `renamed sheet ${sheetName(e, d)}`, facts: renamed(d) }),
   'sheet.updated': (e, d) => ({ text: `changed sheet ${sheetName(e, d)}`, facts: renamed(d) }),

@@ -55,7 +55,7 @@ function Results({
 }) {
   switch (result.kind) {
     case 'calc':
-      return <CalcResult result={result} />;
+      return <CalcResult result={result} digits={digits} />;
     case 'matrix':
       return <MatrixResult result={result} digits={digits} />;
     case 'modes':

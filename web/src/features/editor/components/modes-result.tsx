@@ -4,6 +4,7 @@ import { ModesDownloads, ModesWarnings, ParticipationNote } from '../../../compo
 import { Table, Td, Th } from '../../../components/ui/table';
 import { participationFactor, percent, sig } from '../../../lib/format';
 import { Spinner } from '../../../components/ui/spinner';
+import { useUnits } from '../../../components/results/units';
 
 // The charts library is the largest part of the editor: fetched when the first plot is drawn, so a
 // sheet without modes (or still evaluating) opens without it.
@@ -42,6 +43,8 @@ export function ModesResult({
   const name = result.name ?? 'modes';
   // A direct solve has no iteration history: no empty chart for it.
   const iterated = result.histories.some((h) => h.length > 0);
+  const units = useUnits();
+  const gammas = result.modes.map((o) => units.value('rootMass', o.gamma ?? Number.NaN));
   return (
     <div className="flex flex-col gap-3 text-sm">
       <p className="text-ink-soft">
@@ -73,7 +76,7 @@ export function ModesResult({
                 className="text-right"
                 title="Participation factor φᵀMr, with φ mass-normalized (φᵀMφ = 1 kg)"
               >
-                Γ (√kg)
+                Γ ({units.unit('rootMass')})
               </Th>
               <Th caps={false} className="text-right">
                 Eff. mass
@@ -98,8 +101,8 @@ export function ModesResult({
                 <Td className="py-1 text-right">{sig(m.omega, digits)}</Td>
                 <Td className="py-1 text-right">
                   {participationFactor(
-                    m.gamma,
-                    result.modes.map((o) => o.gamma),
+                    m.gamma === null ? null : units.value('rootMass', m.gamma),
+                    gammas,
                     digits,
                   )}
                 </Td>

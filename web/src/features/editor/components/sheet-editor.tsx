@@ -3,6 +3,12 @@ import { Link } from 'react-router-dom';
 import { Alert, QueryError } from '../../../components/ui/alert';
 import { paths } from '../../../config/paths';
 import { Spinner } from '../../../components/ui/spinner';
+import { UnitSystemProvider } from '../../../components/results/units';
+import {
+  UNIT_SYSTEM_LABELS,
+  UNIT_SYSTEMS,
+  type UnitSystem,
+} from '../../../../../core/display-units';
 import { useSheet } from '../api/get-sheet';
 import type { SheetIssue } from '../api/results';
 import {
@@ -172,179 +178,197 @@ function EditorSurface({
   const conflict = save.conflict;
 
   return (
-    <div className="flex flex-col gap-3">
-      <SheetHeader
-        sheet={sheet}
-        projectHref={projectHref}
-        results={results}
-        stale={evaluation.stale}
-        evaluation={evaluation.state}
-        saveState={save.state}
-        saveError={save.error}
-        readOnly={!canEdit}
-        onRun={() => void evaluation.run()}
-        onCancel={evaluation.cancel}
-      />
+    <UnitSystemProvider system={settings.units}>
+      <div className="flex flex-col gap-3">
+        <SheetHeader
+          sheet={sheet}
+          projectHref={projectHref}
+          results={results}
+          stale={evaluation.stale}
+          evaluation={evaluation.state}
+          saveState={save.state}
+          saveError={save.error}
+          readOnly={!canEdit}
+          onRun={() => void evaluation.run()}
+          onCancel={evaluation.cancel}
+        />
 
-      {canEdit &&
-      sheet.latestRevision &&
-      sheet.status !== 'draft' &&
-      sheet.status !== 'returned' ? (
-        <p className="text-sm text-ink-soft" data-testid="next-revision-note">
-          Rev {sheet.latestRevision.number} is {FROZEN_WORDS[sheet.status] ?? 'issued'} and stays as
-          it is; changes here go into Rev {sheet.latestRevision.number + 1} when it is issued.
-        </p>
-      ) : null}
-
-      <SheetOutline blocks={blocks} errorsByBlock={errorCounts} />
-
-      {undo ? (
-        <div
-          role="status"
-          className="flex items-center gap-3 rounded-sm border border-rule-strong bg-paper-deep px-3 py-1.5 text-sm"
-        >
-          <span>{undo.label}</span>
-          <button
-            type="button"
-            className="font-medium text-accent-strong underline underline-offset-2"
-            onClick={() => {
-              setBlocks(undo.blocks);
-              setUndo(null);
-            }}
-          >
-            Undo
-          </button>
-          <button
-            type="button"
-            className="ml-auto text-xs text-ink-faint hover:text-ink"
-            onClick={() => setUndo(null)}
-            aria-label="Dismiss"
-          >
-            ✕
-          </button>
-        </div>
-      ) : null}
-
-      <UploadZone
-        sheetId={sheet.id}
-        enabled={canEdit}
-        onUploaded={(source) => add('matrix', source)}
-      >
-        <ol className="flex flex-col gap-3" aria-label="Blocks">
-          {blocks.map((block, index) => (
-            <li key={block.id}>
-              <BlockCard
-                block={block}
-                index={index}
-                count={blocks.length}
-                readOnly={!canEdit}
-                result={results?.blocks.find((r) => r.blockId === block.id)}
-                issues={issuesByBlock.get(block.id) ?? NO_ISSUES}
-                {...(remarks?.get(block.id) ? { remarks: remarks.get(block.id)! } : {})}
-                stale={evaluation.stale}
-                digits={settings.significantFigures}
-                fileStem={`${sheet.number}_draft`}
-                names={(line) => namesInScope(blocks, index, line, results?.blocks)}
-                uploads={() => uploadNames.current}
-                onChange={(source) => update(block.id, source)}
-                onMove={(delta) => move(index, index + delta)}
-                onDuplicate={() => duplicate(index)}
-                onDelete={() => remove(index)}
-                onDragStart={(event) => {
-                  event.dataTransfer.setData('application/x-modewright-block', block.id);
-                  event.dataTransfer.effectAllowed = 'move';
-                  const card = (event.currentTarget as HTMLElement).closest('section');
-                  if (card) event.dataTransfer.setDragImage(card, 16, 16);
-                  setDragFrom(index);
-                }}
-                onDragOver={(event) => {
-                  if (dragFrom === null) return;
-                  event.preventDefault();
-                  event.dataTransfer.dropEffect = 'move';
-                  setDropAt(index);
-                }}
-                onDrop={onDrop(index)}
-                dropTarget={dropAt === index && dragFrom !== null && dragFrom !== index}
-              />
-            </li>
-          ))}
-        </ol>
-        {blocks.length === 0 ? (
-          <p className="rounded-sm border border-dashed border-rule-strong px-4 py-6 text-center text-sm text-ink-soft">
-            This sheet has no blocks yet.
-            {canEdit ? ' Add one below, or drop a K or M file here.' : ''}
+        {canEdit &&
+        sheet.latestRevision &&
+        sheet.status !== 'draft' &&
+        sheet.status !== 'returned' ? (
+          <p className="text-sm text-ink-soft" data-testid="next-revision-note">
+            Rev {sheet.latestRevision.number} is {FROZEN_WORDS[sheet.status] ?? 'issued'} and stays
+            as it is; changes here go into Rev {sheet.latestRevision.number + 1} when it is issued.
           </p>
         ) : null}
-      </UploadZone>
 
-      {canEdit ? (
-        <div
-          className="flex flex-wrap items-center gap-2 text-sm"
-          role="group"
-          aria-label="Add a block"
-        >
-          <span className="text-ink-soft">Add</span>
-          {BLOCK_KINDS.map((kind) => (
-            <button
-              key={kind}
-              type="button"
-              onClick={() => add(kind)}
-              className="rounded-sm border border-rule-strong bg-paper-sheet px-2 py-0.5 hover:bg-paper-deep"
-            >
-              + {KIND_LABELS[kind]}
-            </button>
-          ))}
-          <Link
-            to={paths.reference.href()}
-            target="_blank"
-            className="text-xs text-accent-strong underline underline-offset-2"
+        <SheetOutline blocks={blocks} errorsByBlock={errorCounts} />
+
+        {undo ? (
+          <div
+            role="status"
+            className="flex items-center gap-3 rounded-sm border border-rule-strong bg-paper-deep px-3 py-1.5 text-sm"
           >
-            Sheet reference
-          </Link>
-          <label className="ml-auto flex items-center gap-1 text-xs text-ink-soft">
-            Significant figures
-            <input
-              type="number"
-              min={1}
-              max={15}
-              value={settings.significantFigures}
-              onChange={(e) => {
-                const n = Math.round(Number(e.target.value));
-                if (n >= 1 && n <= 15) setSettings({ significantFigures: n });
+            <span>{undo.label}</span>
+            <button
+              type="button"
+              className="font-medium text-accent-strong underline underline-offset-2"
+              onClick={() => {
+                setBlocks(undo.blocks);
+                setUndo(null);
               }}
-              className="w-12 rounded-sm border border-rule-strong bg-paper-sheet px-1 py-0.5"
-            />
-          </label>
-        </div>
-      ) : null}
+            >
+              Undo
+            </button>
+            <button
+              type="button"
+              className="ml-auto text-xs text-ink-faint hover:text-ink"
+              onClick={() => setUndo(null)}
+              aria-label="Dismiss"
+            >
+              ✕
+            </button>
+          </div>
+        ) : null}
 
-      {save.state === 'error' && save.error ? (
-        <Alert title="The draft was not saved.">{save.error}</Alert>
-      ) : null}
+        <UploadZone
+          sheetId={sheet.id}
+          enabled={canEdit}
+          onUploaded={(source) => add('matrix', source)}
+        >
+          <ol className="flex flex-col gap-3" aria-label="Blocks">
+            {blocks.map((block, index) => (
+              <li key={block.id}>
+                <BlockCard
+                  block={block}
+                  index={index}
+                  count={blocks.length}
+                  readOnly={!canEdit}
+                  result={results?.blocks.find((r) => r.blockId === block.id)}
+                  issues={issuesByBlock.get(block.id) ?? NO_ISSUES}
+                  {...(remarks?.get(block.id) ? { remarks: remarks.get(block.id)! } : {})}
+                  stale={evaluation.stale}
+                  digits={settings.significantFigures}
+                  fileStem={`${sheet.number}_draft`}
+                  names={(line) => namesInScope(blocks, index, line, results?.blocks)}
+                  uploads={() => uploadNames.current}
+                  onChange={(source) => update(block.id, source)}
+                  onMove={(delta) => move(index, index + delta)}
+                  onDuplicate={() => duplicate(index)}
+                  onDelete={() => remove(index)}
+                  onDragStart={(event) => {
+                    event.dataTransfer.setData('application/x-modewright-block', block.id);
+                    event.dataTransfer.effectAllowed = 'move';
+                    const card = (event.currentTarget as HTMLElement).closest('section');
+                    if (card) event.dataTransfer.setDragImage(card, 16, 16);
+                    setDragFrom(index);
+                  }}
+                  onDragOver={(event) => {
+                    if (dragFrom === null) return;
+                    event.preventDefault();
+                    event.dataTransfer.dropEffect = 'move';
+                    setDropAt(index);
+                  }}
+                  onDrop={onDrop(index)}
+                  dropTarget={dropAt === index && dragFrom !== null && dragFrom !== index}
+                />
+              </li>
+            ))}
+          </ol>
+          {blocks.length === 0 ? (
+            <p className="rounded-sm border border-dashed border-rule-strong px-4 py-6 text-center text-sm text-ink-soft">
+              This sheet has no blocks yet.
+              {canEdit ? ' Add one below, or drop a K or M file here.' : ''}
+            </p>
+          ) : null}
+        </UploadZone>
 
-      {/* The caution is the page's own, in the footer of every signed-in screen: once per screen. */}
-      {conflict ? (
-        <ConflictDialog
-          mine={blocks}
-          theirs={conflict.current}
-          message={conflict.message}
-          busy={save.state === 'saving'}
-          onKeepMine={() => save.resolve(conflict.current.draftVersion, null)}
-          onKeepTheirs={() => {
-            setUndo({ label: 'Your version was replaced by theirs.', blocks });
-            setBlocks(conflict.current.blocks);
-            setSettings(conflict.current.settings ?? settings);
-            save.resolve(conflict.current.draftVersion, {
-              blocks: conflict.current.blocks,
-              settings: conflict.current.settings ?? settings,
-            });
-          }}
-          onKeepBoth={() => {
-            setBlocks(mergeBoth(blocks, conflict.current.blocks));
-            save.resolve(conflict.current.draftVersion, null);
-          }}
-        />
-      ) : null}
-    </div>
+        {canEdit ? (
+          <div
+            className="flex flex-wrap items-center gap-2 text-sm"
+            role="group"
+            aria-label="Add a block"
+          >
+            <span className="text-ink-soft">Add</span>
+            {BLOCK_KINDS.map((kind) => (
+              <button
+                key={kind}
+                type="button"
+                onClick={() => add(kind)}
+                className="rounded-sm border border-rule-strong bg-paper-sheet px-2 py-0.5 hover:bg-paper-deep"
+              >
+                + {KIND_LABELS[kind]}
+              </button>
+            ))}
+            <Link
+              to={paths.reference.href()}
+              target="_blank"
+              className="text-xs text-accent-strong underline underline-offset-2"
+            >
+              Sheet reference
+            </Link>
+            <label className="ml-auto flex items-center gap-1 text-xs text-ink-soft">
+              Significant figures
+              <input
+                type="number"
+                min={1}
+                max={15}
+                value={settings.significantFigures}
+                onChange={(e) => {
+                  const n = Math.round(Number(e.target.value));
+                  if (n >= 1 && n <= 15) setSettings((s) => ({ ...s, significantFigures: n }));
+                }}
+                className="w-12 rounded-sm border border-rule-strong bg-paper-sheet px-1 py-0.5"
+              />
+            </label>
+            <label className="flex items-center gap-1 text-xs text-ink-soft">
+              Units shown
+              <select
+                value={settings.units ?? 'si'}
+                onChange={(e) =>
+                  setSettings((s) => ({ ...s, units: e.target.value as UnitSystem }))
+                }
+                className="rounded-sm border border-rule-strong bg-paper-sheet px-1 py-0.5"
+              >
+                {UNIT_SYSTEMS.map((u) => (
+                  <option key={u} value={u}>
+                    {UNIT_SYSTEM_LABELS[u]}
+                  </option>
+                ))}
+              </select>
+            </label>
+          </div>
+        ) : null}
+
+        {save.state === 'error' && save.error ? (
+          <Alert title="The draft was not saved.">{save.error}</Alert>
+        ) : null}
+
+        {/* The caution is the page's own, in the footer of every signed-in screen: once per screen. */}
+        {conflict ? (
+          <ConflictDialog
+            mine={blocks}
+            theirs={conflict.current}
+            message={conflict.message}
+            busy={save.state === 'saving'}
+            onKeepMine={() => save.resolve(conflict.current.draftVersion, null)}
+            onKeepTheirs={() => {
+              setUndo({ label: 'Your version was replaced by theirs.', blocks });
+              setBlocks(conflict.current.blocks);
+              setSettings(conflict.current.settings ?? settings);
+              save.resolve(conflict.current.draftVersion, {
+                blocks: conflict.current.blocks,
+                settings: conflict.current.settings ?? settings,
+              });
+            }}
+            onKeepBoth={() => {
+              setBlocks(mergeBoth(blocks, conflict.current.blocks));
+              save.resolve(conflict.current.draftVersion, null);
+            }}
+          />
+        ) : null}
+      </div>
+    </UnitSystemProvider>
   );
 }

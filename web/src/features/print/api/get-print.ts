@@ -38,6 +38,8 @@ export type PrintPackage = {
   }[];
   blocks: { id: string; kind: string; source: string }[];
   results: SheetResults;
+  /** The revision's settings: the units its results are shown in. */
+  settings?: { units?: string };
   seal: {
     code: string;
     digest: string;

@@ -1,5 +1,6 @@
 import { Link } from 'react-router-dom';
-import { BlockResultView } from '../../../components/results';
+import { BlockResultView, UnitSystemProvider } from '../../../components/results';
+import { unitSystemOf } from '../../../../../core/display-units';
 import { renderMarkdown } from '../../../components/results/markdown';
 import { QueryError } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
@@ -199,7 +200,12 @@ export function PrintView({
                     )}
                     {result && result.kind !== 'text' ? (
                       <div className="mt-1">
-                        <BlockResultView result={result} />
+                        <UnitSystemProvider system={unitSystemOf(pkg.settings)}>
+                          <BlockResultView
+                            result={result}
+                            digits={pkg.results.significantFigures}
+                          />
+                        </UnitSystemProvider>
                       </div>
                     ) : null}
                   </section>

@@ -44,6 +44,8 @@ export type RevisionBlock = {
 
 export type RevisionDetail = RevisionSummary & {
   blocks: RevisionBlock[];
+  /** The sheet's settings when issued: significant figures and the units results are shown in. */
+  settings?: { significantFigures?: number; units?: string };
   canonicalText: string;
   results: SheetResults;
   digests: { canonicalText: string; results: string };

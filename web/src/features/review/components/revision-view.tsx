@@ -1,6 +1,7 @@
 import { useId, useMemo, useState, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
-import { BlockResultView } from '../../../components/results';
+import { BlockResultView, UnitSystemProvider } from '../../../components/results';
+import { unitSystemOf } from '../../../../../core/display-units';
 import { Alert, QueryError } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { EmptyState } from '../../../components/ui/empty-state';
@@ -23,6 +24,7 @@ import {
 } from '../api/types';
 import { RemarkCard } from './remark-card';
 import { RemarkForm } from './remark-form';
+import { SpreadsheetButton } from './spreadsheet-button';
 
 const countRemarks = (n: number) => `${n} remark${n === 1 ? '' : 's'}`;
 
@@ -68,7 +70,7 @@ export function RevisionView({
 
   return (
     <div className="flex flex-col gap-4">
-      <nav aria-label="Breadcrumb" className="flex gap-4 text-sm">
+      <nav aria-label="Breadcrumb" className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
         <Link
           to={links.sheet(rev.sheet.projectId, rev.sheet.id)}
           className="text-accent-strong hover:underline"
@@ -78,6 +80,7 @@ export function RevisionView({
         <Link to={links.print(rev.id)} className="text-accent-strong hover:underline">
           Print
         </Link>
+        <SpreadsheetButton revisionId={rev.id} fileStem={`${rev.sheet.number}_Rev${rev.number}`} />
         {rev.number > 1 ? (
           <CompareLink rev={rev} links={links} />
         ) : (
@@ -541,10 +544,13 @@ function Blocks({
             </ol>
             {result && result.kind !== 'text' ? (
               <div className="relative min-w-0 overflow-x-auto border-t border-rule px-3 py-2">
-                <BlockResultView
-                  result={result}
-                  fileStem={`${rev.sheet.number}_Rev${rev.number}`}
-                />
+                <UnitSystemProvider system={unitSystemOf(rev.settings)}>
+                  <BlockResultView
+                    result={result}
+                    fileStem={`${rev.sheet.number}_Rev${rev.number}`}
+                    digits={rev.results.significantFigures}
+                  />
+                </UnitSystemProvider>
               </div>
             ) : null}
           </section>

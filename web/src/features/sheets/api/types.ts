@@ -22,3 +22,28 @@ export const STATUS_LABELS: Record<SheetStatus, string> = {
   checked: 'Checked',
   sealed: 'Sealed',
 };
+
+/** A template of the firm's library (GET /api/firm-templates), with where it came from. */
+export type FirmTemplate = {
+  id: number;
+  name: string;
+  description: string;
+  origin: {
+    projectId: number | null;
+    jobNumber: string;
+    sheetId: number | null;
+    sheetNumber: string;
+    revisionId: number | null;
+    /** Null when saved from the draft. */
+    revisionNumber: number | null;
+  };
+  createdBy: { id: number; name: string };
+  createdAt: string;
+  updatedAt: string;
+};
+
+/** "BW-2611 · DYN-02 Rev 1", or "… draft" when saved from the draft. */
+export function originText(origin: FirmTemplate['origin']): string {
+  const what = origin.revisionNumber === null ? 'draft' : `Rev ${origin.revisionNumber}`;
+  return `${origin.jobNumber} · ${origin.sheetNumber} ${what}`;
+}

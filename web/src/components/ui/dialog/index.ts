@@ -1,0 +1,1 @@
+export { Dialog } from './dialog';
