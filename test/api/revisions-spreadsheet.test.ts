@@ -129,6 +129,10 @@ describe('PUT /api/sheets/:id/draft settings.units', () => {
     // Display only: the stored results are the same SI numbers either way.
     expect(us.body.revision.results).toEqual(si.body.revision.results);
     expect(us.body.revision.digests.results).toBe(si.body.revision.digests.results);
+    // The print view reads the same setting to show its tables in US customary units.
+    const print = await viewer.get(`/api/revisions/${usRev.id}/print`);
+    expect(print.status).toBe(200);
+    expect(print.body.settings).toEqual({ significantFigures: 4, units: 'us' });
   });
 });
 
