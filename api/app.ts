@@ -145,7 +145,7 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
       next();
     });
     api.use(csrfProtection);
-    api.use(loadSessionUser((userId) => usersService.findById(db, userId)));
+    api.use(loadSessionUser((userId) => usersService.findActiveById(db, userId)));
     const window = config.signinWindowMs;
     api.post(
       '/auth/sign-in',
