@@ -43,6 +43,10 @@ const AdminRoute = screen(
   () => import('./routes/admin'),
   (m) => m.AdminRoute,
 );
+const ResetPasswordRoute = screen(
+  () => import('./routes/reset-password'),
+  (m) => m.ResetPasswordRoute,
+);
 const VerifyRoute = screen(
   () => import('./routes/verify'),
   (m) => m.VerifyRoute,
@@ -90,6 +94,16 @@ function createAppRouter() {
       element: (
         <Opening bare>
           <VerifyRoute />
+        </Opening>
+      ),
+    },
+    // Public: a one-time link from the mail sets a new password.
+    {
+      path: paths.resetPassword.path,
+      errorElement: <RouteError screen="password reset" />,
+      element: (
+        <Opening bare>
+          <ResetPasswordRoute />
         </Opening>
       ),
     },

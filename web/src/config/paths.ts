@@ -7,6 +7,7 @@ export const paths = {
         ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}`
         : '/sign-in',
   },
+  resetPassword: { path: '/reset-password', href: () => '/reset-password' },
   projects: { path: '/', href: () => '/' },
   project: {
     path: '/projects/:projectId',
