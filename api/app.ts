@@ -25,6 +25,7 @@ import { createProjectsRouter } from './modules/projects/projects.routes';
 import { createRemarksRouter } from './modules/remarks/remarks.routes';
 import { createRevisionsRouter } from './modules/revisions/revisions.routes';
 import { createSealsRouter } from './modules/seals/seals.routes';
+import { createSearchRouter } from './modules/search/search.routes';
 import { createSheetsRouter } from './modules/sheets/sheets.routes';
 import { createUploadsRouter } from './modules/uploads/uploads.routes';
 import { createUsersRouter } from './modules/users/users.routes';
@@ -169,6 +170,7 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     api.use(createSealsRouter(ctx));
     api.use(createVerifyRouter(ctx));
     api.use('/outbox', createOutboxRouter(ctx));
+    api.use('/search', createSearchRouter(ctx));
     api.use(apiNotFound);
     app.use('/api', api);
 
