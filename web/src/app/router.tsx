@@ -47,6 +47,10 @@ const ResetPasswordRoute = screen(
   () => import('./routes/reset-password'),
   (m) => m.ResetPasswordRoute,
 );
+const SearchRoute = screen(
+  () => import('./routes/search'),
+  (m) => m.SearchRoute,
+);
 const VerifyRoute = screen(
   () => import('./routes/verify'),
   (m) => m.VerifyRoute,
@@ -168,6 +172,15 @@ function createAppRouter() {
           element: (
             <Opening>
               <OutboxRoute />
+            </Opening>
+          ),
+        },
+        {
+          path: paths.search.path,
+          errorElement: <RouteError screen="search" />,
+          element: (
+            <Opening>
+              <SearchRoute />
             </Opening>
           ),
         },

@@ -14,6 +14,7 @@ export const paths = {
     href: (projectId: number | string) => `/projects/${projectId}`,
   },
   admin: { path: '/admin', href: () => '/admin' },
+  search: { path: '/search', href: (q: string) => `/search?q=${encodeURIComponent(q)}` },
   outbox: { path: '/outbox', href: () => '/outbox' },
   sheet: {
     path: '/projects/:projectId/sheets/:sheetId',
