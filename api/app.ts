@@ -21,6 +21,7 @@ import { createActivityRouter } from './modules/activity/activity.routes';
 import { createAuthRouter, SESSION_COOKIE } from './modules/auth/auth.routes';
 import { createMembersRouter } from './modules/members/members.routes';
 import { createOutboxRouter } from './modules/outbox/outbox.routes';
+import { createPackagesRouter } from './modules/packages/packages.routes';
 import { createProjectsRouter } from './modules/projects/projects.routes';
 import { createRemarksRouter } from './modules/remarks/remarks.routes';
 import { createRevisionsRouter } from './modules/revisions/revisions.routes';
@@ -162,6 +163,7 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     api.use('/users', createUsersRouter(ctx));
     api.use('/projects/:projectId/members', createMembersRouter(ctx));
     api.use('/projects/:projectId/activity', createActivityRouter(ctx));
+    api.use('/projects/:projectId/package', createPackagesRouter(ctx));
     api.use('/projects', createProjectsRouter(ctx));
     api.use(createSheetsRouter(ctx));
     api.use(createUploadsRouter(ctx));

@@ -47,6 +47,10 @@ const ResetPasswordRoute = screen(
   () => import('./routes/reset-password'),
   (m) => m.ResetPasswordRoute,
 );
+const PackageRoute = screen(
+  () => import('./routes/package'),
+  (m) => m.PackageRoute,
+);
 const SearchRoute = screen(
   () => import('./routes/search'),
   (m) => m.SearchRoute,
@@ -98,6 +102,16 @@ function createAppRouter() {
       element: (
         <Opening bare>
           <VerifyRoute />
+        </Opening>
+      ),
+    },
+    // The project's calculation package, printed as paper like a single revision.
+    {
+      path: paths.package.path,
+      errorElement: <RouteError screen="calculation package" />,
+      element: (
+        <Opening bare>
+          <PackageRoute />
         </Opening>
       ),
     },

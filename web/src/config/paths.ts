@@ -14,6 +14,10 @@ export const paths = {
     href: (projectId: number | string) => `/projects/${projectId}`,
   },
   admin: { path: '/admin', href: () => '/admin' },
+  package: {
+    path: '/projects/:projectId/package',
+    href: (projectId: number | string) => `/projects/${projectId}/package`,
+  },
   search: { path: '/search', href: (q: string) => `/search?q=${encodeURIComponent(q)}` },
   outbox: { path: '/outbox', href: () => '/outbox' },
   sheet: {

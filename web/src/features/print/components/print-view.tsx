@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { BlockResultView } from '../../../components/results';
 import { renderMarkdown } from '../../../components/results/markdown';
@@ -98,6 +99,30 @@ export function PrintView({
           The title block repeats on every page; page numbers are printed at the foot.
         </span>
       </div>
+      <RevisionPages pkg={pkg} verifyUrl={verifyUrl} />
+    </div>
+  );
+}
+
+/**
+ * One revision on paper: its title block repeated on every page, then the sheet, its caution
+ * and its seal. The calculation package binds several of these; `sealMark` sits beside the seal
+ * (the package's QR code) and `after` follows the seal (the package's record of check).
+ */
+export function RevisionPages({
+  pkg,
+  verifyUrl,
+  sealMark,
+  after,
+}: {
+  pkg: PrintPackage;
+  verifyUrl: (path: string) => string;
+  sealMark?: ReactNode;
+  after?: ReactNode;
+}) {
+  const r = pkg.revision;
+  return (
+    <>
       <table className="mw-package">
         <thead className="mw-title">
           <tr>
@@ -231,12 +256,14 @@ export function PrintView({
                   <p>
                     Verify at <span className="font-mono">{verifyUrl(pkg.seal.verifyPath)}</span>
                   </p>
+                  {sealMark}
                 </section>
               ) : null}
+              {after}
             </td>
           </tr>
         </tbody>
       </table>
-    </div>
+    </>
   );
 }
