@@ -1,13 +1,13 @@
 import { useState, type FormEvent } from 'react';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
-import { TextField } from '../../../components/ui/text-field';
 import { splitFormError } from '../../../lib/form-errors';
 import { formatUtc } from '../../../lib/format';
 import type { ManagedUser } from '../api/get-users';
 import { useSendPasswordReset } from '../api/send-password-reset';
 import { useSetUserActive } from '../api/set-user-active';
 import { useUpdateUser } from '../api/update-user';
+import { LicenceFields, NameEmailFields } from './person-fields';
 
 const FIELDS = ['name', 'email', 'licenceNumber', 'jurisdiction'] as const;
 
@@ -59,37 +59,12 @@ function EditPersonForm({ person }: { person: ManagedUser }) {
       className="flex flex-col gap-3"
     >
       <div className="grid gap-3 sm:grid-cols-2">
-        <TextField
-          label="Name"
-          name="name"
-          value={fields.name}
-          onChange={set('name')}
-          error={fieldErrors.name}
-        />
-        <TextField
-          label="E-mail"
-          name="email"
-          type="email"
-          autoComplete="off"
-          value={fields.email}
-          onChange={set('email')}
-          error={fieldErrors.email}
-        />
-        <TextField
-          label="Licence no."
-          name="licenceNumber"
-          mono
-          hint="Leave empty to remove it; a principal needs one to seal."
-          value={fields.licenceNumber}
-          onChange={set('licenceNumber')}
-          error={fieldErrors.licenceNumber}
-        />
-        <TextField
-          label="Jurisdiction"
-          name="jurisdiction"
-          value={fields.jurisdiction}
-          onChange={set('jurisdiction')}
-          error={fieldErrors.jurisdiction}
+        <NameEmailFields values={fields} onChange={set} errors={fieldErrors} />
+        <LicenceFields
+          values={fields}
+          onChange={set}
+          errors={fieldErrors}
+          licenceHint="Leave empty to remove it; a principal needs one to seal."
         />
       </div>
       {formError ? <Alert>{formError}</Alert> : null}

@@ -10,16 +10,8 @@ import {
   type CalculationPackage,
   type RecordRemark,
 } from '../api/get-package';
-import { RevisionPages } from './print-view';
+import { RevisionPages, STATUS } from './print-view';
 import { SealQr } from './seal-qr';
-
-const STATUS: Record<string, string> = {
-  in_check: 'In check',
-  returned: 'Returned',
-  checked: 'Checked',
-  sealed: 'Sealed',
-  superseded: 'Superseded',
-};
 
 const day = (iso: string | null) => (iso ? formatUtc(iso).slice(0, 10) : '—');
 

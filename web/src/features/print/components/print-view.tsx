@@ -18,7 +18,8 @@ const PRINTED_MARKDOWN = [
   '[&_td]:border [&_td]:border-black/30 [&_td]:px-1 [&_th]:border [&_th]:border-black/30 [&_th]:px-1',
 ].join(' ');
 
-const STATUS: Record<string, string> = {
+/** A revision's status in the words printed on paper. */
+export const STATUS: Record<string, string> = {
   in_check: 'In check',
   returned: 'Returned',
   checked: 'Checked',
