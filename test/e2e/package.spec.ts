@@ -85,6 +85,10 @@ describe('calculation package (browser)', () => {
       `${demoProjects.footbridge.jobNumber}-calculation-package.pdf`,
     );
     const file = await download.path();
+    // Kept beside the screenshots for a person to look at.
+    await download.saveAs(
+      path.resolve(import.meta.dirname, '..', '..', 'test-results', 'package.pdf'),
+    );
     const pages = pdfPages(file);
     // A cover page and at least one page for each of the two sheets.
     expect(pages).toBeGreaterThanOrEqual(3);
