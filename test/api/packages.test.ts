@@ -109,9 +109,7 @@ beforeAll(async () => {
     id: number;
   }[];
   for (const r of carried) {
-    expect((await checker.patch(`/api/remarks/${r.id}`, { state: 'closed' })).status).toBe(
-      200,
-    );
+    expect((await checker.patch(`/api/remarks/${r.id}`, { state: 'closed' })).status).toBe(200);
   }
   sealA2 = await seal(a2);
   // Sheet B: Rev 1 sealed. Sheet C: Rev 1 in check only.
