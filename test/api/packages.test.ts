@@ -258,3 +258,18 @@ describe('GET /api/projects/:projectId/package/pdf', () => {
     expect(res.status).toBe(422);
   });
 });
+
+describe('renderPdf', () => {
+  it('refuses with 503 PDF_UNAVAILABLE and points to the browser’s print where Chromium is missing', async () => {
+    const { renderPdf } = await import('../../api/modules/packages/packages.pdf');
+    const refused = renderPdf(
+      { origin: 'http://127.0.0.1:1', path: '/', cookie: null },
+      '/nonexistent/chromium',
+    );
+    await expect(refused).rejects.toMatchObject({
+      status: 503,
+      code: 'PDF_UNAVAILABLE',
+      message: expect.stringContaining('use your browser’s Print → Save as PDF instead'),
+    });
+  });
+});

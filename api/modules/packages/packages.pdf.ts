@@ -26,18 +26,18 @@ export interface PdfRequest {
  * Prints the client's package page to PDF with headless Chromium, as the person's browser would
  * print it (CSS paged media: A4, the title block repeated, "page x of y" across the package).
  */
-export function renderPdf(request: PdfRequest): Promise<Buffer> {
-  if (!existsSync(CHROMIUM_PATH)) {
+export function renderPdf(request: PdfRequest, chromiumPath = CHROMIUM_PATH): Promise<Buffer> {
+  if (!existsSync(chromiumPath)) {
     return Promise.reject(new AppError(503, 'PDF_UNAVAILABLE', NO_CHROMIUM));
   }
-  const run = queue.then(() => render(request));
+  const run = queue.then(() => render(request, chromiumPath));
   queue = run.catch(() => undefined);
   return run;
 }
 
-async function render({ origin, path, cookie }: PdfRequest): Promise<Buffer> {
+async function render({ origin, path, cookie }: PdfRequest, chromiumPath: string): Promise<Buffer> {
   const browser = await chromium.launch({
-    executablePath: CHROMIUM_PATH,
+    executablePath: chromiumPath,
     headless: true,
     args: [
       '--no-sandbox',
