@@ -21,11 +21,13 @@ import { createActivityRouter } from './modules/activity/activity.routes';
 import { createAuthRouter, SESSION_COOKIE } from './modules/auth/auth.routes';
 import { createMembersRouter } from './modules/members/members.routes';
 import { createOutboxRouter } from './modules/outbox/outbox.routes';
+import { createPackagesRouter } from './modules/packages/packages.routes';
 import { createProjectsRouter } from './modules/projects/projects.routes';
 import { createRemarksRouter } from './modules/remarks/remarks.routes';
 import { createRevisionsRouter } from './modules/revisions/revisions.routes';
 import { createTemplatesRouter } from './modules/templates/templates.routes';
 import { createSealsRouter } from './modules/seals/seals.routes';
+import { createSearchRouter } from './modules/search/search.routes';
 import { createSheetsRouter } from './modules/sheets/sheets.routes';
 import { createUploadsRouter } from './modules/uploads/uploads.routes';
 import { createUsersRouter } from './modules/users/users.routes';
@@ -146,7 +148,7 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
       next();
     });
     api.use(csrfProtection);
-    api.use(loadSessionUser((userId) => usersService.findById(db, userId)));
+    api.use(loadSessionUser((userId) => usersService.findActiveById(db, userId)));
     const window = config.signinWindowMs;
     api.post(
       '/auth/sign-in',
@@ -162,6 +164,7 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     api.use('/users', createUsersRouter(ctx));
     api.use('/projects/:projectId/members', createMembersRouter(ctx));
     api.use('/projects/:projectId/activity', createActivityRouter(ctx));
+    api.use('/projects/:projectId/package', createPackagesRouter(ctx));
     api.use('/projects', createProjectsRouter(ctx));
     api.use(createSheetsRouter(ctx));
     api.use(createUploadsRouter(ctx));
@@ -171,6 +174,7 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     api.use(createVerifyRouter(ctx));
     api.use(createTemplatesRouter(ctx));
     api.use('/outbox', createOutboxRouter(ctx));
+    api.use('/search', createSearchRouter(ctx));
     api.use(apiNotFound);
     app.use('/api', api);
 

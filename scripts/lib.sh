@@ -25,7 +25,10 @@ ensure_debian_packages() {
   local want=()
   command -v mariadbd >/dev/null 2>&1 || [ -x /usr/sbin/mariadbd ] || want+=(mariadb-server)
   if [ "${1:-}" = with-chromium ] && [ ! -x /usr/bin/chromium ]; then want+=(chromium); fi
-  if [ "${1:-}" = with-chromium ] && [ ! -x /usr/bin/pdftotext ]; then want+=(poppler-utils); fi
+  # The package PDF's browser test reads page counts and text with poppler's pdfinfo/pdftotext.
+  if [ "${1:-}" = with-chromium ] && ! command -v pdftotext >/dev/null 2>&1; then
+    want+=(poppler-utils)
+  fi
   if [ ${#want[@]} -gt 0 ]; then
     log "installing Debian packages: ${want[*]}"
     as_root apt-get update -qq

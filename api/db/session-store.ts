@@ -98,3 +98,8 @@ export async function endOtherSessions(
     .whereNot('sid', keepSid)
     .del();
 }
+
+/** Ends every session of a person (deactivation, a password reset by link). Returns how many. */
+export async function endAllSessions(db: DbOrTx, userId: number): Promise<number> {
+  return db('sessions').whereRaw("JSON_VALUE(sess, '$.userId') = ?", [userId]).del();
+}

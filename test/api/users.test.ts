@@ -50,6 +50,7 @@ describe('GET /api/users', () => {
       isAdmin: false,
       licenceNumber: 'SE-7',
       jurisdiction: 'Test County',
+      deactivatedAt: null,
     });
     expect(JSON.stringify(res.body)).not.toMatch(/argon2|password|hash/i);
   });

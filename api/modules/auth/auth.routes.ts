@@ -5,6 +5,8 @@ import type { AppContext } from '../../http/context';
 import { ensureCsrfToken, newCsrfToken } from '../../http/csrf';
 import { RateLimitedError } from '../../http/errors';
 import { parse } from '../../http/validate';
+import { resetPasswordBody } from '../users/users.schemas';
+import { usersService } from '../users/users.service';
 import { signInBody } from './auth.schemas';
 import { authService } from './auth.service';
 
@@ -77,6 +79,12 @@ export function createAuthRouter({ db, config }: AppContext): Router {
     await destroy(req);
     res.clearCookie(SESSION_COOKIE, { path: '/', httpOnly: true, sameSite: 'lax' });
     res.status(204).end();
+  });
+
+  // From the one-time link an admin sent: no session needed, the token is the proof.
+  router.post('/password-reset', async (req, res) => {
+    const input = parse(resetPasswordBody, req.body);
+    res.json(await usersService.resetPassword(db, input));
   });
 
   router.get('/me', requireSignedIn, (req, res) => {

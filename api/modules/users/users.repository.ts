@@ -10,6 +10,11 @@ export interface User {
   jurisdiction: string | null;
 }
 
+/** A person as the admin screen lists them: with whether (and since when) they are deactivated. */
+export interface ManagedUser extends User {
+  deactivatedAt: string | null;
+}
+
 interface UserRow {
   id: number;
   email: string;
@@ -18,11 +23,14 @@ interface UserRow {
   is_admin: number | boolean;
   licence_number: string | null;
   jurisdiction: string | null;
+  deactivated_at: Date | null;
 }
 
 const publicColumns = ['id', 'email', 'name', 'is_admin', 'licence_number', 'jurisdiction'];
+const managedColumns = [...publicColumns, 'deactivated_at'];
 
-type PublicRow = Omit<UserRow, 'password_hash'>;
+type PublicRow = Omit<UserRow, 'password_hash' | 'deactivated_at'>;
+type ManagedRow = Omit<UserRow, 'password_hash'>;
 
 function toUser(row: PublicRow): User {
   return {
@@ -35,6 +43,13 @@ function toUser(row: PublicRow): User {
   };
 }
 
+function toManagedUser(row: ManagedRow): ManagedUser {
+  return {
+    ...toUser(row),
+    deactivatedAt: row.deactivated_at ? new Date(row.deactivated_at).toISOString() : null,
+  };
+}
+
 export interface NewUser {
   email: string;
   name: string;
@@ -44,6 +59,27 @@ export interface NewUser {
   jurisdiction: string | null;
 }
 
+export interface UserChanges {
+  email?: string;
+  name?: string;
+  licenceNumber?: string | null;
+  jurisdiction?: string | null;
+}
+
+export interface NewPasswordReset {
+  userId: number;
+  tokenHash: string;
+  createdBy: number;
+  expiresAt: Date;
+}
+
+export interface PasswordReset {
+  id: number;
+  userId: number;
+  expiresAt: Date;
+  usedAt: Date | null;
+}
+
 export const usersRepository = {
   async findById(db: DbOrTx, id: number): Promise<User | undefined> {
     const row: PublicRow | undefined = await db('users')
@@ -51,6 +87,24 @@ export const usersRepository = {
       .where({ id })
       .first();
     return row ? toUser(row) : undefined;
+  },
+
+  /** The person a session names, only while they are active (a deactivated person is nobody). */
+  async findActiveById(db: DbOrTx, id: number): Promise<User | undefined> {
+    const row: PublicRow | undefined = await db('users')
+      .select(publicColumns)
+      .where({ id })
+      .whereNull('deactivated_at')
+      .first();
+    return row ? toUser(row) : undefined;
+  },
+
+  async findManagedById(db: DbOrTx, id: number): Promise<ManagedUser | undefined> {
+    const row: ManagedRow | undefined = await db('users')
+      .select(managedColumns)
+      .where({ id })
+      .first();
+    return row ? toManagedUser(row) : undefined;
   },
 
   async findByEmail(db: DbOrTx, email: string): Promise<User | undefined> {
@@ -65,16 +119,19 @@ export const usersRepository = {
   async findCredentials(
     db: DbOrTx,
     email: string,
-  ): Promise<{ user: User; passwordHash: string } | undefined> {
+  ): Promise<{ user: User; passwordHash: string; deactivated: boolean } | undefined> {
     const row = await db<UserRow>('users').where({ email }).first();
     if (!row) return undefined;
-    const { password_hash: passwordHash, ...rest } = row;
-    return { user: toUser(rest), passwordHash };
+    const { password_hash: passwordHash, deactivated_at: deactivatedAt, ...rest } = row;
+    return { user: toUser(rest), passwordHash, deactivated: deactivatedAt !== null };
   },
 
-  async list(db: DbOrTx): Promise<User[]> {
-    const rows: PublicRow[] = await db('users').select(publicColumns).orderBy('name').orderBy('id');
-    return rows.map(toUser);
+  async list(db: DbOrTx): Promise<ManagedUser[]> {
+    const rows: ManagedRow[] = await db('users')
+      .select(managedColumns)
+      .orderBy('name')
+      .orderBy('id');
+    return rows.map(toManagedUser);
   },
 
   async insert(db: DbOrTx, user: NewUser): Promise<number> {
@@ -90,6 +147,24 @@ export const usersRepository = {
     return id;
   },
 
+  async update(db: DbOrTx, id: number, changes: UserChanges): Promise<void> {
+    const values: Record<string, unknown> = {};
+    if (changes.email !== undefined) values.email = changes.email;
+    if (changes.name !== undefined) values.name = changes.name;
+    if (changes.licenceNumber !== undefined) values.licence_number = changes.licenceNumber;
+    if (changes.jurisdiction !== undefined) values.jurisdiction = changes.jurisdiction;
+    if (Object.keys(values).length === 0) return;
+    await db('users')
+      .where({ id })
+      .update({ ...values, updated_at: db.fn.now(3) });
+  },
+
+  async setDeactivated(db: DbOrTx, id: number, deactivated: boolean): Promise<void> {
+    await db('users')
+      .where({ id })
+      .update({ deactivated_at: deactivated ? db.fn.now(3) : null, updated_at: db.fn.now(3) });
+  },
+
   /** The stored password hash, read only to check a password typed again. */
   async passwordHashOf(db: DbOrTx, userId: number): Promise<string | undefined> {
     const row = (await db('users').where({ id: userId }).first('password_hash')) as
@@ -101,5 +176,45 @@ export const usersRepository = {
     await db('users')
       .where({ id: userId })
       .update({ password_hash: hash, updated_at: db.fn.now(3) });
+  },
+
+  async insertPasswordReset(db: DbOrTx, reset: NewPasswordReset): Promise<number> {
+    const [id] = await db('password_resets').insert({
+      user_id: reset.userId,
+      token_hash: reset.tokenHash,
+      created_by: reset.createdBy,
+      expires_at: reset.expiresAt,
+    });
+    if (id === undefined) throw new Error('password_resets insert returned no id');
+    return id;
+  },
+
+  /** Locks the reset row (FOR UPDATE) so two uses of one link cannot both pass. */
+  async findPasswordResetForUpdate(
+    db: DbOrTx,
+    tokenHash: string,
+  ): Promise<PasswordReset | undefined> {
+    const row = (await db('password_resets')
+      .where({ token_hash: tokenHash })
+      .forUpdate()
+      .first('id', 'user_id', 'expires_at', 'used_at')) as
+      { id: number; user_id: number; expires_at: Date; used_at: Date | null } | undefined;
+    return row
+      ? { id: row.id, userId: row.user_id, expiresAt: row.expires_at, usedAt: row.used_at }
+      : undefined;
+  },
+
+  async markPasswordResetUsed(db: DbOrTx, id: number): Promise<void> {
+    await db('password_resets')
+      .where({ id })
+      .update({ used_at: db.fn.now(3) });
+  },
+
+  /** An earlier unused link stops working when a new one is sent. */
+  async retireOpenPasswordResets(db: DbOrTx, userId: number): Promise<void> {
+    await db('password_resets')
+      .where({ user_id: userId })
+      .whereNull('used_at')
+      .update({ expires_at: db.fn.now(3) });
   },
 };

@@ -51,6 +51,18 @@ const TemplatesRoute = screen(
   () => import('./routes/templates'),
   (m) => m.TemplatesRoute,
 );
+const ResetPasswordRoute = screen(
+  () => import('./routes/reset-password'),
+  (m) => m.ResetPasswordRoute,
+);
+const PackageRoute = screen(
+  () => import('./routes/package'),
+  (m) => m.PackageRoute,
+);
+const SearchRoute = screen(
+  () => import('./routes/search'),
+  (m) => m.SearchRoute,
+);
 const VerifyRoute = screen(
   () => import('./routes/verify'),
   (m) => m.VerifyRoute,
@@ -98,6 +110,26 @@ function createAppRouter() {
       element: (
         <Opening bare>
           <VerifyRoute />
+        </Opening>
+      ),
+    },
+    // The project's calculation package, printed as paper like a single revision.
+    {
+      path: paths.package.path,
+      errorElement: <RouteError screen="calculation package" />,
+      element: (
+        <Opening bare>
+          <PackageRoute />
+        </Opening>
+      ),
+    },
+    // Public: a one-time link from the mail sets a new password.
+    {
+      path: paths.resetPassword.path,
+      errorElement: <RouteError screen="password reset" />,
+      element: (
+        <Opening bare>
+          <ResetPasswordRoute />
         </Opening>
       ),
     },
@@ -171,6 +203,15 @@ function createAppRouter() {
           element: (
             <Opening>
               <TemplatesRoute />
+            </Opening>
+          ),
+        },
+        {
+          path: paths.search.path,
+          errorElement: <RouteError screen="search" />,
+          element: (
+            <Opening>
+              <SearchRoute />
             </Opening>
           ),
         },

@@ -7,12 +7,18 @@ export const paths = {
         ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}`
         : '/sign-in',
   },
+  resetPassword: { path: '/reset-password', href: () => '/reset-password' },
   projects: { path: '/', href: () => '/' },
   project: {
     path: '/projects/:projectId',
     href: (projectId: number | string) => `/projects/${projectId}`,
   },
   admin: { path: '/admin', href: () => '/admin' },
+  package: {
+    path: '/projects/:projectId/package',
+    href: (projectId: number | string) => `/projects/${projectId}/package`,
+  },
+  search: { path: '/search', href: (q: string) => `/search?q=${encodeURIComponent(q)}` },
   outbox: { path: '/outbox', href: () => '/outbox' },
   reference: { path: '/reference', href: () => '/reference' },
   templates: { path: '/templates', href: () => '/templates' },

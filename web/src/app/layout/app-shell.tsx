@@ -4,6 +4,7 @@ import { Button } from '../../components/ui/button';
 import { Alert } from '../../components/ui/alert';
 import { paths } from '../../config/paths';
 import { useSignOut } from '../../features/auth/api/sign-out';
+import { SearchBox } from '../../features/search/components/search-box';
 import type { User } from '../../types/api';
 import { Caution } from './caution';
 import { DatabaseBanner } from './database-banner';
@@ -49,6 +50,7 @@ export function AppShell({ user, children }: { user: User; children: ReactNode }
               </NavLink>
             </nav>
           </div>
+          <SearchBox />
           <div className="flex items-center gap-3">
             <p className="text-sm text-ink-soft">
               Signed in as <span className="font-medium text-ink">{user.name}</span>

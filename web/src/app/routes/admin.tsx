@@ -1,7 +1,7 @@
 import { useEffect } from 'react';
 import { Section } from '../../components/ui/section';
 import { Alert } from '../../components/ui/alert';
-import { UsersTable } from '../../features/admin/components/users-table';
+import { People } from '../../features/admin/components/people';
 import { NewUserForm } from '../../features/admin/components/new-user-form';
 import { useSignedInUser } from './use-user';
 
@@ -22,9 +22,7 @@ export function AdminRoute() {
   return (
     <div className="flex flex-col gap-6">
       <h1 className="text-2xl font-semibold">Admin</h1>
-      <Section title="People">
-        <UsersTable />
-      </Section>
+      <People meId={user.id} />
       <Section title="Add a person">
         <NewUserForm />
       </Section>

@@ -48,7 +48,17 @@ function ProjectSheets({ projectId }: { projectId: number }) {
   const project = useProject(projectId);
   const canCreate = project.data?.myRoles.includes('author') ?? false;
   return (
-    <Section title="Sheets">
+    <Section
+      title="Sheets"
+      actions={
+        <Link
+          to={paths.package.href(projectId)}
+          className="text-sm font-medium text-accent-strong hover:underline"
+        >
+          Calculation package
+        </Link>
+      }
+    >
       <SheetsTable projectId={projectId} canCreate={canCreate} sheetHref={paths.sheet.href} />
     </Section>
   );

@@ -2,8 +2,11 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { User } from '../../../types/api';
 
-export async function getUsers(): Promise<User[]> {
-  const body = await api.get<{ users: User[] }>('/api/users');
+/** A person as the admin screen sees them: with whether (and since when) they are deactivated. */
+export type ManagedUser = User & { deactivatedAt: string | null };
+
+export async function getUsers(): Promise<ManagedUser[]> {
+  const body = await api.get<{ users: ManagedUser[] }>('/api/users');
   return body.users;
 }
 

@@ -4,6 +4,7 @@ import { TextField } from '../../../components/ui/text-field';
 import { Alert } from '../../../components/ui/alert';
 import { splitFormError } from '../../../lib/form-errors';
 import { useCreateUser, type CreateUserInput } from '../api/create-user';
+import { LicenceFields, NameEmailFields } from './person-fields';
 
 const FIELDS = ['name', 'email', 'password', 'isAdmin', 'licenceNumber', 'jurisdiction'] as const;
 const EMPTY = { name: '', email: '', password: '', licenceNumber: '', jurisdiction: '' };
@@ -41,22 +42,7 @@ export function NewUserForm() {
   return (
     <form onSubmit={submit} noValidate aria-label="Add a person" className="flex flex-col gap-3">
       <div className="grid gap-3 sm:grid-cols-2">
-        <TextField
-          label="Name"
-          name="name"
-          value={fields.name}
-          onChange={set('name')}
-          error={fieldErrors.name}
-        />
-        <TextField
-          label="E-mail"
-          name="email"
-          type="email"
-          autoComplete="off"
-          value={fields.email}
-          onChange={set('email')}
-          error={fieldErrors.email}
-        />
+        <NameEmailFields values={fields} onChange={set} errors={fieldErrors} />
         <TextField
           label="Initial password"
           name="password"
@@ -80,20 +66,11 @@ export function NewUserForm() {
             Installation admin (manages people and projects)
           </label>
         </div>
-        <TextField
-          label="Licence no. (principals)"
-          name="licenceNumber"
-          mono
-          value={fields.licenceNumber}
-          onChange={set('licenceNumber')}
-          error={fieldErrors.licenceNumber}
-        />
-        <TextField
-          label="Jurisdiction (principals)"
-          name="jurisdiction"
-          value={fields.jurisdiction}
-          onChange={set('jurisdiction')}
-          error={fieldErrors.jurisdiction}
+        <LicenceFields
+          values={fields}
+          onChange={set}
+          errors={fieldErrors}
+          labelSuffix=" (principals)"
         />
       </div>
       {fieldErrors.isAdmin ? <Alert>{fieldErrors.isAdmin}</Alert> : null}

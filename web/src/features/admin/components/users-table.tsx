@@ -5,9 +5,17 @@ import { EmptyState } from '../../../components/ui/empty-state';
 import { FilterBar } from '../../../components/ui/filter-bar';
 import { Badge } from '../../../components/ui/badge';
 import { useState } from 'react';
+import { Button } from '../../../components/ui/button';
 import { useUsers } from '../api/get-users';
 
-export function UsersTable() {
+/** Everyone who may sign in; "Manage" picks the person the panel below edits. */
+export function UsersTable({
+  selectedId,
+  onSelect,
+}: {
+  selectedId: number | null;
+  onSelect: (id: number) => void;
+}) {
   const users = useUsers();
   const [filter, setFilter] = useState('');
 
@@ -47,6 +55,10 @@ export function UsersTable() {
               <Th>Admin</Th>
               <Th>Licence no.</Th>
               <Th>Jurisdiction</Th>
+              <Th>Status</Th>
+              <Th>
+                <span className="sr-only">Actions</span>
+              </Th>
             </tr>
           </thead>
           <tbody>
@@ -63,6 +75,23 @@ export function UsersTable() {
                 </Td>
                 <Td className="font-mono text-xs leading-5">{user.licenceNumber ?? '—'}</Td>
                 <Td>{user.jurisdiction ?? '—'}</Td>
+                <Td>
+                  {user.deactivatedAt ? (
+                    <Badge>Deactivated</Badge>
+                  ) : (
+                    <span className="text-ink-soft">Active</span>
+                  )}
+                </Td>
+                <Td>
+                  <Button
+                    variant="quiet"
+                    aria-pressed={selectedId === user.id}
+                    aria-label={`Manage ${user.name}`}
+                    onClick={() => onSelect(user.id)}
+                  >
+                    Manage
+                  </Button>
+                </Td>
               </tr>
             ))}
           </tbody>

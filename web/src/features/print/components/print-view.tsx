@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { BlockResultView, UnitSystemProvider } from '../../../components/results';
 import { unitSystemOf } from '../../../../../core/display-units';
@@ -21,7 +22,8 @@ const PRINTED_MARKDOWN = [
   '[&_td]:border [&_td]:border-black/30 [&_td]:px-1 [&_th]:border [&_th]:border-black/30 [&_th]:px-1',
 ].join(' ');
 
-const STATUS: Record<string, string> = {
+/** A revision's status in the words printed on paper. */
+export const STATUS: Record<string, string> = {
   in_check: 'In check',
   returned: 'Returned',
   checked: 'Checked',
@@ -107,6 +109,34 @@ export function PrintView({
           it.
         </span>
       </div>
+      <RevisionPages
+        pkg={pkg}
+        verifyUrl={verifyUrl}
+        record={<RemarksRecord revisionNumber={r.number} remarks={remarks} blocks={pkg.blocks} />}
+      />
+    </div>
+  );
+}
+
+/**
+ * One revision on paper: its title block repeated on every page, then the sheet, its caution
+ * and its seal. The calculation package binds several of these; `sealMark` sits beside the seal
+ * (the package's QR code) and `record`, the record of check remarks, follows the sheet.
+ */
+export function RevisionPages({
+  pkg,
+  verifyUrl,
+  sealMark,
+  record,
+}: {
+  pkg: PrintPackage;
+  verifyUrl: (path: string) => string;
+  sealMark?: ReactNode;
+  record?: ReactNode;
+}) {
+  const r = pkg.revision;
+  return (
+    <>
       <table className="mw-package">
         <thead className="mw-title">
           <tr>
@@ -217,7 +247,7 @@ export function PrintView({
                 Engine {r.engineVersion}.
               </p>
 
-              <RemarksRecord revisionNumber={r.number} remarks={remarks} blocks={pkg.blocks} />
+              {record}
 
               <p
                 className="mt-3 border border-black/60 px-2 py-1 text-[8.5pt]"
@@ -248,12 +278,13 @@ export function PrintView({
                   <p>
                     Verify at <span className="font-mono">{verifyUrl(pkg.seal.verifyPath)}</span>
                   </p>
+                  {sealMark}
                 </section>
               ) : null}
             </td>
           </tr>
         </tbody>
       </table>
-    </div>
+    </>
   );
 }

@@ -11,7 +11,8 @@ export type PrintRemark = {
   text: string;
   state: string;
   carriedFrom: { revisionNumber: number; line: number } | null;
-  lineChanged: boolean;
+  /** Whether the line it points at changed since it was carried (absent: not known). */
+  lineChanged?: boolean;
   author: Person;
   createdAt: string;
   closedBy: Person;
@@ -48,19 +49,23 @@ export function RemarksRecord({
   revisionNumber,
   remarks,
   blocks,
+  title,
 }: {
   revisionNumber: number;
   remarks: PrintRemarks;
   blocks: readonly { id: string; kind: string }[];
+  /** The heading and the region's name (the package names the sheet too). */
+  title?: string;
 }) {
+  const label = title ?? 'Check remarks';
   const heading = (
     <h2 className="mt-4 mb-1 break-after-avoid text-[11pt] font-semibold">
-      Check remarks on Rev {revisionNumber}
+      {title ?? `Check remarks on Rev ${revisionNumber}`}
     </h2>
   );
   if (remarks.status === 'loading') {
     return (
-      <section aria-label="Check remarks">
+      <section aria-label={label}>
         {heading}
         <p className="text-[8.5pt]">Loading the remarks…</p>
       </section>
@@ -68,7 +73,7 @@ export function RemarksRecord({
   }
   if (remarks.status === 'error') {
     return (
-      <section aria-label="Check remarks">
+      <section aria-label={label}>
         {heading}
         <p className="text-[8.5pt]">The remarks could not be included: {remarks.message}</p>
       </section>
@@ -82,7 +87,7 @@ export function RemarksRecord({
       a.id - b.id,
   );
   return (
-    <section aria-label="Check remarks" className="break-before-auto">
+    <section aria-label={label} className="break-before-auto">
       {heading}
       {sorted.length === 0 ? (
         <p className="text-[8.5pt]">No remarks were made on this revision.</p>
