@@ -263,7 +263,7 @@ describe('renderPdf', () => {
   it('refuses with 503 PDF_UNAVAILABLE and points to the browser’s print where Chromium is missing', async () => {
     const { renderPdf } = await import('../../api/modules/packages/packages.pdf');
     const refused = renderPdf(
-      { origin: 'http://127.0.0.1:1', path: '/', cookie: null },
+      { origin: 'http://127.0.0.1:1', publicOrigin: 'http://127.0.0.1:1', path: '/', cookie: null },
       '/nonexistent/chromium',
     );
     await expect(refused).rejects.toMatchObject({

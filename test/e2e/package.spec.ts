@@ -1,5 +1,5 @@
 // Browser: a project's calculation package. The demo viewer opens it from the project page; by
-// default it binds the latest sealed revision of each sheet (DYN-01 Rev 2 in the demo); she adds
+// default it binds the latest sealed revision of each sheet (DYN-01 Rev 2 of the demo among them); she adds
 // a revision in check, downloads the PDF the server prints with Chromium, and the PDF is read
 // back with poppler's pdfinfo and pdftotext: its page count, "page x of y" running across the
 // whole package, the seal code on the cover and on its sheet, and the record of check. The
@@ -10,6 +10,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {
+  baseUrl,
   demoPeople,
   demoProjects,
   launchBrowser,
@@ -57,7 +58,10 @@ describe('calculation package (browser)', () => {
     const sheets = cover.getByRole('table', { name: 'Sheets in this package' });
     const dyn01 = sheets.getByRole('row').filter({ hasText: 'DYN-01' });
     await dyn01.waitFor();
-    expect(await sheets.getByRole('row').count()).toBe(2); // header + DYN-01
+    // Every sheet bound by default is sealed (other browser tests may have sealed more sheets).
+    const codes = await sheets.locator('tbody tr td:nth-child(6)').allInnerTexts();
+    expect(codes.length).toBeGreaterThanOrEqual(1);
+    for (const code of codes) expect(code).toMatch(/^[0-9A-HJKMNP-TV-Z]{5}-[0-9A-HJKMNP-TV-Z]{5}$/);
     expect(await dyn01.getByRole('cell').nth(2).innerText()).toBe('Rev 2');
     const sealCode = await dyn01.getByRole('cell').nth(5).innerText();
     expect(sealCode).toMatch(/^[0-9A-HJKMNP-TV-Z]{5}-[0-9A-HJKMNP-TV-Z]{5}$/);
@@ -98,6 +102,8 @@ describe('calculation package (browser)', () => {
     expect(occurrences(text, 'Page ')).toBeGreaterThanOrEqual(pages);
     // The seal code on the cover's list and on its sheet (the seal box and the history table).
     expect(occurrences(text, sealCode)).toBeGreaterThanOrEqual(3);
+    // The QR code's caption: the verify address the person reached the server at.
+    expect(text).toContain(`Scan to check this seal at ${baseUrl()}/verify/${sealCode}`);
     expect(text).toContain('Record of check — DYN-01 Rev 2');
     expect(text).toMatch(/Record of check — DYN-02 Rev \d+/);
     expect(text).toContain('PRELIMINARY — NOT FOR CONSTRUCTION');

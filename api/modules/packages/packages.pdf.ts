@@ -14,8 +14,13 @@ const NO_CHROMIUM =
 let queue: Promise<unknown> = Promise.resolve();
 
 export interface PdfRequest {
-  /** Where this server answers the person who asked (their own address for it). */
+  /**
+   * Where Chromium loads the page: this server's own socket address, never the Host header, so
+   * a request cannot send the server's browser to another host.
+   */
   origin: string;
+  /** The address the person reached the server at: printed as the seals' verify addresses. */
+  publicOrigin: string;
   /** The client page to print, e.g. /projects/3/package?revisions=4,9. */
   path: string;
   /** The asking person's session cookie: the page shows exactly what they may open. */
@@ -35,7 +40,10 @@ export function renderPdf(request: PdfRequest, chromiumPath = CHROMIUM_PATH): Pr
   return run;
 }
 
-async function render({ origin, path, cookie }: PdfRequest, chromiumPath: string): Promise<Buffer> {
+async function render(
+  { origin, publicOrigin, path, cookie }: PdfRequest,
+  chromiumPath: string,
+): Promise<Buffer> {
   const browser = await chromium.launch({
     executablePath: chromiumPath,
     headless: true,
@@ -53,6 +61,10 @@ async function render({ origin, path, cookie }: PdfRequest, chromiumPath: string
     const context = await browser.newContext();
     if (cookie) await context.addCookies([{ ...cookie, url: origin }]);
     const page = await context.newPage();
+    // The package page prints verify addresses under this origin (see the client's package route).
+    await page.addInitScript((base) => {
+      Object.defineProperty(window, 'mwVerifyBase', { value: base });
+    }, publicOrigin);
     await page.goto(`${origin}${path}`, { waitUntil: 'load', timeout: 60_000 });
     const state = await page.waitForSelector(
       '[data-package-state="ready"], [data-package-state="error"]',

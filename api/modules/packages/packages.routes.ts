@@ -16,6 +16,13 @@ function sessionCookie(req: Request): { name: string; value: string } | null {
   return null;
 }
 
+/** This server's own address for the socket the request came in on (loopback stays loopback). */
+function serverOrigin(req: Request): string {
+  const address = (req.socket.localAddress ?? '127.0.0.1').replace(/^::ffff:/, '');
+  const host = address.includes(':') ? `[${address}]` : address;
+  return `http://${host}:${req.socket.localPort}`;
+}
+
 /**
  * Mounted at /api/projects/:projectId/package: GET / (the package as JSON for the print view) and
  * GET /pdf (the same page printed to PDF by the server's Chromium).
@@ -45,7 +52,8 @@ export function createPackagesRouter(ctx: AppContext): Router {
     }
     const chosen = pkg.parts.map((p) => p.revision.id).join(',');
     const pdf = await renderPdf({
-      origin: `${req.protocol}://${req.get('host') ?? `${ctx.config.host}:${ctx.config.port}`}`,
+      origin: serverOrigin(req),
+      publicOrigin: `${req.protocol}://${req.get('host') ?? `${ctx.config.host}:${ctx.config.port}`}`,
       path: `/projects/${projectId}/package?revisions=${chosen}`,
       cookie: sessionCookie(req),
     });

@@ -16,6 +16,15 @@ function chosenFrom(raw: string | null): number[] | null {
   return ids;
 }
 
+/**
+ * Where verify addresses point: the server's PDF printer loads this page at its own address and
+ * names the address the person used as `mwVerifyBase`; a browser uses its own.
+ */
+function verifyBase(): string {
+  const given = (window as { mwVerifyBase?: unknown }).mwVerifyBase;
+  return typeof given === 'string' ? given : window.location.origin;
+}
+
 /** A project's calculation package, printed as paper like a single revision's print. */
 export function PackageRoute() {
   const me = useMe();
@@ -44,7 +53,7 @@ export function PackageRoute() {
         revisions={revisions && revisions.length > 0 ? revisions : null}
         onChoose={(ids) => setParams({ revisions: ids.join(',') }, { replace: true })}
         backHref={paths.project.href(projectId)}
-        verifyUrl={(path) => `${window.location.origin}${path}`}
+        verifyUrl={(path) => `${verifyBase()}${path}`}
       />
     </main>
   );
