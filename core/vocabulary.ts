@@ -64,6 +64,7 @@ export const ACTIVITY_ACTIONS = [
   'remark.reopened',
   'seal.refused',
   'signing_key.created',
+  'signing_key.retired',
   'template.saved',
   'template.updated',
   'template.deleted',

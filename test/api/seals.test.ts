@@ -376,3 +376,53 @@ describe('POST /api/auth/password', () => {
     expect(activity).toHaveLength(1);
   });
 });
+
+describe('a password set from a reset link', () => {
+  it('retires the signing key it cannot unlock: the earlier seal still verifies and the next seal makes a new key', async () => {
+    const first = await signedOff(await newSheet());
+    const sealed = await principal.post(`/api/revisions/${first}/seal`, {
+      password: team.principal.password,
+    });
+    expect(sealed.status, JSON.stringify(sealed.body)).toBe(200);
+    const oldKey = await t.db('signing_keys').where({ user_id: team.principal.id }).first();
+
+    // An admin sends the principal a reset link; the principal sets a new password from it.
+    const admin = await signedIn(t.app, await createUser(t.db, { isAdmin: true }));
+    await admin.post(`/api/users/${team.principal.id}/password-reset`).expect(202);
+    const mail = await t
+      .db('outbox')
+      .where({ kind: 'user.password_reset_sent' })
+      .andWhere('to_addresses', 'like', `%${team.principal.email}%`)
+      .orderBy('id', 'desc')
+      .first();
+    const token = /\/reset-password#([A-Za-z0-9_-]{43})/.exec(mail?.text ?? '')?.[1];
+    expect(token).toBeDefined();
+    const newPassword = 'a-new-password-after-reset-31';
+    const anyone = await signedIn(t.app, await createUser(t.db));
+    await anyone.post('/api/auth/password-reset', { token, newPassword }).expect(200);
+
+    // The old key is retired, not lost: its public half is kept with the time it stopped.
+    expect(await t.db('signing_keys').where({ user_id: team.principal.id })).toHaveLength(0);
+    const retired = await t.db('retired_signing_keys').where({ user_id: team.principal.id });
+    expect(retired.map((r: { public_key: string }) => r.public_key)).toEqual([oldKey.public_key]);
+    const actions = await t
+      .db('activity')
+      .where({ object_type: 'user', object_id: team.principal.id, action: 'signing_key.retired' });
+    expect(actions).toHaveLength(1);
+
+    // The seal made with the old key still verifies.
+    const code = sealed.body.seal.code as string;
+    expect((await anyone.get(`/api/verify/${code}`)).body.verdict).toBe('genuine');
+
+    // The next seal makes a new key under the new password, and verifies too.
+    const again = await signedIn(t.app, { email: team.principal.email, password: newPassword });
+    const second = await signedOff(await newSheet());
+    const resealed = await again.post(`/api/revisions/${second}/seal`, { password: newPassword });
+    expect(resealed.status, JSON.stringify(resealed.body)).toBe(200);
+    const newKey = await t.db('signing_keys').where({ user_id: team.principal.id }).first();
+    expect(newKey.public_key).not.toBe(oldKey.public_key);
+    const code2 = resealed.body.seal.code as string;
+    expect((await anyone.get(`/api/verify/${code2}`)).body.verdict).toBe('genuine');
+    expect((await anyone.get(`/api/verify/${code}`)).body.verdict).toBe('genuine');
+  });
+});

@@ -157,4 +157,36 @@ export const sealsRepository = {
       .onConflict('user_id')
       .merge(values);
   },
+
+  /**
+   * Retires the person's signing key, if they have one: its public half moves to
+   * retired_signing_keys with the time it stopped signing, and the row in signing_keys goes.
+   * Returns whether there was a key.
+   */
+  async retireSigningKey(db: DbOrTx, userId: number, reason: string): Promise<boolean> {
+    const row = (await db('signing_keys').where({ user_id: userId }).forUpdate().first()) as
+      (SigningKeyRow & { created_at: Date }) | undefined;
+    if (!row) return false;
+    await db('retired_signing_keys').insert({
+      user_id: userId,
+      algorithm: row.algorithm,
+      public_key: row.public_key,
+      created_at: row.created_at,
+      retired_at: db.fn.now(3),
+      reason,
+    });
+    await db('signing_keys').where({ user_id: userId }).delete();
+    return true;
+  },
+
+  /** The public halves of the person's retired keys, with when each stopped signing. */
+  async retiredSigningKeys(
+    db: DbOrTx,
+    userId: number,
+  ): Promise<{ publicKey: string; retiredAt: Date }[]> {
+    const rows = (await db('retired_signing_keys')
+      .where({ user_id: userId })
+      .select('public_key', 'retired_at')) as { public_key: string; retired_at: Date }[];
+    return rows.map((r) => ({ publicKey: r.public_key, retiredAt: new Date(r.retired_at) }));
+  },
 };

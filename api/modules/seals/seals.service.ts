@@ -121,7 +121,7 @@ export const sealsService = {
       throw new AppError(
         409,
         'SIGNING_KEY_LOCKED',
-        'Your signing key is locked under an earlier password (the password was reset without it). Ask an administrator; a new key must be issued before you can seal.',
+        'Your signing key is locked under an earlier password and cannot be unlocked with this one. Ask an administrator to send you a password reset link: setting the password from it retires the old key, and your next seal makes a new one.',
       );
     }
     if (!publicKeyMatches(privateKey, key.publicKey)) {
@@ -309,6 +309,41 @@ export const sealsService = {
   /** A principal's stored signing key (verify checks the seal's key is the registered one). */
   signingKeyOf(db: DbOrTx, userId: number): Promise<StoredSigningKey | undefined> {
     return sealsRepository.findSigningKey(db, userId);
+  },
+
+  /**
+   * Whether `publicKey` was the principal's signing key at `sealedAt`: their current key, or a key
+   * retired after that moment (a password set from a reset link retires the key it cannot unlock).
+   */
+  async wasSigningKey(
+    db: DbOrTx,
+    userId: number,
+    publicKey: string,
+    sealedAt: Date,
+  ): Promise<boolean> {
+    const wanted = publicKey.trim();
+    const current = await sealsRepository.findSigningKey(db, userId);
+    if (current && current.publicKey.trim() === wanted) return true;
+    const retired = await sealsRepository.retiredSigningKeys(db, userId);
+    return retired.some(
+      (k) => k.publicKey.trim() === wanted && k.retiredAt.getTime() >= sealedAt.getTime(),
+    );
+  },
+
+  /**
+   * Retires the person's signing key inside the caller's transaction (a password set without the
+   * old one cannot unlock it); their next seal makes a new key. Records signing_key.retired.
+   */
+  async retireSigningKey(trx: DbOrTx, userId: number, reason: string): Promise<void> {
+    if (!(await sealsRepository.retireSigningKey(trx, userId, reason))) return;
+    await activityService.record(trx, {
+      actorId: userId,
+      projectId: null,
+      action: 'signing_key.retired',
+      objectType: 'user',
+      objectId: userId,
+      details: { reason },
+    });
   },
 
   /** Stores a principal's signing key (made at the first seal, locked again at a new password). */

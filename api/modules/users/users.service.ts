@@ -6,6 +6,7 @@ import { sendAfterCommit, type Mailer } from '../../mail/mailer';
 import type { Logger } from '../../http/logger';
 import { activityService } from '../activity/activity.service';
 import { hashPassword } from '../auth/passwords';
+import { sealsService } from '../seals/seals.service';
 import { passwordResetMail, RESET_LINK_HOURS } from './password-reset-mail';
 import type { CreateUserInput, ResetPasswordInput, UpdateUserInput } from './users.schemas';
 import { usersRepository, type ManagedUser, type User } from './users.repository';
@@ -241,6 +242,8 @@ export const usersService = {
       await usersRepository.setPasswordHash(trx, person.id, newHash);
       await usersRepository.markPasswordResetUsed(trx, reset.id);
       const sessionsEnded = await endAllSessions(trx, person.id);
+      // The signing key is locked under the old password, which a reset does not know.
+      await sealsService.retireSigningKey(trx, person.id, 'password set from a reset link');
       await activityService.record(trx, {
         actorId: person.id,
         projectId: null,

@@ -166,8 +166,14 @@ export const verifyService = {
       if (!verifyDigest(seal.publicKey, seal.digest, seal.signature)) {
         reasons.push("The signature is not the principal's signature of the seal digest.");
       }
-      const key = await sealsService.signingKeyOf(db, seal.principalId);
-      if (!key || key.publicKey.trim() !== seal.publicKey.trim()) {
+      if (
+        !(await sealsService.wasSigningKey(
+          db,
+          seal.principalId,
+          seal.publicKey,
+          new Date(seal.sealedAt),
+        ))
+      ) {
         reasons.push(
           "The key that signed this seal is not the principal's registered signing key.",
         );

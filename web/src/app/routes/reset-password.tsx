@@ -37,8 +37,8 @@ export function ResetPasswordRoute() {
                 <Link to={paths.signIn.href()} className="text-accent-strong underline">
                   Sign in
                 </Link>{' '}
-                with it now. A principal whose signing key was locked under the old password must
-                ask an administrator for a new key before sealing.
+                with it now. A principal's signing key was locked under the old password: it is
+                retired, earlier seals still verify, and the next seal makes a new key.
               </Alert>
             ) : token ? (
               <ResetPasswordForm token={token} onDone={setDoneFor} />

@@ -89,6 +89,10 @@ const DESCRIBERS: Record<string, Describer> = {
     ],
   }),
   'signing_key.created': () => ({ text: 'created a signing key', facts: [] }),
+  'signing_key.retired': () => ({
+    text: 'retired a signing key (earlier seals still verify; the next seal makes a new key)',
+    facts: [],
+  }),
   'sheet.created': (e, d) => ({
     text: `started sheet ${sheetName(e, d)}`,
     facts: [
