@@ -66,7 +66,8 @@ export const comparePrintService = {
     fromId: number,
     to: number | 'draft',
   ) {
-    await ctx.access.sheet(user, sheetId, 'sheet.read');
+    // The draft side is the firm's working copy: a viewer compares issued revisions.
+    await ctx.access.sheet(user, sheetId, to === 'draft' ? 'sheet.read_internal' : 'sheet.read');
     const from = await revisionOfSheet(ctx, sheetId, fromId, 'from');
     const fromSheet = sheetOf(from);
     const fromResults = JSON.parse(from.resultsText) as SheetResults;

@@ -80,7 +80,7 @@ export function RevisionView({
         </Link>
         {rev.number > 1 ? (
           <CompareLink rev={rev} links={links} />
-        ) : (
+        ) : roles.length > 0 && roles.every((r) => r === 'viewer') ? null : (
           <Link
             to={links.compare(rev.sheetId, rev.id, 'draft')}
             className="text-accent-strong hover:underline"
