@@ -150,7 +150,8 @@ export const comparePrintService = {
         id: rev.id,
         number: rev.number,
         status: rev.status,
-        purpose: rev.purpose,
+        // what the checker signed it off for, when they said ("For construction")
+        purpose: rev.checkedPurpose ?? rev.purpose,
         preparedBy: rev.issuedBy,
         preparedAt: rev.issuedAt,
         checkedBy: rev.checkedBy,
@@ -168,7 +169,7 @@ export const comparePrintService = {
       history: history.map((h) => ({
         number: h.number,
         status: h.status,
-        purpose: h.purpose,
+        purpose: h.checkedPurpose ?? h.purpose,
         issuedBy: h.issuedBy,
         issuedAt: h.issuedAt,
         checkedBy: h.checkedBy,
