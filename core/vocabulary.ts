@@ -71,6 +71,19 @@ export const ACTIVITY_ACTIONS = [
 ] as const;
 export type ActivityAction = (typeof ACTIVITY_ACTIONS)[number];
 
+/**
+ * The actions a project's viewer (the client's representative) reads in its activity: what was
+ * issued, checked and sealed. Drafts, remarks, uploads and refusals are the firm's working record.
+ */
+export const CLIENT_FACING_ACTIONS: readonly ActivityAction[] = [
+  'project.created',
+  'sheet.created',
+  'revision.issued',
+  'revision.signed_off',
+  'revision.sealed',
+  'revision.superseded',
+];
+
 /** The analyses a response block runs (core/sheet/blocks/response.ts). */
 export const RESPONSE_ANALYSES = ['spectrum', 'harmonic', 'history', 'walking'] as const;
 

@@ -31,6 +31,14 @@ const only = (roles: readonly ProjectRole[], doing: string): AccessRule => ({
 export const ACCESS_RULES = {
   'project.read': member(),
   'sheet.read': member(),
+  // The unissued draft and the firm's working record (remarks, saves, refusals in the activity);
+  // a viewer reads the issued revisions and the client-facing activity.
+  'sheet.read_internal': {
+    roles: ['author', 'checker', 'principal'],
+    adminWithoutRole: true,
+    doing:
+      'read a sheet’s unissued draft and its working history (a viewer reads its issued revisions)',
+  },
   'sheet.create': only(['author'], 'start a sheet'),
   'sheet.rename': only(['author'], 'rename a sheet'),
   'sheet.edit': only(['author'], 'edit a sheet'),
@@ -82,6 +90,16 @@ export function decide(rule: AccessRule, actor: Actor, held: readonly ProjectRol
   if (actor.isAdmin && rule.adminWithoutRole) return;
   if (!rule.roles.some((r) => held.includes(r))) {
     throw new ForbiddenError(`Only ${whoMay(rule.roles)} of this project can ${rule.doing}.`);
+  }
+}
+
+/** Whether the rule of `action` lets the person through, for a reply that leaves things out. */
+export function permits(action: AccessAction, actor: Actor, held: readonly ProjectRole[]): boolean {
+  try {
+    decide(ACCESS_RULES[action], actor, held);
+    return true;
+  } catch {
+    return false;
   }
 }
 

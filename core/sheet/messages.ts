@@ -50,12 +50,22 @@ export function suggestName(name: string, names: Iterable<string>): string | nul
   return best !== null && bestScore <= limit ? best : null;
 }
 
+/**
+ * A block as the author sees it: its place in the sheet ("block 3"), with its id only when a
+ * person gave it one ("block 2 (deck-data)"); the editor's generated ids (`b` and 12 hex digits)
+ * mean nothing to a reader.
+ */
+export function blockName(at: Pick<SheetLocation, 'blockId' | 'blockIndex'>): string {
+  const place = `block ${at.blockIndex + 1}`;
+  return /^b[0-9a-f]{12}$/.test(at.blockId) ? place : `${place} ("${at.blockId}")`;
+}
+
 /** Explains why `name` is not known at this point. */
 export function unknownNameMessage(name: string, ctx: MessageContext): string {
   if (FORBIDDEN_NAMES.has(name)) return `${name} is not available in a sheet.`;
   const f = ctx.failed.get(name);
   if (f) {
-    return `Unknown name "${name}": line ${f.line} of block "${f.blockId}" would define it but has an error.`;
+    return `Unknown name "${name}": line ${f.line} of ${blockName(f)} would define it but has an error.`;
   }
   const s = suggestName(name, ctx.scope.keys());
   return s

@@ -13,6 +13,7 @@ const WHO: Who[] = ['author', 'checker', 'principal', 'viewer', 'admin', 'outsid
 const TABLE: Record<AccessAction, string> = {
   'project.read': '        ✓      ✓       ✓         ✓      ✓     ✗',
   'sheet.read': '          ✓      ✓       ✓         ✓      ✓     ✗',
+  'sheet.read_internal': ' ✓      ✓       ✓         ✗      ✓     ✗',
   'sheet.create': '        ✓      ✗       ✗         ✗      ✗     ✗',
   'sheet.rename': '        ✓      ✗       ✗         ✗      ✗     ✗',
   'sheet.edit': '          ✓      ✗       ✗         ✗      ✗     ✗',

@@ -415,15 +415,20 @@ describe('remark carry-over on issue of the next revision', () => {
 });
 
 describe('GET /api/sheets/:sheetId/activity', () => {
-  it('shows the sheet’s history, newest first, to members only', async () => {
+  it('shows the sheet’s history, newest first, to members only (a viewer its client-facing part)', async () => {
     const sheetId = await newSheet();
     const revId = await issued(author, sheetId);
     await checker.post(`/api/revisions/${revId}/return`);
-    const res = await viewer.get(`/api/sheets/${sheetId}/activity`);
+    const res = await checker.get(`/api/sheets/${sheetId}/activity`);
     expect(res.status).toBe(200);
     const actions = res.body.activity.map((a: { action: string }) => a.action);
     expect(actions.slice(0, 2)).toEqual(['revision.returned', 'revision.issued']);
     expect(actions).toContain('sheet.created');
+    // The return is the firm's working record (test/api/visibility.test.ts).
+    const seen = await viewer.get(`/api/sheets/${sheetId}/activity`);
+    expect(seen.body.activity.map((a: { action: string }) => a.action).slice(0, 1)).toEqual([
+      'revision.issued',
+    ]);
     expect((await outsider.get(`/api/sheets/${sheetId}/activity`)).status).toBe(403);
   });
 });
@@ -475,6 +480,10 @@ describe('a covering note on return and sign-off, and the purpose set at sign-of
       .first();
     expect(mail.text).toContain('signed off Rev 1 for construction');
     expect(mail.text).toContain('It records 1 failed criterion: clear of the pump speed.');
+    // The print's title block reads what the revision was checked for.
+    const print = await checker.get(`/api/revisions/${revId}/print`);
+    expect(print.status).toBe(200);
+    expect(print.body.revision.purpose).toBe('For construction');
   });
 
   it('signs off without a note or a purpose, leaving the purpose as issued', async () => {

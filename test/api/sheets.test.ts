@@ -112,7 +112,7 @@ describe('POST /api/projects/:projectId/sheets', () => {
 
   it('starts a sheet from a template with its blocks', async () => {
     const sheet = await createSheet({ template: 'four-storey-frame' });
-    const res = await viewer.get(`/api/sheets/${sheet.id}`);
+    const res = await checker.get(`/api/sheets/${sheet.id}`);
     const kinds = res.body.sheet.draft.blocks.map((b: { kind: string }) => b.kind);
     expect(kinds).toEqual(['text', 'calc', 'modes', 'calc', 'criteria']);
     const source = res.body.sheet.draft.blocks.map((b: { source: string }) => b.source).join('\n');
@@ -198,13 +198,21 @@ describe('GET /api/projects/:projectId/sheets', () => {
 });
 
 describe('GET /api/sheets/:sheetId', () => {
-  it('lets a viewer read the draft, with their roles and the draft version as ETag', async () => {
+  it('lets a checker read the draft, with their roles and the draft version as ETag', async () => {
+    const sheet = await createSheet({ template: 'footbridge' });
+    const res = await checker.get(`/api/sheets/${sheet.id}`);
+    expect(res.status).toBe(200);
+    expect(res.headers.etag).toBe('"1"');
+    expect(res.body.sheet.myRoles).toEqual(['checker']);
+    expect(res.body.sheet.draft.blocks.length).toBe(7);
+  });
+
+  it('gives a viewer the sheet without its unissued draft (test/api/visibility.test.ts)', async () => {
     const sheet = await createSheet({ template: 'footbridge' });
     const res = await viewer.get(`/api/sheets/${sheet.id}`);
     expect(res.status).toBe(200);
-    expect(res.headers.etag).toBe('"1"');
-    expect(res.body.sheet.myRoles).toEqual(['viewer']);
-    expect(res.body.sheet.draft.blocks.length).toBe(7);
+    expect(res.body.sheet).toMatchObject({ myRoles: ['viewer'], draftHidden: true });
+    expect(res.body.sheet.draft.blocks).toEqual([]);
   });
 
   it('answers 404 for a sheet that does not exist and 422 for a bad id', async () => {
@@ -305,7 +313,7 @@ describe('PUT /api/sheets/:sheetId/draft', () => {
     expect(res.status).toBe(200);
     expect(res.body.draftVersion).toBe(2);
     expect(res.headers.etag).toBe('"2"');
-    const read = await viewer.get(`/api/sheets/${sheet.id}`);
+    const read = await checker.get(`/api/sheets/${sheet.id}`);
     expect(read.body.sheet.draft).toEqual(draftA);
     expect(read.body.sheet.draftVersion).toBe(2);
     const row = await t.db('sheets').where({ id: sheet.id }).first('draft_version');
@@ -325,7 +333,7 @@ describe('PUT /api/sheets/:sheetId/draft', () => {
     expect(current.draftVersion).toBe(2);
     expect(current.updatedBy).toEqual({ id: team.author.id, name: team.author.name });
     expect(Date.parse(current.updatedAt)).not.toBeNaN();
-    const read = await viewer.get(`/api/sheets/${sheet.id}`);
+    const read = await checker.get(`/api/sheets/${sheet.id}`);
     expect(read.body.sheet.draft).toEqual(draftA);
     // Keeping the second tab's text: save it on top of the current version.
     const resolved = await putDraft(author, sheet.id, `"${current.draftVersion}"`, draftB);

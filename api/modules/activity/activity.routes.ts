@@ -1,4 +1,6 @@
 import { Router } from 'express';
+import { permits } from '../../http/access';
+import { currentUser, requireSignedIn } from '../../http/auth';
 import type { AppContext } from '../../http/context';
 import { parse } from '../../http/validate';
 import { projectParams } from '../projects/projects.schemas';
@@ -8,9 +10,16 @@ import { activityService } from './activity.service';
 export function createActivityRouter({ db, access }: AppContext): Router {
   const router = Router({ mergeParams: true });
 
-  router.get('/', access.requireProject('project.read'), async (req, res) => {
+  router.get('/', requireSignedIn, async (req, res) => {
     const { projectId } = parse(projectParams, req.params, 'params');
-    res.json({ activity: await activityService.listForProject(db, projectId) });
+    const user = currentUser(req);
+    const { myRoles } = await access.project(user, projectId, 'project.read');
+    const activity = await activityService.listForProject(db, projectId);
+    res.json({
+      activity: permits('sheet.read_internal', user, myRoles)
+        ? activity
+        : activityService.clientFacing(activity),
+    });
   });
 
   return router;

@@ -1,7 +1,15 @@
+import { CLIENT_FACING_ACTIONS } from '../../../core/vocabulary';
 import type { Db, DbOrTx } from '../../db/index';
 import { activityRepository, type ActivityEntry, type NewActivity } from './activity.repository';
 
+const clientFacing = new Set<string>(CLIENT_FACING_ACTIONS);
+
 export const activityService = {
+  /** The entries a project's viewer reads (core/vocabulary.ts CLIENT_FACING_ACTIONS). */
+  clientFacing(entries: ActivityEntry[]): ActivityEntry[] {
+    return entries.filter((e) => clientFacing.has(e.action));
+  },
+
   /** Appends one row; called by other services inside their own transaction. */
   record(db: DbOrTx, entry: NewActivity): Promise<number> {
     return activityRepository.insert(db, entry);

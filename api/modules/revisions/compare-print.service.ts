@@ -68,7 +68,8 @@ export const comparePrintService = {
     fromId: number,
     to: number | 'draft',
   ) {
-    await ctx.access.sheet(user, sheetId, 'sheet.read');
+    // The draft side is the firm's working copy: a viewer compares issued revisions.
+    await ctx.access.sheet(user, sheetId, to === 'draft' ? 'sheet.read_internal' : 'sheet.read');
     const from = await revisionOfSheet(ctx, sheetId, fromId, 'from');
     const fromSheet = sheetOf(from);
     const fromResults = JSON.parse(from.resultsText) as SheetResults;
@@ -170,7 +171,8 @@ export const comparePrintService = {
         id: rev.id,
         number: rev.number,
         status: rev.status,
-        purpose: rev.purpose,
+        // what the checker signed it off for, when they said ("For construction")
+        purpose: rev.checkedPurpose ?? rev.purpose,
         preparedBy: rev.issuedBy,
         preparedAt: rev.issuedAt,
         checkedBy: rev.checkedBy,
@@ -188,7 +190,7 @@ export const comparePrintService = {
       history: history.map((h) => ({
         number: h.number,
         status: h.status,
-        purpose: h.purpose,
+        purpose: h.checkedPurpose ?? h.purpose,
         issuedBy: h.issuedBy,
         issuedAt: h.issuedAt,
         checkedBy: h.checkedBy,

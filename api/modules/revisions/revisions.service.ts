@@ -2,7 +2,7 @@ import type { Knex } from 'knex';
 import type { Sheet, SheetBlock } from '../../../core/index';
 import type { ProjectRole } from '../../../core/vocabulary';
 import { dbNow, type DbOrTx } from '../../db/index';
-import type { AccessAction } from '../../http/access';
+import { permits, type AccessAction } from '../../http/access';
 import type { AppContext } from '../../http/context';
 import { AppError, NotFoundError } from '../../http/errors';
 import { sendAfterCommit } from '../../mail/mailer';
@@ -154,10 +154,13 @@ export const revisionsService = {
     return revisionsRepository.listBySheet(ctx.db, sheetId);
   },
 
-  /** The sheet's history: its activity rows, newest first, for any member. */
+  /** The sheet's history, newest first: all of it for the firm, the client-facing part for a viewer. */
   async history(ctx: AppContext, user: User, sheetId: number) {
     const scope = await ctx.access.sheet(user, sheetId, 'sheet.read');
-    return activityService.listForSheet(ctx.db, scope.projectId, sheetId);
+    const entries = await activityService.listForSheet(ctx.db, scope.projectId, sheetId);
+    return permits('sheet.read_internal', user, scope.myRoles)
+      ? entries
+      : activityService.clientFacing(entries);
   },
 
   async get(ctx: AppContext, user: User, revisionId: number): Promise<RevisionDetail> {

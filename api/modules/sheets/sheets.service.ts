@@ -2,6 +2,7 @@ import type { Knex } from 'knex';
 import type { ProjectRole, SheetStatus } from '../../../core/vocabulary';
 import type { DbOrTx } from '../../db/index';
 import { isDuplicateKeyError } from '../../db/index';
+import { permits } from '../../http/access';
 import type { AppContext } from '../../http/context';
 import { AppError, ConflictError, NotFoundError } from '../../http/errors';
 import { activityService } from '../activity/activity.service';
@@ -34,6 +35,8 @@ export const DRAFT_SAVED_COALESCE_MINUTES = 10;
 /** A sheet as the API sends it: the stored record and the caller's roles in its project. */
 export interface SheetDetail extends SheetRecord {
   myRoles: ProjectRole[];
+  /** True for a viewer: the draft is withheld (its blocks empty); the revisions are theirs to read. */
+  draftHidden?: boolean;
 }
 
 function duplicateNumber(number: string): ConflictError {
@@ -62,6 +65,15 @@ export const sheetsService = {
   async get({ db, access: policy }: AppContext, user: User, sheetId: number): Promise<SheetDetail> {
     const access = await policy.sheet(user, sheetId, 'sheet.read');
     const sheet = await mustFind(db, sheetId);
+    // A viewer reads the issued revisions, not the unissued draft.
+    if (!permits('sheet.read_internal', user, access.myRoles)) {
+      return {
+        ...sheet,
+        draft: { blocks: [], settings: sheet.draft.settings },
+        draftHidden: true,
+        myRoles: access.myRoles,
+      };
+    }
     return { ...sheet, myRoles: access.myRoles };
   },
 

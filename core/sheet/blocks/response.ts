@@ -33,6 +33,7 @@ import {
   type SpectrumAnalysisResult,
 } from '../../response/index';
 import { evaluateNode, parseExpression, report, type EvalContext } from '../context';
+import { blockName } from '../messages';
 import { MODAL_RESULTS, type RegisteredModes } from '../modal-registry';
 import type {
   HarmonicResponseData,
@@ -278,7 +279,7 @@ function lookupModes(ctx: EvalContext, r: Reader): RegisteredModes {
     const failed = ctx.failed.get(name);
     if (failed && !ctx.scope.has(name)) {
       fail(
-        `"${name}" is not available: line ${failed.line} of block "${ctx.blockIds[failed.blockIndex] ?? failed.blockId}" would define it but has an error.`,
+        `"${name}" is not available: line ${failed.line} of ${blockName(failed)} would define it but has an error.`,
       );
     }
     const v = ctx.scope.get(name);

@@ -292,10 +292,22 @@ describe('calc blocks: errors at the right line', () => {
     expect(r.errors.map((e) => e.line)).toEqual([1, 2]);
     expect(r.errors[0]!.code).toBe('SHEET_PARSE');
     expect(r.errors[1]!.message).toBe(
-      'Unknown name "a": line 1 of block "c1" would define it but has an error.',
+      'Unknown name "a": line 1 of block 1 ("c1") would define it but has an error.',
     );
     // Evaluation goes on after errors.
     expect(block.lines.map((l) => l.name)).toEqual(['c']);
+  });
+
+  it('names a block the editor made by its place in the sheet, not its generated id', () => {
+    const r = evaluateSheet({
+      blocks: [
+        { id: 'b0a1b2c3d4e5f', kind: 'calc', source: 'a = (1 +' },
+        { id: 'b123456789abc', kind: 'calc', source: 'b = a * 2' },
+      ],
+    });
+    expect(r.errors[1]!.message).toBe(
+      'Unknown name "a": line 1 of block 1 would define it but has an error.',
+    );
   });
 
   it('refuses two statements on one line', () => {

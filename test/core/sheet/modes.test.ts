@@ -238,7 +238,7 @@ describe('modes blocks: refusals', () => {
       'M is in kN; a mass matrix must be in mass units — did you enter weights instead of masses? Divide by g = 9.81 m/s².',
     );
     // Names a failed block would define are reported as such below.
-    expect(r.errors[1]!.message).toMatch(/Unknown name "bad": line 3 of block "m"/);
+    expect(r.errors[1]!.message).toMatch(/Unknown name "bad": line 3 of block 3 \("m"\)/);
   });
 
   it('refuses K and M whose units do not reduce to 1/s²', () => {

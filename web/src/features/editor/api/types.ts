@@ -25,6 +25,8 @@ export type SheetDetail = {
   projectJobNumber: string;
   projectName: string;
   myRoles: string[];
+  /** True for a viewer: the unissued draft is withheld; the issued revisions are below it. */
+  draftHidden?: boolean;
 };
 
 export type Upload = {

@@ -56,6 +56,14 @@ export function SheetEditor({
   if (query.isError) {
     return <QueryError what="the sheet" error={query.error} onRetry={() => void query.refetch()} />;
   }
+  if (query.data.sheet.draftHidden) {
+    return (
+      <WithheldDraft
+        sheet={query.data.sheet}
+        projectHref={projectHref(query.data.sheet.projectId)}
+      />
+    );
+  }
   return (
     <EditorSurface
       key={query.data.sheet.id}
@@ -63,6 +71,32 @@ export function SheetEditor({
       projectHref={projectHref(query.data.sheet.projectId)}
       {...(remarks ? { remarks } : {})}
     />
+  );
+}
+
+/**
+ * A viewer's sheet: its name and where it stands, and the issued revisions (listed below by the
+ * route); the unissued draft is the firm's working copy and the server withholds it.
+ */
+function WithheldDraft({ sheet, projectHref }: { sheet: SheetDetail; projectHref: string }) {
+  useEffect(() => {
+    document.title = `${sheet.number} ${sheet.title} · Modewright`;
+  }, [sheet.number, sheet.title]);
+  return (
+    <header className="flex flex-col gap-1 rounded-sm border border-rule bg-paper-sheet px-5 py-4 shadow-sheet">
+      <Link to={projectHref} className="text-sm text-accent-strong hover:underline">
+        ← {sheet.projectJobNumber} {sheet.projectName}
+      </Link>
+      <h1 className="text-xl font-semibold text-ink">
+        {sheet.number} {sheet.title}
+      </h1>
+      <p className="text-sm text-ink-soft" data-testid="draft-withheld">
+        {sheet.latestRevision
+          ? `Issued revisions are listed below; open one to read it with its results and remarks.`
+          : 'Nothing has been issued yet: the sheet is being prepared.'}{' '}
+        The working draft between issues is the engineers’ and is not shown to viewers.
+      </p>
+    </header>
   );
 }
 

@@ -83,7 +83,7 @@ export function RevisionView({
         <SpreadsheetButton revisionId={rev.id} fileStem={`${rev.sheet.number}_Rev${rev.number}`} />
         {rev.number > 1 ? (
           <CompareLink rev={rev} links={links} />
-        ) : (
+        ) : roles.length > 0 && roles.every((r) => r === 'viewer') ? null : (
           <Link
             to={links.compare(rev.sheetId, rev.id, 'draft')}
             className="text-accent-strong hover:underline"

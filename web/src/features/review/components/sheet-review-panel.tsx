@@ -141,7 +141,11 @@ export function RevisionList({
               </Link>
             </td>
             <td className="py-1 pr-3 whitespace-nowrap">{REVISION_STATUS_LABELS[r.status]}</td>
-            <td className="py-1 pr-3">{r.purpose}</td>
+            <td className="py-1 pr-3">
+              {r.checkedPurpose
+                ? `${r.checkedPurpose} (set at sign-off; issued “${r.purpose}”)`
+                : r.purpose}
+            </td>
             <td className="py-1 pr-3">
               {r.issuedBy.name}, {formatUtc(r.issuedAt)}
             </td>
