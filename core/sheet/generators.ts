@@ -22,6 +22,7 @@ import {
 } from '../models/plane-frame';
 import { storeyChain } from '../models/storey-chain';
 import type { ModelMatrices } from '../models/types';
+import { generatedMatrix, GENERATED_ENTRY_MAX_DOFS } from './large-matrix';
 import { getMatrixEntryLimit, registerSheetFunctions, sheetMath } from './math';
 
 /** Engine matrices (SI) behind the mathjs matrices generators return, for exact hand-over. */
@@ -76,12 +77,22 @@ function toSheetMatrix(A: SymmetricMatrix, unit: string): Matrix {
   return m;
 }
 
+/**
+ * The sheet value of a generated model: K and M as matrices of quantities up to
+ * GENERATED_ENTRY_MAX_DOFS, sparse model-scale matrices (./large-matrix.ts) beyond, built from the
+ * generator's sparse assembly without a dense copy.
+ */
 function modelObject(model: ModelMatrices): Record<string, unknown> {
   const { math } = sheetMath();
-  const K = toSheetMatrix(model.K, 'N/m');
-  const M = toSheetMatrix(model.M, 'kg');
-  MATRIX_DOFS.set(K, model.dofs);
-  MATRIX_DOFS.set(M, model.dofs);
+  const large = model.dofs.length > GENERATED_ENTRY_MAX_DOFS;
+  const K = large
+    ? generatedMatrix('K', model.K, 'N/m', model.dofs)
+    : toSheetMatrix(model.K, 'N/m');
+  const M = large ? generatedMatrix('M', model.M, 'kg', model.dofs) : toSheetMatrix(model.M, 'kg');
+  if (!large) {
+    MATRIX_DOFS.set(K, model.dofs);
+    MATRIX_DOFS.set(M, model.dofs);
+  }
   const out: Record<string, unknown> = { K, M, n: model.dofs.length };
   const first = model.influence[0];
   if (first) out.r = math.matrix(Array.from(first.vector));

@@ -84,7 +84,8 @@ function unitText(u: Unit): string {
 function sideMatrix(ctx: EvalContext, v: unknown, role: 'K' | 'M', expr: string): SideMatrix {
   const { math } = ctx.sm;
   if (v instanceof LargeMatrix) {
-    return { engine: v.engine, unit: v.unit ? math.unit(1, v.unit) : null, n: v.n, dofs: null };
+    const dofs = v.dofs && v.dofs.length === v.n ? v.dofs : null;
+    return { engine: v.engine, unit: v.unit ? math.unit(1, v.unit) : null, n: v.n, dofs };
   }
   if (!math.isMatrix(v)) {
     fail(`${role} must be a matrix; "${expr}" is not one.`);
