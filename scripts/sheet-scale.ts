@@ -28,7 +28,11 @@ function beamCase(): Case {
           source:
             'deck = beam({E: 210 GPa, I: 0.02 m^4, mass: 1.5 t/m, length: 120 m, elements: 10000, ends: "clamped-free"})',
         },
-        { id: 'm', kind: 'modes', source: 'stiffness: deck.K\nmass: deck.M\ncount: 5\nname: deck_v' },
+        {
+          id: 'm',
+          kind: 'modes',
+          source: 'stiffness: deck.K\nmass: deck.M\ncount: 5\nname: deck_v',
+        },
       ],
     },
   };
@@ -60,10 +64,7 @@ function frameCase(): Case {
 
 /** Matrix Market text of a fixed–free spring–mass chain: n masses, springs k (kN/m), masses m (t). */
 export function chainMatrixMarket(n: number, k: number, m: number): { K: string; M: string } {
-  const kLines = [
-    '%%MatrixMarket matrix coordinate real symmetric',
-    `${n} ${n} ${2 * n - 1}`,
-  ];
+  const kLines = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${2 * n - 1}`];
   for (let i = 1; i <= n; i++) {
     kLines.push(`${i} ${i} ${i === n ? k : 2 * k}`);
     if (i < n) kLines.push(`${i + 1} ${i} ${-k}`);
@@ -127,7 +128,9 @@ function runChild(name: string): void {
       peakRssMB: process.resourceUsage().maxRSS / 1024,
       resultsMB: json.length / 2 ** 20,
       f1: modes?.kind === 'modes' ? (modes.modes[0]?.frequency ?? null) : null,
-      errors: results.errors.map((e) => `${e.blockId}:${e.line} ${e.code} ${e.message.slice(0, 160)}`),
+      errors: results.errors.map(
+        (e) => `${e.blockId}:${e.line} ${e.code} ${e.message.slice(0, 160)}`,
+      ),
     }) + '\n',
   );
 }
