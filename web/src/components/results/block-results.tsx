@@ -14,6 +14,7 @@ import { ModesDownloads } from './modes-downloads';
 import { ModesWarnings } from './modes-warnings';
 import { ParticipationNote } from './participation-note';
 import { ResponseResults } from './response-results';
+import { shapeRows } from './shape-rows';
 import { Tex } from './tex';
 
 export type { BlockResult, SheetResults } from '../../../../core/index';
@@ -87,6 +88,7 @@ function Matrix({ result }: { result: MatrixBlockResult }) {
 }
 
 function Modes({ result, fileStem }: { result: ModesBlockResult; fileStem?: string }) {
+  const rows = shapeRows(result);
   return (
     <div className="overflow-x-auto">
       <table className="w-full border-collapse text-sm" aria-label={`Modes ${result.name ?? ''}`}>
@@ -143,13 +145,14 @@ function Modes({ result, fileStem }: { result: ModesBlockResult; fileStem?: stri
         <ModesWarnings result={result} compact />
         {fileStem ? <ModesDownloads result={result} fileStem={fileStem} /> : null}
       </div>
-      {result.shapes && result.shapes.length > 0 ? (
+      {rows ? (
         <div className="mt-2 max-w-xl break-inside-avoid">
           <Suspense fallback={<p className="text-xs text-ink-faint">Drawing the mode shapes…</p>}>
             <ModeShapePlot
-              shapes={result.shapes}
+              shapes={rows.shapes}
               count={result.modes.length}
-              dofLabels={result.dofLabels}
+              dofLabels={rows.labels}
+              rowDofs={rows.dofs}
             />
           </Suspense>
         </div>

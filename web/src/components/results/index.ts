@@ -5,3 +5,5 @@ export { ModesWarnings, splitModesWarnings, powerOfTen } from './modes-warnings'
 export { ParticipationNote } from './participation-note';
 export { ModesDownloads } from './modes-downloads';
 export { ResponseResults } from './response-results';
+export { ModeShapesTable } from './mode-shapes-table';
+export { shapeRows } from './shape-rows';
