@@ -37,6 +37,18 @@ function asList(v: unknown, what: string, fn: string): unknown[] {
   throw new EngineError('SHEET_EVAL', `${fn}: ${what} must be a list such as [18 t, 18 t, 16 t].`);
 }
 
+/** Reference units by name, parsed once: a frame of 5 000 members checks some 30 000 values. */
+const REFERENCE_UNITS = new Map<string, Unit>();
+
+function referenceUnit(unit: string): Unit {
+  let u = REFERENCE_UNITS.get(unit);
+  if (!u) {
+    u = sheetMath().math.unit(1, unit);
+    REFERENCE_UNITS.set(unit, u);
+  }
+  return u;
+}
+
 function quantityIn(v: unknown, unit: string, kind: string, where: string, fn: string): number {
   const { math } = sheetMath();
   if (!math.isUnit(v)) {
@@ -46,13 +58,15 @@ function quantityIn(v: unknown, unit: string, kind: string, where: string, fn: s
     );
   }
   const u = v as Unit;
-  if (!u.equalBase(math.unit(1, unit))) {
+  if (!u.equalBase(referenceUnit(unit))) {
     throw new EngineError(
       'SHEET_EVAL',
       `${fn}: ${where} must be ${kind} (for example ${unit}); got ${u.toString()}.`,
     );
   }
-  return u.toNumber(unit);
+  // Every unit asked for here is a plain multiple of SI (no offset): the SI value over the unit's.
+  if (typeof u.value !== 'number') return u.toNumber(unit);
+  return u.value / referenceUnit(unit).value;
 }
 
 function toSheetMatrix(A: SymmetricMatrix, unit: string): Matrix {
