@@ -7,7 +7,13 @@
 //   npx tsx scripts/sheet-scale.ts [--only beam,frame,upload]
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
-import { evaluateSheet, type Sheet, type SheetUpload } from '../core/index';
+import {
+  evaluateSheet,
+  storeyChain,
+  writeMatrixMarket,
+  type Sheet,
+  type SheetUpload,
+} from '../core/index';
 
 const MEMORY_MB = Number(process.env.MW_EVAL_MEMORY_MB ?? 512);
 
@@ -62,25 +68,17 @@ function frameCase(): Case {
   };
 }
 
-/** Matrix Market text of a fixed–free spring–mass chain: n masses, springs k (kN/m), masses m (t). */
-export function chainMatrixMarket(n: number, k: number, m: number): { K: string; M: string } {
-  const kLines = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${2 * n - 1}`];
-  for (let i = 1; i <= n; i++) {
-    kLines.push(`${i} ${i} ${i === n ? k : 2 * k}`);
-    if (i < n) kLines.push(`${i + 1} ${i} ${-k}`);
-  }
-  const mLines = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${n}`];
-  for (let i = 1; i <= n; i++) mLines.push(`${i} ${i} ${m}`);
-  return { K: kLines.join('\n') + '\n', M: mLines.join('\n') + '\n' };
-}
-
 /** An uploaded 100 000-DOF model (a spring–mass chain as Matrix Market files). */
 function uploadCase(): Case {
-  const { K, M } = chainMatrixMarket(100_000, 5000, 2);
+  const n = 100_000;
+  const chain = storeyChain({
+    masses: new Array<number>(n).fill(2),
+    stiffnesses: new Array<number>(n).fill(5000),
+  });
   return {
     uploads: [
-      { name: 'K.mtx', text: K },
-      { name: 'M.mtx', text: M },
+      { name: 'K.mtx', text: writeMatrixMarket(chain.K) },
+      { name: 'M.mtx', text: writeMatrixMarket(chain.M) },
     ],
     sheet: {
       blocks: [

@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import {
   evaluateSheet,
+  storeyChain,
+  writeMatrixMarket,
   type CalcBlockResult,
   type MatrixBlockResult,
   type ModesBlockResult,
@@ -172,18 +174,18 @@ describe('sheets at model scale: a 5 000-member plane frame', () => {
   });
 });
 
-/** Matrix Market files of a fixed–free chain: n masses m (t), springs k (kN/m). */
+/**
+ * Matrix Market files of a uniform storey chain (fixed base, free top): n masses m (t), springs k
+ * (kN/m), written by the engine's writer as an analysis program would export them.
+ */
 function chainUploads(n: number, k: number, m: number): SheetUpload[] {
-  const kLines = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${2 * n - 1}`];
-  for (let i = 1; i <= n; i++) {
-    kLines.push(`${i} ${i} ${i === n ? k : 2 * k}`);
-    if (i < n) kLines.push(`${i + 1} ${i} ${-k}`);
-  }
-  const mLines = ['%%MatrixMarket matrix coordinate real symmetric', `${n} ${n} ${n}`];
-  for (let i = 1; i <= n; i++) mLines.push(`${i} ${i} ${m}`);
+  const chain = storeyChain({
+    masses: new Array<number>(n).fill(m),
+    stiffnesses: new Array<number>(n).fill(k),
+  });
   return [
-    { name: 'K.mtx', text: kLines.join('\n') + '\n' },
-    { name: 'M.mtx', text: mLines.join('\n') + '\n' },
+    { name: 'K.mtx', text: writeMatrixMarket(chain.K) },
+    { name: 'M.mtx', text: writeMatrixMarket(chain.M) },
   ];
 }
 
