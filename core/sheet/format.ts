@@ -376,7 +376,14 @@ export function formatValue(v: unknown, ctx: FormatContext, depth = 0): Formatte
   }
   if (v instanceof LargeMatrix) {
     return {
-      value: { type: 'matrix', rows: v.n, cols: v.n, values: null, unit: v.unit },
+      value: {
+        type: 'matrix',
+        rows: v.n,
+        cols: v.n,
+        values: null,
+        unit: v.unit,
+        sparse: { nonzeros: v.nonzeros, bytes: v.bytes },
+      },
       display: `${v.n}×${v.n} sparse matrix, ${v.nonzeros} nonzeros${v.unit ? ` in ${compactUnit(v.unit)}` : ''}`,
       latex: `\\left[${v.n}\\times${v.n},\\ \\text{sparse, ${v.nonzeros} nonzeros}\\right]`,
     };

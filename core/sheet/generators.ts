@@ -22,6 +22,7 @@ import {
 } from '../models/plane-frame';
 import { storeyChain } from '../models/storey-chain';
 import type { ModelMatrices } from '../models/types';
+import { generatedMatrix, GENERATED_ENTRY_MAX_DOFS } from './large-matrix';
 import { getMatrixEntryLimit, registerSheetFunctions, sheetMath } from './math';
 
 /** Engine matrices (SI) behind the mathjs matrices generators return, for exact hand-over. */
@@ -36,6 +37,18 @@ function asList(v: unknown, what: string, fn: string): unknown[] {
   throw new EngineError('SHEET_EVAL', `${fn}: ${what} must be a list such as [18 t, 18 t, 16 t].`);
 }
 
+/** Reference units by name, parsed once: a frame of 5 000 members checks some 30 000 values. */
+const REFERENCE_UNITS = new Map<string, Unit>();
+
+function referenceUnit(unit: string): Unit {
+  let u = REFERENCE_UNITS.get(unit);
+  if (!u) {
+    u = sheetMath().math.unit(1, unit);
+    REFERENCE_UNITS.set(unit, u);
+  }
+  return u;
+}
+
 function quantityIn(v: unknown, unit: string, kind: string, where: string, fn: string): number {
   const { math } = sheetMath();
   if (!math.isUnit(v)) {
@@ -45,13 +58,15 @@ function quantityIn(v: unknown, unit: string, kind: string, where: string, fn: s
     );
   }
   const u = v as Unit;
-  if (!u.equalBase(math.unit(1, unit))) {
+  if (!u.equalBase(referenceUnit(unit))) {
     throw new EngineError(
       'SHEET_EVAL',
       `${fn}: ${where} must be ${kind} (for example ${unit}); got ${u.toString()}.`,
     );
   }
-  return u.toNumber(unit);
+  // Every unit asked for here is a plain multiple of SI (no offset): the SI value over the unit's.
+  if (typeof u.value !== 'number') return u.toNumber(unit);
+  return u.value / referenceUnit(unit).value;
 }
 
 function toSheetMatrix(A: SymmetricMatrix, unit: string): Matrix {
@@ -76,12 +91,22 @@ function toSheetMatrix(A: SymmetricMatrix, unit: string): Matrix {
   return m;
 }
 
+/**
+ * The sheet value of a generated model: K and M as matrices of quantities up to
+ * GENERATED_ENTRY_MAX_DOFS, sparse model-scale matrices (./large-matrix.ts) beyond, built from the
+ * generator's sparse assembly without a dense copy.
+ */
 function modelObject(model: ModelMatrices): Record<string, unknown> {
   const { math } = sheetMath();
-  const K = toSheetMatrix(model.K, 'N/m');
-  const M = toSheetMatrix(model.M, 'kg');
-  MATRIX_DOFS.set(K, model.dofs);
-  MATRIX_DOFS.set(M, model.dofs);
+  const large = model.dofs.length > GENERATED_ENTRY_MAX_DOFS;
+  const K = large
+    ? generatedMatrix('K', model.K, 'N/m', model.dofs)
+    : toSheetMatrix(model.K, 'N/m');
+  const M = large ? generatedMatrix('M', model.M, 'kg', model.dofs) : toSheetMatrix(model.M, 'kg');
+  if (!large) {
+    MATRIX_DOFS.set(K, model.dofs);
+    MATRIX_DOFS.set(M, model.dofs);
+  }
   const out: Record<string, unknown> = { K, M, n: model.dofs.length };
   const first = model.influence[0];
   if (first) out.r = math.matrix(Array.from(first.vector));

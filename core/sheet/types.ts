@@ -78,6 +78,11 @@ export type SheetValue =
       /** Rows of entries in `unit`; null when larger than the display limit. */
       values: number[][] | null;
       unit: string | null;
+      /**
+       * A model-scale matrix held sparse (typed arrays, one unit): its nonzeros (both triangles)
+       * and the bytes its representation stores. Absent for matrices of entries.
+       */
+      sparse?: { nonzeros: number; bytes: number };
     }
   | { type: 'object'; fields: Record<string, SheetValue> }
   | { type: 'function'; signature: string };
@@ -183,6 +188,19 @@ export interface MatrixBlockResult extends BlockResultBase {
   nonzeros?: number;
 }
 
+/**
+ * Mode shapes at evenly spaced nodes, kept when the model is too large for `shapes` (at most
+ * 2 000 rows): what the plot and the paged table of a model-scale result show.
+ */
+export interface ShapePreview {
+  /** The 1-based DOF of each row. */
+  dofs: number[];
+  /** Rows of the shapes at those DOFs, columns = modes, normalized as asked. */
+  shapes: number[][];
+  /** The DOF labels of those rows when the model came from a generator. */
+  dofLabels: string[] | null;
+}
+
 /** One warning of a modes block: its code (for the screen to classify) and its words. */
 export interface ModesWarning {
   code: string;
@@ -204,6 +222,8 @@ export interface ModesBlockResult extends BlockResultBase {
    * "N2 ux" of a plane frame, "u4" of a storey chain); null for typed or uploaded matrices.
    */
   dofLabels: string[] | null;
+  /** Set when `shapes` is null for size: the shapes at evenly spaced nodes (absent otherwise). */
+  shapePreview?: ShapePreview;
   sturm: { shift: number; count: number; found: number; missed: boolean } | null;
   /**
    * The mass the effective masses are shares of: rᵀMr for the (first) direction, kg, with its

@@ -33,6 +33,7 @@ import { RESULT_MATRIX_LIMIT } from '../format';
 import { ENGINE_MATRICES, MATRIX_DOFS } from '../generators';
 import { LargeMatrix } from '../large-matrix';
 import { MODAL_RESULTS } from '../modal-registry';
+import { shapePreview } from '../shape-preview';
 import type { ModeRow, ModesBlockResult, ModesWarning, SheetBlock, SheetLocation } from '../types';
 import { checkBlockName, readKeyLines, type KeyLine } from './key-lines';
 
@@ -84,7 +85,8 @@ function unitText(u: Unit): string {
 function sideMatrix(ctx: EvalContext, v: unknown, role: 'K' | 'M', expr: string): SideMatrix {
   const { math } = ctx.sm;
   if (v instanceof LargeMatrix) {
-    return { engine: v.engine, unit: v.unit ? math.unit(1, v.unit) : null, n: v.n, dofs: null };
+    const dofs = v.dofs && v.dofs.length === v.n ? v.dofs : null;
+    return { engine: v.engine, unit: v.unit ? math.unit(1, v.unit) : null, n: v.n, dofs };
   }
   if (!math.isMatrix(v)) {
     fail(`${role} must be a matrix; "${expr}" is not one.`);
@@ -593,6 +595,13 @@ function fillResult(result: ModesBlockResult, setup: SolveSetup, r: ModalResult)
       : null;
   result.dofLabels = result.shapes ? [...(K.dofs ?? M.dofs ?? [])] : null;
   if (result.dofLabels?.length === 0) result.dofLabels = null;
+  if (!result.shapes && r.modes.length > 0) {
+    result.shapePreview = shapePreview(
+      r.modes.map((m) => m.shape),
+      r.n,
+      K.dofs ?? M.dofs,
+    );
+  }
   result.histories = r.modes.map((m) => m.history);
   result.sturm = r.sturm
     ? { shift: r.sturm.shift, count: r.sturm.countBelow, found: r.sturm.found, missed: !r.sturm.ok }
@@ -657,7 +666,7 @@ export function evaluateModesBlock(
       M: setup.M.engine,
     },
     influence: setup.influence,
-    dofLabels: result.dofLabels,
+    dofLabels: result.dofLabels ?? (setup.K.dofs?.length === r.n ? [...setup.K.dofs] : null),
     blockId: block.id,
   });
   ctx.failed.delete(name);

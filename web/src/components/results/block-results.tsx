@@ -15,6 +15,7 @@ import { ParticipationNote } from './participation-note';
 import { ResponseResults } from './response-results';
 import { CalcLineTex } from './calc-line';
 import { useUnits } from './units';
+import { shapeRows } from './shape-rows';
 
 export type { BlockResult, SheetResults } from '../../../../core/index';
 
@@ -89,6 +90,7 @@ function Matrix({ result }: { result: MatrixBlockResult }) {
 function Modes({ result, fileStem }: { result: ModesBlockResult; fileStem?: string }) {
   const units = useUnits();
   const gammas = result.modes.map((o) => units.value('rootMass', o.gamma ?? Number.NaN));
+  const rows = shapeRows(result);
   return (
     <div className="overflow-x-auto">
       <table className="w-full border-collapse text-sm" aria-label={`Modes ${result.name ?? ''}`}>
@@ -145,13 +147,14 @@ function Modes({ result, fileStem }: { result: ModesBlockResult; fileStem?: stri
         <ModesWarnings result={result} compact />
         {fileStem ? <ModesDownloads result={result} fileStem={fileStem} /> : null}
       </div>
-      {result.shapes && result.shapes.length > 0 ? (
+      {rows ? (
         <div className="mt-2 max-w-xl break-inside-avoid">
           <Suspense fallback={<p className="text-xs text-ink-faint">Drawing the mode shapes…</p>}>
             <ModeShapePlot
-              shapes={result.shapes}
+              shapes={rows.shapes}
               count={result.modes.length}
-              dofLabels={result.dofLabels}
+              dofLabels={rows.labels}
+              rowDofs={rows.dofs}
             />
           </Suspense>
         </div>

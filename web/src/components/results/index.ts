@@ -6,3 +6,5 @@ export { ParticipationNote } from './participation-note';
 export { ModesDownloads } from './modes-downloads';
 export { ResponseResults } from './response-results';
 export { UnitSystemProvider, useUnits, unitsFor, type Units } from './units';
+export { ModeShapesTable } from './mode-shapes-table';
+export { shapeRows } from './shape-rows';

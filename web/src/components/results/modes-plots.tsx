@@ -11,11 +11,14 @@ import {
 } from 'recharts';
 import { sig } from '../../lib/format';
 import { rhoAxis } from './rho-axis';
+import { decimate } from './shape-rows';
 
 export const SERIES_COLOURS = ['#1f6b5c', '#8a4b12', '#5b3f8c', '#a3261b', '#4a4f57', '#2d6a2f'];
 const MAX_SHAPES = 6;
 /** Above this many points along the model, each mode gets its own chart. */
 const MANY_POINTS = 40;
+/** Points drawn per shape at most: a model-scale shape is drawn through evenly spaced nodes. */
+export const MAX_SHAPE_POINTS = 800;
 
 /** One DOF label read as node and component: "w3" → (3, w), "N2 ux" → (2, ux), "u4" → (4, u). */
 function parseDof(label: string): { node: number; component: string } | null {
@@ -57,29 +60,35 @@ export function shapeLayout(labels: readonly string[] | null | undefined): Shape
  * Mode shapes. A generated model (its DOF labels known) is drawn per node for one component at a
  * time — a beam's deflection w along the span, left to right, with its restrained ends at zero; a
  * storey chain or frame upwards from node 1 — and rotations are one choice away. Typed or
- * uploaded matrices are drawn against the DOF number, upwards. Only the first six modes are drawn.
+ * uploaded matrices are drawn against the DOF number, upwards. Only the first six modes are drawn,
+ * each through at most MAX_SHAPE_POINTS evenly spaced nodes (or DOFs).
  */
 export function ModeShapePlot({
   shapes,
   count,
   dofLabels,
+  rowDofs,
 }: {
   shapes: number[][];
   count: number;
   /** The model's DOF labels (from the engine), when K came from a generator. */
   dofLabels?: readonly string[] | null;
+  /** The 1-based DOF of each row when the rows are a preview (default: row i is DOF i + 1). */
+  rowDofs?: readonly number[] | null;
 }) {
   const layout = shapeLayout(dofLabels);
   const [picked, setPicked] = useState<string | null>(null);
   const component = layout ? (picked ?? layout.components[0]!) : null;
   const modes = Math.min(count, MAX_SHAPES, shapes[0]?.length ?? 0);
-  const rows: { at: number; row: number | null }[] =
+  const rows: { at: number; row: number | null }[] = decimate(
     layout && component
       ? layout.nodes.map((node) => ({
           at: node,
           row: layout.row.get(`${component} ${node}`) ?? null,
         }))
-      : shapes.map((_, i) => ({ at: i + 1, row: i }));
+      : shapes.map((_, i) => ({ at: rowDofs?.[i] ?? i + 1, row: i })),
+    MAX_SHAPE_POINTS,
+  );
   // A storey chain's floors are levels 1…n above a fixed base: draw the base at level 0.
   const storeys = component === 'u' && rows[0]?.at === 1;
   if (storeys) rows.unshift({ at: 0, row: null });

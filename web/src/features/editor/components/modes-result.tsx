@@ -1,6 +1,12 @@
 import { lazy, Suspense } from 'react';
 import type { ModesBlockResult } from '../api/results';
-import { ModesDownloads, ModesWarnings, ParticipationNote } from '../../../components/results';
+import {
+  ModeShapesTable,
+  ModesDownloads,
+  ModesWarnings,
+  ParticipationNote,
+  shapeRows,
+} from '../../../components/results';
 import { Table, Td, Th } from '../../../components/ui/table';
 import { participationFactor, percent, sig } from '../../../lib/format';
 import { Spinner } from '../../../components/ui/spinner';
@@ -45,6 +51,7 @@ export function ModesResult({
   const iterated = result.histories.some((h) => h.length > 0);
   const units = useUnits();
   const gammas = result.modes.map((o) => units.value('rootMass', o.gamma ?? Number.NaN));
+  const rows = shapeRows(result);
   return (
     <div className="flex flex-col gap-3 text-sm">
       <p className="text-ink-soft">
@@ -138,20 +145,22 @@ export function ModesResult({
       ) : null}
       <ModesWarnings result={result} />
       <ModesDownloads result={result} fileStem={fileStem} />
-      {(result.shapes && result.shapes.length > 0) || iterated ? (
+      {rows || iterated ? (
         <Suspense fallback={<Spinner label="Drawing the plots…" />}>
           <div className="flex flex-col gap-4 md:flex-row">
-            {result.shapes && result.shapes.length > 0 ? (
+            {rows ? (
               <ModeShapePlot
-                shapes={result.shapes}
+                shapes={rows.shapes}
                 count={result.modes.length}
-                dofLabels={result.dofLabels}
+                dofLabels={rows.labels}
+                rowDofs={rows.dofs}
               />
             ) : null}
             {iterated ? <ConvergencePlot histories={result.histories} /> : null}
           </div>
         </Suspense>
       ) : null}
+      <ModeShapesTable result={result} digits={digits} />
     </div>
   );
 }
