@@ -152,8 +152,13 @@ export function sheetMath(): SheetMath {
   }
   // range(a, b[, step]) and a:b[:step] (a range node calls range): the count is known from the
   // bounds, so a range past the limit is refused before it is made.
+  // The parser's a:b includes b (mathjs's range transform); the function range(a, b) does not.
+  // Both are guarded, and the transform rides on the guarded function so that import keeps it.
   const range = math.range as unknown as (...args: unknown[]) => unknown;
-  guarded.range = (...args: unknown[]) => {
+  const rangeTransform = (
+    math.expression as unknown as { transform: { range: (...args: unknown[]) => unknown } }
+  ).transform.range;
+  const checkRange = (args: unknown[]): void => {
     const entries = rangeCount(args);
     if (entries > matrixEntryLimit) {
       throw new EngineError(
@@ -161,8 +166,16 @@ export function sheetMath(): SheetMath {
         `This range would make ${entries.toExponential(2)} entries; a sheet value may hold at most ${matrixEntryLimit}.`,
       );
     }
+  };
+  const guardedRange = (...args: unknown[]) => {
+    checkRange(args);
     return range(...args);
   };
+  guardedRange.transform = (...args: unknown[]) => {
+    checkRange(args);
+    return rangeTransform(...args);
+  };
+  guarded.range = guardedRange;
   math.import(guarded, { override: true });
   const refusals: Record<string, () => never> = {};
   for (const name of FORBIDDEN_FUNCTIONS) {

@@ -26,10 +26,29 @@ describe('ranges past the entry limit of a sheet value', () => {
     },
   );
 
+  it('keeps the end of a range in formulas, a:b and range(a, b) alike', () => {
+    // mathjs documentation (expression syntax): in the parser a range includes its end, for the
+    // a:b operator and the range function alike (one-based, as matrix indices are).
+    const { errors, block } = calc('a = 0:3\nb = [1:3]\nc = 0:2:6\nd = range(0, 3)\ne = 3:-1:1');
+    expect(errors).toEqual([]);
+    expect(block.lines.map((l) => l.display)).toEqual([
+      '[0, 1, 2, 3]',
+      '[[1, 2, 3]]',
+      '[0, 2, 4, 6]',
+      '[0, 1, 2, 3]',
+      '[3, 2, 1]',
+    ]);
+  });
+
+  it('refuses a formula range past the limit before making it', () => {
+    const { errors } = calc('x = 1:1e9');
+    expect(errors[0]!.message).toMatch(/a sheet value may hold at most 4000000/);
+  });
+
   it('still makes small ranges, string forms included', () => {
     const { errors, block } = calc('a = range(0, 1, 0.25)\nb = range("1:2:7")');
     expect(errors).toEqual([]);
-    expect(block.lines.map((l) => l.display)).toEqual(['[0, 0.25, 0.5, 0.75]', '[1, 3, 5]']);
+    expect(block.lines.map((l) => l.display)).toEqual(['[0, 0.25, 0.5, 0.75, 1]', '[1, 3, 5, 7]']);
   });
 });
 
