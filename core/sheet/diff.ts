@@ -50,6 +50,12 @@ export interface ResultChange {
   new: string | null;
   /** (new − old) / |old| in SI units, when both are numbers of the same dimension. */
   relativeChange: number | null;
+  /**
+   * The two values (SI in `si`, `siUnit`), so a client can show them in another unit system;
+   * absent when neither side has a value (a criterion's pass or fail).
+   */
+  oldValue?: SheetValue | null;
+  newValue?: SheetValue | null;
 }
 
 export interface CriterionFlip {
@@ -225,7 +231,7 @@ function quantityEntry(key: string, si: number, siUnit: string, shown: string): 
 function responseEntries(b: ResponseBlockResult): Entry[] {
   const out: Entry[] = [];
   for (const d of b.spectrum?.directions ?? []) {
-    out.push(quantityEntry(`base shear ${d.direction}`, d.scaledBaseShear, 'kg m s^-2', 'N'));
+    out.push(quantityEntry(`base shear ${d.direction}`, d.scaledBaseShear, '(kg m)/s^2', 'N'));
     d.displacement.forEach((u, i) =>
       out.push(quantityEntry(`displacement ${d.direction} ${i + 1}`, u, 'm', 'm')),
     );
@@ -240,10 +246,10 @@ function responseEntries(b: ResponseBlockResult): Entry[] {
     out.push(quantityEntry(`peak displacement ${d.label}`, d.peak, 'm', 'm'));
   }
   if (b.history?.baseShear) {
-    out.push(quantityEntry('peak base shear', b.history.baseShear.peak, 'kg m s^-2', 'N'));
+    out.push(quantityEntry('peak base shear', b.history.baseShear.peak, '(kg m)/s^2', 'N'));
   }
   if (b.walking) {
-    out.push(quantityEntry('walking acceleration', b.walking.acceleration, 'm s^-2', 'm/s^2'));
+    out.push(quantityEntry('walking acceleration', b.walking.acceleration, 'm/s^2', 'm/s^2'));
   }
   return out;
 }
@@ -320,6 +326,14 @@ function relative(a: SheetValue | null, b: SheetValue | null): number | null {
   return (y - x) / Math.abs(x);
 }
 
+/** The values of a result change that has any (a criterion's pass/fail has none). */
+function sideValues(
+  oldValue: SheetValue | null,
+  newValue: SheetValue | null,
+): Pick<ResultChange, 'oldValue' | 'newValue'> {
+  return oldValue === null && newValue === null ? {} : { oldValue, newValue };
+}
+
 /** Result changes between two evaluations: values that changed and criteria that flipped. */
 export function diffResults(
   oldResults: SheetResults,
@@ -345,6 +359,7 @@ export function diffResults(
         old: o?.display ?? null,
         new: e.display,
         relativeChange: relative(o?.value ?? null, e.value),
+        ...sideValues(o?.value ?? null, e.value),
       });
     }
     for (const o of oldList) {
@@ -356,6 +371,7 @@ export function diffResults(
           old: o.display,
           new: null,
           relativeChange: null,
+          ...sideValues(o.value, null),
         });
     }
     if (ob && ob.kind === 'criteria' && nb.kind === 'criteria') {
@@ -384,6 +400,7 @@ export function diffResults(
         old: e.display,
         new: null,
         relativeChange: null,
+        ...sideValues(e.value, null),
       });
   }
   return { results, flipped };

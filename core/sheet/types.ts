@@ -125,7 +125,20 @@ export interface CriterionResult {
    * display form (`0.6546 <= 0.5 or 0.6546 >= 1.5`); absent on results stored before 0.4.1.
    */
   values?: string | null;
+  /**
+   * The text shown after the label as operator words and sides, each side with its value (SI in
+   * `si`, `siUnit`), so a client can show the sides in another unit system: `[lhs, ' vs ', rhs]`
+   * for a comparison, `values` cut into its parts for a compound criterion, null when nothing is
+   * shown; absent on results stored before 0.5.1's display units.
+   */
+  shown?: (string | CriterionSide)[] | null;
   latex: string;
+}
+
+/** One side of a comparison in a criterion: its display text and its value. */
+export interface CriterionSide {
+  display: string;
+  value: SheetValue;
 }
 
 /** The worst asymmetry of a square matrix: 1-based row and column, values, relative size. */

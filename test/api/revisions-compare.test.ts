@@ -63,6 +63,7 @@ describe('GET /api/sheets/:sheetId/compare', () => {
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     expect(res.body.from).toMatchObject({ id: rev1, number: 1 });
     expect(res.body.to).toMatchObject({ kind: 'revision', id: rev2, number: 2 });
+    expect(res.body.units).toEqual({ from: 'si', to: 'si' });
     const calc = res.body.blocks.find((b: { blockId: string }) => b.blockId === 'calc');
     expect(calc.status).toBe('changed');
     const added = calc.hunks.flatMap((h: { added: string[] }) => h.added);
@@ -93,6 +94,29 @@ describe('GET /api/sheets/:sheetId/compare', () => {
     expect(res.body.to.kind).toBe('draft');
     const calc = res.body.blocks.find((b: { blockId: string }) => b.blockId === 'calc');
     expect(calc.hunks.flatMap((h: { added: string[] }) => h.added)).toEqual(['m = 25 t']);
+  });
+
+  it('names the unit system of each side and gives the SI values of a change', async () => {
+    const version = (await author.get(`/api/sheets/${sheetId}`)).body.sheet.draftVersion;
+    const saved = await author.agent
+      .put(`/api/sheets/${sheetId}/draft`)
+      .set('X-CSRF-Token', author.csrfToken)
+      .set('If-Match', `"${version}"`)
+      .send({
+        blocks: [
+          { id: 'calc', kind: 'calc', source: calc2.replace('24 t', '32 t') },
+          { id: 'crit', kind: 'criteria', source: crit },
+        ],
+        settings: { significantFigures: 4, units: 'us' },
+      });
+    expect(saved.status, JSON.stringify(saved.body)).toBe(200);
+    const res = await author.get(`/api/sheets/${sheetId}/compare?from=${rev2}&to=draft`);
+    expect(res.status).toBe(200);
+    expect(res.body.units).toEqual({ from: 'si', to: 'us' });
+    const m = res.body.results.find((r: { key: string }) => r.key === 'm');
+    // 24 t → 32 t, in SI base units (kg) whatever the sides' display units.
+    expect(m.oldValue).toMatchObject({ type: 'quantity', si: 24000, siUnit: 'kg' });
+    expect(m.newValue).toMatchObject({ type: 'quantity', si: 32000, siUnit: 'kg' });
   });
 
   it('refuses a revision of another sheet and a missing parameter, naming the field', async () => {

@@ -70,7 +70,7 @@ describe('compare two revisions (browser)', () => {
     const { page } = session();
     const url = await newSheet(page, `E2E-C${RUN}`, 'Criterion comment');
     const sheetId = sheetIdOf(url);
-    await addBlock(page, 'calc', 'k = 24 kN/mm\nm_1 = 18 t\nf = sqrt(k/m_1)/(2 pi)');
+    const data = await addBlock(page, 'calc', 'k = 24 kN/mm\nm_1 = 18 t\nf = sqrt(k/m_1)/(2 pi)');
     const checks = await addBlock(page, 'criteria', 'f >= 5 Hz  # above 5 Hz');
     await waitForResults(page);
     await waitSaved(page);
@@ -102,5 +102,28 @@ describe('compare two revisions (browser)', () => {
     expect(await changed.locator('ins').innerText()).toBe(', clear of walking');
     expect(await source.getByText(/^[−+] /).count()).toBe(0);
     await saveScreenshot(page, 'compare-criterion-comment');
+
+    // The draft now in US customary units with a heavier mass: the changes are shown in the
+    // newer side's units, with a note that Rev 1 shows SI.
+    await page.goto(url);
+    await page.getByLabel('Units shown').selectOption('us');
+    await setSource(page, data, 'calc', 'k = 24 kN/mm\nm_1 = 24 t\nf = sqrt(k/m_1)/(2 pi)');
+    await waitForResults(page);
+    await waitSaved(page);
+    await page.goto(`/sheets/${sheetId}/compare?from=${revisionId}&to=draft`);
+    const note = page.getByTestId('compare-units-note');
+    expect(await note.innerText()).toMatch(
+      /^Results are shown in US customary \(kip, in, lbf·s²\/in\), the units of the draft \(version \d+\); Rev 1 shows SI \(kN, mm, t\)\.$/,
+    );
+    const mass = page
+      .getByRole('region', { name: 'Result changes' })
+      .getByRole('row')
+      .filter({ has: page.getByRole('cell', { name: 'm_1', exact: true }) });
+    // 18 t and 24 t in lbf·s²/in = 0.45359237 kg × 9.80665 m/s² / 0.0254 m = 175.126835 kg
+    // (NIST SP 811 B.8): 102.783 and 137.044, to six significant figures; +33.3 %.
+    expect((await mass.innerText()).replace(/\s+/g, ' ')).toMatch(
+      /m_1 102\.783 lbf·s²\/in 137\.044 lbf·s²\/in \+33\.3 %$/,
+    );
+    await saveScreenshot(page, 'compare-units-us');
   });
 });

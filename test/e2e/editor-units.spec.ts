@@ -1,7 +1,8 @@
 // The sheet's display units, in the browser: the author starts a sheet from the built-in
 // four-storey frame (the demo frame sheet's content), switches "Units shown" to US customary and
-// reads the participating mass rᵀMr in lbf·s²/in and a computed storey force in kip, while the
-// frequencies stay in Hz with the same values. Factors: NIST SP 811 (2008), Appendix B.8.
+// reads the participating mass rᵀMr in lbf·s²/in, a computed storey force in kip and a criterion's
+// two sides in kip, while the frequencies stay in Hz with the same values. Factors: NIST SP 811
+// (2008), Appendix B.8.
 import { describe, expect, it } from 'vitest';
 import { saveScreenshot } from '../support/browser';
 import {
@@ -34,7 +35,14 @@ describe('sheet editor: units shown (browser)', () => {
     await page.getByRole('heading', { name: /Frame in US units/ }).waitFor();
     // A computed force: the first storey's stiffness times a drift of 10 mm.
     await addBlock(page, 'calc', 'V_1 = k_1 * 10 mm');
+    // A criterion on it, read below in both systems.
+    await addBlock(page, 'criteria', 'V_1 <= 5000 kN  # storey shear capacity');
     await waitForResults(page);
+    const criterion = page
+      .getByRole('listitem')
+      .filter({ hasText: 'storey shear capacity' })
+      .getByTestId('criterion-values');
+    expect(await criterion.innerText()).toBe('3.1 MN vs 5000 kN');
 
     const table = page.getByRole('table', { name: 'Modes of sway' });
     const fSi = await column(table, 'f (Hz)');
@@ -52,6 +60,11 @@ describe('sheet editor: units shown (browser)', () => {
     const force = page.getByText(/result [\d.]+ kip$/);
     const kip = /result ([\d.]+) kip/.exec(await force.innerText());
     expect(relative(Number(kip![1]), 3.1e6 / (1000 * LBF))).toBeLessThan(5e-4);
+    // The criterion's sides both in kip: 3.1 MN = 696.9 kip, 5000 kN = 1124 kip (NIST SP 811 B.8).
+    await expect.poll(() => criterion.innerText()).toMatch(/kip vs .* kip$/);
+    const sides = /^([\d.]+) kip vs ([\d.]+) kip$/.exec(await criterion.innerText());
+    expect(relative(Number(sides![1]), 3.1e6 / (1000 * LBF))).toBeLessThan(5e-4);
+    expect(relative(Number(sides![2]), 5e6 / (1000 * LBF))).toBeLessThan(5e-4);
     // Frequencies and periods are Hz and s in both systems, with the same values.
     expect(await column(table, 'f (Hz)')).toEqual(fSi);
     expect(await table.locator('thead th').allInnerTexts()).toContain('Γ (√(lbf·s²/in))');
@@ -64,6 +77,7 @@ describe('sheet editor: units shown (browser)', () => {
     expect(await page.getByLabel('Units shown').inputValue()).toBe('us');
     await page.getByLabel('Units shown').selectOption('si');
     await expect.poll(() => note.innerText()).toContain('rᵀMr = 793 t');
+    expect(await criterion.innerText()).toBe('3.1 MN vs 5000 kN');
     await waitSaved(page);
   });
 });

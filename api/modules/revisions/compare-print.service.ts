@@ -125,6 +125,8 @@ export const comparePrintService = {
         issuedAt: from.issuedAt,
       },
       to: toSide,
+      // The display unit system of each side (the sheet setting "Units shown").
+      units: { from: unitSystemOf(fromSheet.settings), to: unitSystemOf(toSheet.settings) },
       blocks: diff.blocks,
       results: diff.results,
       flipped: diff.flipped,

@@ -16,16 +16,24 @@ import { formatValue } from '../format';
 import { refuseLargeMatrices } from '../large-matrix';
 import { expressionTex } from '../latex';
 import { evaluateStatements } from './statements';
-import type { CriteriaBlockResult, CriterionResult, SheetBlock } from '../types';
+import type { CriteriaBlockResult, CriterionResult, CriterionSide, SheetBlock } from '../types';
 
-function sideDisplay(ctx: EvalContext, node: MathNode): string | null {
+/** One side of a comparison as shown (display text and value), or null when it cannot be. */
+function side(ctx: EvalContext, node: MathNode): CriterionSide | null {
   try {
     const v = evaluateNode(ctx, node, new Map(ctx.scope));
-    return formatValue(v, formatContext(ctx, null, writtenUnits(ctx, node))).display;
+    const f = formatValue(v, formatContext(ctx, null, writtenUnits(ctx, node)));
+    return { display: f.display, value: f.value };
   } catch {
     return null;
   }
 }
+
+type Shown = (string | CriterionSide)[];
+
+/** The text of shown parts, as the engine writes it (SI and the units written). */
+const shownText = (parts: Shown): string =>
+  parts.map((p) => (typeof p === 'string' ? p : p.display)).join('');
 
 /** The comparisons a criterion may make (mathjs operator names) and how they are written. */
 const SYMBOLS = new Map([
@@ -39,10 +47,10 @@ const SYMBOLS = new Map([
 const LOGICAL = new Set(['and', 'or', 'xor']);
 
 /**
- * A compound criterion with every comparison's sides as values, or null when a part cannot be
- * shown (then the label and pass/fail stand alone).
+ * A compound criterion with every comparison's sides as values, in parts, or null when a part
+ * cannot be shown (then the label and pass/fail stand alone).
  */
-function compoundDisplay(ctx: EvalContext, node: MathNode): string | null {
+function compoundParts(ctx: EvalContext, node: MathNode): Shown | null {
   const op = node as unknown as {
     type: string;
     fn?: string;
@@ -50,26 +58,27 @@ function compoundDisplay(ctx: EvalContext, node: MathNode): string | null {
     content?: MathNode;
   };
   if (op.type === 'ParenthesisNode' && op.content) {
-    const inner = compoundDisplay(ctx, op.content);
-    return inner === null ? null : `(${inner})`;
+    const inner = compoundParts(ctx, op.content);
+    return inner === null ? null : ['(', ...inner, ')'];
   }
   if (op.type === 'OperatorNode' && op.fn && op.args) {
     if (SYMBOLS.has(op.fn) && op.args.length === 2) {
-      const a = sideDisplay(ctx, op.args[0]!);
-      const b = sideDisplay(ctx, op.args[1]!);
-      return a === null || b === null ? null : `${a} ${SYMBOLS.get(op.fn)} ${b}`;
+      const a = side(ctx, op.args[0]!);
+      const b = side(ctx, op.args[1]!);
+      return a === null || b === null ? null : [a, ` ${SYMBOLS.get(op.fn)} `, b];
     }
     if (LOGICAL.has(op.fn) && op.args.length === 2) {
-      const a = compoundDisplay(ctx, op.args[0]!);
-      const b = compoundDisplay(ctx, op.args[1]!);
-      return a === null || b === null ? null : `${a} ${op.fn} ${b}`;
+      const a = compoundParts(ctx, op.args[0]!);
+      const b = compoundParts(ctx, op.args[1]!);
+      return a === null || b === null ? null : [...a, ` ${op.fn} `, ...b];
     }
     if (op.fn === 'not' && op.args.length === 1) {
-      const a = compoundDisplay(ctx, op.args[0]!);
-      return a === null ? null : `not ${a}`;
+      const a = compoundParts(ctx, op.args[0]!);
+      return a === null ? null : ['not ', ...a];
     }
   }
-  return sideDisplay(ctx, node);
+  const s = side(ctx, node);
+  return s === null ? null : [s];
 }
 
 export function evaluateCriterion(
@@ -100,16 +109,17 @@ export function evaluateCriterion(
     );
   }
   const op = node as unknown as { type: string; fn?: string; args?: MathNode[] };
-  let lhs: string | null = null;
-  let rhs: string | null = null;
+  let lhs: CriterionSide | null = null;
+  let rhs: CriterionSide | null = null;
   if (op.type === 'OperatorNode' && op.fn && SYMBOLS.has(op.fn) && op.args?.length === 2) {
-    lhs = sideDisplay(ctx, op.args[0]!);
-    rhs = sideDisplay(ctx, op.args[1]!);
+    lhs = side(ctx, op.args[0]!);
+    rhs = side(ctx, op.args[1]!);
   }
   const compound =
     op.type === 'ParenthesisNode' ||
     (op.type === 'OperatorNode' && !!op.fn && (LOGICAL.has(op.fn) || op.fn === 'not'));
-  const values = compound ? compoundDisplay(ctx, node) : null;
+  const parts = compound ? compoundParts(ctx, node) : null;
+  const shown = lhs !== null && rhs !== null ? [lhs, ' vs ', rhs] : parts;
   const latex = expressionTex(node, {
     scope: ctx.scope,
     format: formatContext(ctx, null, writtenUnits(ctx, node)),
@@ -123,9 +133,10 @@ export function evaluateCriterion(
     source: code,
     label: comment && comment !== '' ? comment : code.trim(),
     pass: value,
-    lhs,
-    rhs,
-    values,
+    lhs: lhs?.display ?? null,
+    rhs: rhs?.display ?? null,
+    values: parts === null ? null : shownText(parts),
+    shown,
     latex,
   };
 }

@@ -14,6 +14,7 @@ import { ModesWarnings } from './modes-warnings';
 import { ParticipationNote } from './participation-note';
 import { ResponseResults } from './response-results';
 import { CalcLineTex } from './calc-line';
+import { CriterionValues } from './criterion-values';
 import { useUnits } from './units';
 import { shapeRows } from './shape-rows';
 
@@ -44,7 +45,8 @@ function CalcLines({ result, digits }: { result: CalcBlockResult; digits: number
   );
 }
 
-function Criteria({ result }: { result: CriteriaBlockResult }) {
+function Criteria({ result, digits }: { result: CriteriaBlockResult; digits: number }) {
+  const units = useUnits();
   return (
     <ul className="flex flex-col gap-1" aria-label="Criteria">
       {result.criteria.map((c) => (
@@ -57,13 +59,7 @@ function Criteria({ result }: { result: CriteriaBlockResult }) {
             {c.pass ? 'Passed' : 'Failed'}
           </span>
           <span>{c.label}</span>
-          {c.lhs !== null && c.rhs !== null ? (
-            <span className="font-mono text-xs text-ink-soft">
-              {c.lhs} vs {c.rhs}
-            </span>
-          ) : c.values ? (
-            <span className="font-mono text-xs text-ink-soft">{c.values}</span>
-          ) : null}
+          <CriterionValues criterion={c} system={units.system} digits={digits} />
         </li>
       ))}
     </ul>
@@ -183,7 +179,7 @@ export function BlockResultView({
     case 'calc':
       return <CalcLines result={result} digits={digits} />;
     case 'criteria':
-      return <Criteria result={result} />;
+      return <Criteria result={result} digits={digits} />;
     case 'matrix':
       return <Matrix result={result} />;
     case 'modes':

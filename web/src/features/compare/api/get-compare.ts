@@ -1,5 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { BlockChange, CriterionFlip, ResultChange } from '../../../../../core/index';
+import type { UnitSystem } from '../../../../../core/display-units';
 import { api } from '../../../lib/api-client';
 
 export type { BlockChange, CriterionFlip, ResultChange } from '../../../../../core/index';
@@ -26,6 +27,8 @@ export type RemarkInContext = {
 export type Comparison = {
   from: CompareSide;
   to: CompareSide;
+  /** The display unit system of each side; absent from servers before display units. */
+  units?: { from: UnitSystem; to: UnitSystem };
   blocks: BlockChange[];
   results: ResultChange[];
   flipped: CriterionFlip[];

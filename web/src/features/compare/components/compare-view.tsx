@@ -13,7 +13,9 @@ import {
   type ResultChange,
   type RevisionChoice,
 } from '../api/get-compare';
+import { UNIT_SYSTEM_LABELS, type UnitSystem } from '../../../../../core/display-units';
 import { hunkRows, remarkThreads } from '../lib/hunk-rows';
+import { changeValues } from '../lib/shown-values';
 
 const count = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
 
@@ -189,6 +191,7 @@ function Result({
       ) : null}
       <section aria-label="Result changes" className="flex flex-col gap-1">
         <h2 className="text-base font-semibold">Results that changed</h2>
+        <UnitsNote comparison={comparison} />
         {comparison.results.length === 0 ? (
           <p className="text-sm text-ink-soft">No result changed.</p>
         ) : (
@@ -315,20 +318,23 @@ const ROUNDING = 1e-9;
 
 const tiny = (value: string | null) => value !== null && Math.abs(Number(value)) < ROUNDING;
 
-/** A result as shown in the comparison: its number to six significant figures, then its unit. */
-function shownValue(value: string | null): string {
-  if (value === null) return '—';
-  const match = /^(-?\d+(?:\.\d+)?(?:e[+-]?\d+)?)(\s.*)?$/i.exec(value.trim());
-  if (!match) return value;
-  const n = Number(match[1]);
-  if (!Number.isFinite(n)) return value;
-  const abs = Math.abs(n);
-  const digits =
-    abs !== 0 && (abs >= 1e6 || abs < 1e-4) ? n.toExponential(5) : String(Number(n.toPrecision(6)));
-  return `${digits.replace('-', '−')}${match[2] ?? ''}`;
+/** The unit system results are shown in: the newer side's. */
+const shownSystem = (comparison: Comparison): UnitSystem => comparison.units?.to ?? 'si';
+
+/** Says which units the results are in when the two sides were shown in different ones. */
+function UnitsNote({ comparison }: { comparison: Comparison }) {
+  const units = comparison.units;
+  if (!units || units.from === units.to) return null;
+  return (
+    <p className="text-xs text-ink-soft" data-testid="compare-units-note">
+      Results are shown in {UNIT_SYSTEM_LABELS[units.to]}, the units of {sideLabel(comparison.to)};{' '}
+      {sideLabel(comparison.from)} shows {UNIT_SYSTEM_LABELS[units.from]}.
+    </p>
+  );
 }
 
 function ResultTable({ rows, comparison }: { rows: ResultChange[]; comparison: Comparison }) {
+  const system = shownSystem(comparison);
   return (
     <table className="w-full border-collapse text-sm">
       <thead>
@@ -341,25 +347,28 @@ function ResultTable({ rows, comparison }: { rows: ResultChange[]; comparison: C
         </tr>
       </thead>
       <tbody>
-        {rows.map((r) => (
-          <tr key={`${r.blockId}-${r.key}`} className="border-b border-rule/60">
-            <td className="py-1 pr-3 text-xs whitespace-nowrap">
-              {blockName(comparison, r.blockId)}
-            </td>
-            <td className="py-1 pr-3">{r.key}</td>
-            <td className="py-1 pr-3 font-mono text-xs" title={r.old ?? undefined}>
-              {shownValue(r.old)}
-            </td>
-            <td className="py-1 pr-3 font-mono text-xs" title={r.new ?? undefined}>
-              {shownValue(r.new)}
-            </td>
-            <td className="py-1 pr-3 font-mono text-xs">
-              {r.relativeChange === null
-                ? '—'
-                : `${r.relativeChange >= 0 ? '+' : '−'}${Math.abs(r.relativeChange * 100).toPrecision(3)} %`}
-            </td>
-          </tr>
-        ))}
+        {rows.map((r) => {
+          const shown = changeValues(r, system);
+          return (
+            <tr key={`${r.blockId}-${r.key}`} className="border-b border-rule/60">
+              <td className="py-1 pr-3 text-xs whitespace-nowrap">
+                {blockName(comparison, r.blockId)}
+              </td>
+              <td className="py-1 pr-3">{r.key}</td>
+              <td className="py-1 pr-3 font-mono text-xs" title={r.old ?? undefined}>
+                {shown.old}
+              </td>
+              <td className="py-1 pr-3 font-mono text-xs" title={r.new ?? undefined}>
+                {shown.new}
+              </td>
+              <td className="py-1 pr-3 font-mono text-xs">
+                {r.relativeChange === null
+                  ? '—'
+                  : `${r.relativeChange >= 0 ? '+' : '−'}${Math.abs(r.relativeChange * 100).toPrecision(3)} %`}
+              </td>
+            </tr>
+          );
+        })}
       </tbody>
     </table>
   );

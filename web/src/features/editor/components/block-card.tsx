@@ -69,7 +69,7 @@ function Results({
     case 'response':
       return <ResponseResults result={result} />;
     case 'criteria':
-      return <CriteriaResult result={result} />;
+      return <CriteriaResult result={result} digits={digits} />;
     default:
       return null;
   }

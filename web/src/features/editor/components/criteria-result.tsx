@@ -1,7 +1,19 @@
+import { CriterionValues } from '../../../components/results/criterion-values';
+import { useUnits } from '../../../components/results/units';
 import type { CriteriaBlockResult } from '../api/results';
 
-/** Each acceptance criterion with its label, both sides, and whether it passed. */
-export function CriteriaResult({ result }: { result: CriteriaBlockResult }) {
+/**
+ * Each acceptance criterion with its label, both sides in the sheet's unit system, and whether it
+ * passed.
+ */
+export function CriteriaResult({
+  result,
+  digits,
+}: {
+  result: CriteriaBlockResult;
+  digits: number;
+}) {
+  const units = useUnits();
   if (result.criteria.length === 0) return null;
   return (
     <ul className="flex flex-col gap-1" aria-label="Criteria">
@@ -17,13 +29,12 @@ export function CriteriaResult({ result }: { result: CriteriaBlockResult }) {
             {c.pass ? 'Passed' : 'Failed'}
           </span>
           <span className="min-w-0 flex-1">{c.label}</span>
-          {c.lhs !== null && c.rhs !== null ? (
-            <span className="num shrink-0 text-xs text-ink-soft">
-              {c.lhs} vs {c.rhs}
-            </span>
-          ) : c.values ? (
-            <span className="num shrink-0 text-xs text-ink-soft">{c.values}</span>
-          ) : null}
+          <CriterionValues
+            criterion={c}
+            system={units.system}
+            digits={digits}
+            className="num shrink-0 text-xs text-ink-soft"
+          />
         </li>
       ))}
     </ul>
