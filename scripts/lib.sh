@@ -19,14 +19,29 @@ ensure_npm_packages() {
   fi
 }
 
-# Debian packages: one apt run for everything missing (MariaDB always; Chromium when asked).
+# Debian packages: one apt run for everything missing (MariaDB and Redis always, Redis unless
+# MW_REDIS_URL points at an existing one; Chromium when asked).
 ensure_debian_packages() {
   local want=()
   command -v mariadbd >/dev/null 2>&1 || [ -x /usr/sbin/mariadbd ] || want+=(mariadb-server)
+  if [ -z "${MW_REDIS_URL:-}" ] && ! command -v redis-server >/dev/null 2>&1; then
+    want+=(redis-server)
+  fi
   if [ "${1:-}" = with-chromium ] && [ ! -x /usr/bin/chromium ]; then want+=(chromium); fi
   if [ ${#want[@]} -gt 0 ]; then
     log "installing Debian packages: ${want[*]}"
     as_root apt-get update -qq
     as_root env DEBIAN_FRONTEND=noninteractive apt-get install -y -qq "${want[@]}" >/dev/null
   fi
+}
+
+# Debian's redis-server alone (scripts/redis.sh). Its install may start a system instance on 6379;
+# the project never uses that one.
+ensure_redis_server() {
+  command -v redis-server >/dev/null 2>&1 && command -v redis-cli >/dev/null 2>&1 && return 0
+  log "installing Debian packages: redis-server"
+  as_root apt-get update -qq
+  as_root env DEBIAN_FRONTEND=noninteractive apt-get install -y -qq redis-server >/dev/null
+  hash -r
+  command -v redis-server >/dev/null 2>&1 || { echo "[modewright] redis-server did not install" >&2; return 1; }
 }

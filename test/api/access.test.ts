@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { ACCESS_RULES, decide, type AccessAction } from '../../api/http/access';
-import type { ProjectRole } from '../../shared/vocabulary';
+import type { ProjectRole } from '../../core/vocabulary';
 
 // The one access policy as a table of role × action (DESIGN §7: authors write, checkers check,
 // the principal seals, viewers read; an admin reads every project and manages people, but does

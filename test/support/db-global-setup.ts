@@ -1,7 +1,7 @@
-// Vitest global setup of the api and e2e projects: makes sure the project's MariaDB answers
-// (starting it with scripts/db.sh when it does not), migrates the test database with the knex CLI
-// (inside Vitest, knex.migrate cannot import .ts migrations: STACK.md) and points the test
-// workers at modewright_test.
+// Vitest global setup of the api and e2e projects: makes sure the project's MariaDB and Redis
+// answer (starting them with scripts/db.sh and scripts/redis.sh when they do not), migrates the
+// test database with the knex CLI (inside Vitest, knex.migrate cannot import .ts migrations:
+// STACK.md) and points the test workers at modewright_test.
 import { execFileSync } from 'node:child_process';
 import net from 'node:net';
 import path from 'node:path';
@@ -52,6 +52,13 @@ export default async function setup(project: TestProject): Promise<void> {
   const port = Number(process.env.MW_DB_PORT ?? 3407);
   if (!(await answers(host, port))) {
     run('bash', ['scripts/db.sh', 'start'], 'starting MariaDB (scripts/db.sh start)');
+  }
+  // The evaluation queue's Redis (scripts/redis.sh), unless MW_REDIS_URL names an existing one.
+  if (!process.env.MW_REDIS_URL) {
+    const redisPort = Number(process.env.MW_REDIS_PORT ?? 6407);
+    if (!(await answers('127.0.0.1', redisPort))) {
+      run('bash', ['scripts/redis.sh', 'start'], 'starting Redis (scripts/redis.sh start)');
+    }
   }
   run(
     process.execPath,
