@@ -64,6 +64,8 @@ export interface EvaluationPoolOptions {
 export interface RunOptions {
   signal?: AbortSignal;
   onProgress?: (progress: SheetProgress) => void;
+  /** This evaluation's time limit, ms; default the pool's. */
+  timeLimitMs?: number;
 }
 
 export interface EvaluationPool {
@@ -181,13 +183,16 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
       throw queueFull(timeLimitMs);
     }
     const controller = new AbortController();
+    const limitMs = runOptions.timeLimitMs ?? timeLimitMs;
     let reason: 'time' | 'cancel' | null = null;
     let timer: NodeJS.Timeout | undefined;
+    // The block being evaluated: a limit that stops the worker names it.
+    let current: SheetProgress | null = null;
     const startClock = () => {
       timer ??= setTimeout(() => {
         reason = 'time';
         controller.abort();
-      }, timeLimitMs);
+      }, limitMs);
     };
     const onCancel = () => {
       reason ??= 'cancel';
@@ -201,8 +206,10 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
     const done = new Promise<void>((resolve) => (markDone = resolve));
     port1.on('message', (msg: { type: string; progress: SheetProgress }) => {
       if (msg.type === 'start') startClock();
-      else if (msg.type === 'progress') runOptions.onProgress?.(msg.progress);
-      else if (msg.type === 'done') markDone();
+      else if (msg.type === 'progress') {
+        current = msg.progress;
+        runOptions.onProgress?.(msg.progress);
+      } else if (msg.type === 'done') markDone();
     });
     const task: EvaluateTask = {
       sheet,
@@ -223,7 +230,7 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
       await Promise.race([done, new Promise((r) => (grace = setTimeout(r, 2000)))]);
       clearTimeout(grace);
     } catch (err) {
-      throw translate(err, reason, timeLimitMs, memoryLimitMb);
+      throw inBlock(translate(err, reason, limitMs, memoryLimitMb), current);
     } finally {
       running--;
       if (timer) clearTimeout(timer);
@@ -301,6 +308,20 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
     }),
     close: () => piscina.destroy(),
   };
+}
+
+/**
+ * A limit that stopped the worker (time, memory) names the block it was in: the message starts
+ * with the block's number and kind, and the details carry its id and index.
+ */
+export function inBlock(err: unknown, at: SheetProgress | null): unknown {
+  if (!at || !(err instanceof AppError) || err.code !== 'SHEET_LIMIT') return err;
+  return new AppError(
+    err.status,
+    err.code,
+    `Block ${at.blockIndex + 1} (${at.kind}): ${err.message}`,
+    { details: { ...err.details, blockId: at.blockId, blockIndex: at.blockIndex } },
+  );
 }
 
 function queueFull(timeLimitMs: number): RateLimitedError {

@@ -6,6 +6,7 @@ import { execFileSync } from 'node:child_process';
 import net from 'node:net';
 import path from 'node:path';
 import type { TestProject } from 'vitest/node';
+import { startWorkerProcess } from './worker-process';
 
 declare module 'vitest' {
   export interface ProvidedContext {
@@ -47,7 +48,7 @@ function run(command: string, args: string[], what: string): void {
   }
 }
 
-export default async function setup(project: TestProject): Promise<void> {
+export default async function setup(project: TestProject): Promise<() => Promise<void>> {
   const host = process.env.MW_DB_HOST ?? '127.0.0.1';
   const port = Number(process.env.MW_DB_PORT ?? 3407);
   if (!(await answers(host, port))) {
@@ -75,4 +76,7 @@ export default async function setup(project: TestProject): Promise<void> {
   // Workers start after global setup and inherit this environment.
   process.env.MW_DB_NAME = TEST_DB;
   project.provide('testDbName', TEST_DB);
+  // One evaluation worker process takes the test queue's jobs, as `npm run worker` does.
+  const worker = await startWorkerProcess({ MW_DB_NAME: TEST_DB });
+  return () => worker.stop();
 }

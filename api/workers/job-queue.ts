@@ -1,0 +1,229 @@
+/**
+ * The API's side of the evaluation queue: every evaluation of a sheet and every read of an
+ * uploaded matrix file becomes a BullMQ job on Redis, taken by a worker process (./job-worker.ts)
+ * on this or any other machine. The API process only adds jobs, relays their progress and waits
+ * for their replies: it never evaluates user math nor parses an uploaded file.
+ *
+ * - Replies and progress arrive through BullMQ's queue events; a poll every two seconds settles
+ *   any job whose event was missed (a reconnect, a job removed by another API process).
+ * - A caller's AbortSignal cancels: a waiting job is removed, a running one is stopped by its
+ *   worker (a message on the cancel channel).
+ * - When the whole queue holds `maxQueue` jobs, a new one is refused with 429 and a retry hint;
+ *   with no worker connected to Redis, with 503 naming the command that starts one.
+ */
+import { randomUUID } from 'node:crypto';
+import { Queue, QueueEvents } from 'bullmq';
+import {
+  EngineError,
+  type EngineErrorCode,
+  type MatrixAnalysis,
+  type SheetProgress,
+  type SheetResults,
+} from '../../core/index';
+import type { QueueConfig } from '../config/index';
+import { AppError, RateLimitedError } from '../http/errors';
+import type { Logger } from '../http/logger';
+import {
+  cancelChannel,
+  QUEUE_NAME,
+  redisConnection,
+  type DescribeJobReply,
+  type EvaluateJobReply,
+  type JobData,
+  type JobRefusal,
+  type JobReply,
+} from './queue';
+import type { MatrixFileDescriber, SheetRunner } from './sheet-runner';
+
+export interface JobQueue {
+  runner: SheetRunner;
+  describeMatrixFile: MatrixFileDescriber;
+  /** The BullMQ queue itself (tests and the bench read its counts). */
+  queue: Queue<JobData, JobReply>;
+  close(): Promise<void>;
+}
+
+interface Pending {
+  settle(reply: JobReply): void;
+  fail(err: unknown): void;
+  onProgress?: (progress: SheetProgress) => void;
+}
+
+/** A refusal stored by a worker, thrown again here with its own class. */
+export function refusalError(error: JobRefusal): Error {
+  if (error.engine) {
+    return new EngineError(error.code as EngineErrorCode, error.message, error.details);
+  }
+  return new AppError(error.status, error.code, error.message, {
+    ...(error.field ? { field: error.field } : {}),
+    ...(error.details ? { details: error.details } : {}),
+  });
+}
+
+function cancelled(): AppError {
+  return new AppError(499, 'CANCELLED', 'The evaluation was cancelled.');
+}
+
+/** A job that failed outside the engine: its worker was lost (twice), or crashed. */
+function failedError(reason: string): AppError {
+  if (/stalled/i.test(reason)) {
+    return new AppError(
+      503,
+      'WORKER_LOST',
+      'The worker evaluating this sheet stopped, and so did the one that took it over; evaluate again, or ask the administrator to look at the workers.',
+    );
+  }
+  return new AppError(500, 'WORKER_FAILED', `The evaluation worker failed: ${reason}`);
+}
+
+export function createJobQueue(config: QueueConfig, log: Logger): JobQueue {
+  const connection = redisConnection(config.redisUrl, false);
+  connection.on('error', () => {});
+  const queue = new Queue<JobData, JobReply>(QUEUE_NAME, { connection, prefix: config.prefix });
+  queue.on('error', (e) => log.error('evaluation queue', e));
+  const events = new QueueEvents(QUEUE_NAME, {
+    connection: redisConnection(config.redisUrl, true),
+    prefix: config.prefix,
+  });
+  events.on('error', (e) => log.error('evaluation queue events', e));
+  const ready = Promise.all([queue.waitUntilReady(), events.waitUntilReady()]);
+  const pending = new Map<string, Pending>();
+
+  async function settleFromStore(jobId: string): Promise<void> {
+    const waiter = pending.get(jobId);
+    if (!waiter) return;
+    const job = await queue.getJob(jobId);
+    if (!job) {
+      waiter.fail(cancelled());
+      return;
+    }
+    const state = await job.getState();
+    if (state === 'completed') waiter.settle(job.returnvalue);
+    else if (state === 'failed') waiter.fail(failedError(job.failedReason));
+  }
+
+  events.on('progress', ({ jobId, data }) => {
+    pending.get(jobId)?.onProgress?.(data as unknown as SheetProgress);
+  });
+  events.on('completed', ({ jobId }) => {
+    settleFromStore(jobId).catch((e: unknown) => pending.get(jobId)?.fail(e));
+  });
+  events.on('failed', ({ jobId, failedReason }) => {
+    pending.get(jobId)?.fail(failedError(failedReason));
+  });
+  events.on('removed', ({ jobId }) => {
+    pending.get(jobId)?.fail(cancelled());
+  });
+  const poll = setInterval(() => {
+    for (const jobId of pending.keys()) {
+      settleFromStore(jobId).catch(() => {});
+    }
+  }, 2000);
+  poll.unref();
+
+  let workersSeenAt = 0;
+  async function refuseWhenUnserved(): Promise<void> {
+    const counts = await queue.getJobCounts('waiting', 'prioritized', 'active', 'delayed');
+    const total = Object.values(counts).reduce((a, b) => a + b, 0);
+    if (total >= config.maxQueue) {
+      const retry = Math.max(1, Math.ceil(config.timeLimitMs / 1000 / 4));
+      throw new RateLimitedError(
+        `The server is evaluating as many sheets as it can queue; try again in ${retry} s.`,
+        retry,
+      );
+    }
+    if (Date.now() - workersSeenAt < 5000) return;
+    if ((await queue.getWorkersCount()) === 0) {
+      throw new AppError(
+        503,
+        'NO_WORKERS',
+        'No evaluation worker is running, so the sheet cannot be evaluated now. Start one with npm run worker (npm start starts them), then try again.',
+      );
+    }
+    workersSeenAt = Date.now();
+  }
+
+  /** Cancels a job: removed while it waits, stopped by its worker once it runs. */
+  async function cancel(jobId: string): Promise<void> {
+    const job = await queue.getJob(jobId);
+    if (!job) return;
+    const state = await job.getState();
+    if (state === 'waiting' || state === 'prioritized' || state === 'delayed') {
+      await job.remove().catch(() => {});
+    }
+    await connection.publish(cancelChannel(config.prefix), jobId);
+  }
+
+  async function submit(
+    data: JobData,
+    options: {
+      signal?: AbortSignal | undefined;
+      onProgress?: ((progress: SheetProgress) => void) | undefined;
+      priority?: number | undefined;
+    } = {},
+  ): Promise<JobReply> {
+    if (options.signal?.aborted) throw cancelled();
+    await ready;
+    await refuseWhenUnserved();
+    const jobId = randomUUID();
+    const reply = new Promise<JobReply>((resolve, reject) => {
+      pending.set(jobId, {
+        settle: resolve,
+        fail: reject,
+        ...(options.onProgress ? { onProgress: options.onProgress } : {}),
+      });
+    });
+    const onAbort = () => {
+      pending.get(jobId)?.fail(cancelled());
+      cancel(jobId).catch((e: unknown) => log.error(`cancelling job ${jobId}`, e));
+    };
+    try {
+      await queue.add(data.kind, data, {
+        jobId,
+        ...(options.priority ? { priority: options.priority } : {}),
+        removeOnComplete: { age: 3600, count: 500 },
+        removeOnFail: { age: 24 * 3600, count: 500 },
+      });
+      options.signal?.addEventListener('abort', onAbort, { once: true });
+      return await reply;
+    } finally {
+      pending.delete(jobId);
+      options.signal?.removeEventListener('abort', onAbort);
+    }
+  }
+
+  const runner: SheetRunner = async (sheet, uploads, options) => {
+    const reply = (await submit(
+      { kind: 'evaluate', sheet, uploads, timeLimitMs: config.timeLimitMs },
+      options,
+    )) as EvaluateJobReply;
+    if (!reply.ok) throw refusalError(reply.error);
+    return reply.results as SheetResults;
+  };
+
+  const describeMatrixFile: MatrixFileDescriber = async (text, format, name) => {
+    const reply = (await submit({
+      kind: 'describe',
+      text,
+      format,
+      name,
+      timeLimitMs: config.timeLimitMs,
+    })) as DescribeJobReply;
+    if (!reply.ok) throw refusalError(reply.error);
+    return reply.shape as MatrixAnalysis;
+  };
+
+  return {
+    runner,
+    describeMatrixFile,
+    queue,
+    close: async () => {
+      clearInterval(poll);
+      for (const waiter of pending.values()) {
+        waiter.fail(new AppError(503, 'SHUTTING_DOWN', 'The server is stopping.'));
+      }
+      await events.close();
+      await queue.close();
+    },
+  };
+}

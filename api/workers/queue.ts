@@ -1,0 +1,69 @@
+/**
+ * What the API processes and the worker processes agree on about the evaluation queue: its name,
+ * the data of a job, the reply a worker stores, and the Redis connections. Every evaluation of a
+ * sheet and every read of an uploaded matrix file is one BullMQ job on Redis; any worker process
+ * on any machine that reaches the same Redis may take it.
+ */
+import { Redis, type RedisOptions } from 'ioredis';
+import type { MatrixAnalysis, Sheet, SheetResults, SheetUpload } from '../../core/index';
+
+export const QUEUE_NAME = 'evaluations';
+
+/** The Redis channel a worker listens on for "stop this job" (the job id is the message). */
+export function cancelChannel(prefix: string): string {
+  return `${prefix}:cancel`;
+}
+
+/** Who asked for a job: the fairness rules count jobs by person and by project. */
+export interface JobOwner {
+  userId: number;
+  projectId: number;
+  sheetId: number;
+}
+
+export interface EvaluateJobData {
+  kind: 'evaluate';
+  sheet: Sheet;
+  uploads: SheetUpload[];
+  owner?: JobOwner;
+  /** The time limit of this job, ms. */
+  timeLimitMs: number;
+}
+
+export interface DescribeJobData {
+  kind: 'describe';
+  text: string;
+  format: 'matrix-market' | 'csv';
+  name: string;
+  timeLimitMs: number;
+}
+
+export type JobData = EvaluateJobData | DescribeJobData;
+
+/** A refusal, as data: an AppError of the worker (status) or an engine error (engine: true). */
+export interface JobRefusal {
+  status: number;
+  code: string;
+  message: string;
+  engine?: boolean;
+  field?: string;
+  details?: Record<string, unknown>;
+}
+
+export type EvaluateJobReply =
+  { ok: true; results: SheetResults } | { ok: false; error: JobRefusal };
+export type DescribeJobReply =
+  { ok: true; shape: MatrixAnalysis } | { ok: false; error: JobRefusal };
+export type JobReply = EvaluateJobReply | DescribeJobReply;
+
+/**
+ * A connection for BullMQ. Workers and event listeners block on Redis, so they retry forever
+ * (`blocking`); the API's queue fails a command fast when Redis is away, so a request gets an
+ * answer.
+ */
+export function redisConnection(url: string, blocking: boolean): Redis {
+  const options: RedisOptions = blocking
+    ? { maxRetriesPerRequest: null }
+    : { maxRetriesPerRequest: 1, connectTimeout: 5000 };
+  return new Redis(url, options);
+}
