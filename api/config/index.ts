@@ -56,6 +56,15 @@ export interface QueueConfig {
   maxQueue: number;
   /** How often workers look for jobs whose worker died, ms (MW_QUEUE_STALLED_MS, default 30 000). */
   stalledIntervalMs: number;
+  /** Evaluations one person may have waiting or running (MW_QUEUE_PER_PERSON, default 3). */
+  perPerson: number;
+  /** Evaluations one project may have waiting or running (MW_QUEUE_PER_PROJECT, default 8). */
+  perProject: number;
+  /**
+   * Uploads (bytes, all of a sheet's) from which an evaluation is a large solve and waits behind
+   * the small ones (MW_QUEUE_LARGE_BYTES, default 1 MiB).
+   */
+  largeBytes: number;
 }
 
 /** The queue's settings from the environment (the worker processes read only these). */
@@ -69,6 +78,9 @@ export function loadQueueConfig(dbName = process.env.MW_DB_NAME ?? 'modewright')
     rssLimitMb: intFromEnv('MW_WORKER_RSS_MB', 2 * memoryLimitMb + 512),
     maxQueue: intFromEnv('MW_EVAL_MAX_QUEUE', 64),
     stalledIntervalMs: intFromEnv('MW_QUEUE_STALLED_MS', 30_000),
+    perPerson: intFromEnv('MW_QUEUE_PER_PERSON', 3),
+    perProject: intFromEnv('MW_QUEUE_PER_PROJECT', 8),
+    largeBytes: intFromEnv('MW_QUEUE_LARGE_BYTES', 1024 * 1024),
   };
 }
 

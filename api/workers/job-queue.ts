@@ -10,6 +10,10 @@
  *   worker (a message on the cancel channel).
  * - When the whole queue holds `maxQueue` jobs, a new one is refused with 429 and a retry hint;
  *   with no worker connected to Redis, with 503 naming the command that starts one.
+ * - Fair shares, for evaluations with an owner (the editor's): a newer evaluation of the same
+ *   sheet by the same person replaces their older one still waiting (409 SUPERSEDED to the
+ *   older request); each person and each project may have only so many waiting or running
+ *   (429 naming the cap); small evaluations go ahead of large solves (BullMQ priorities).
  */
 import { randomUUID } from 'node:crypto';
 import { Queue, QueueEvents } from 'bullmq';
@@ -25,8 +29,11 @@ import { AppError, RateLimitedError } from '../http/errors';
 import type { Logger } from '../http/logger';
 import {
   cancelChannel,
+  jobName,
+  ownerOfName,
   QUEUE_NAME,
   redisConnection,
+  type JobOwner,
   type DescribeJobReply,
   type EvaluateJobReply,
   type JobData,
@@ -42,6 +49,10 @@ export interface JobQueue {
   queue: Queue<JobData, JobReply>;
   close(): Promise<void>;
 }
+
+/** BullMQ priorities (lower goes first): small evaluations ahead of large solves. */
+export const SMALL_PRIORITY = 1;
+export const LARGE_PRIORITY = 10;
 
 interface Pending {
   settle(reply: JobReply): void;
@@ -62,6 +73,14 @@ export function refusalError(error: JobRefusal): Error {
 
 function cancelled(): AppError {
   return new AppError(499, 'CANCELLED', 'The evaluation was cancelled.');
+}
+
+function superseded(): AppError {
+  return new AppError(
+    409,
+    'SUPERSEDED',
+    'A newer evaluation of this sheet by you replaced this one while it was waiting.',
+  );
 }
 
 /** A job that failed outside the engine: its worker was lost (twice), or crashed. */
@@ -88,13 +107,67 @@ export function createJobQueue(config: QueueConfig, log: Logger): JobQueue {
   events.on('error', (e) => log.error('evaluation queue events', e));
   const ready = Promise.all([queue.waitUntilReady(), events.waitUntilReady()]);
   const pending = new Map<string, Pending>();
+  const supersededKey = (jobId: string) => `${config.prefix}:superseded:${jobId}`;
+
+  /** Why a job is no longer in the queue: replaced by a newer one, or cancelled. */
+  async function goneError(jobId: string): Promise<AppError> {
+    return (await connection.exists(supersededKey(jobId))) ? superseded() : cancelled();
+  }
+
+  /** The ids and owners of the jobs waiting (`waiting`) and running (`active`). */
+  async function liveJobs(): Promise<{ id: string; owner: JobOwner | null; waiting: boolean }[]> {
+    const [waitingIds, activeIds] = await Promise.all([
+      queue.getRanges(['waiting', 'prioritized', 'delayed'], 0, -1),
+      queue.getRanges(['active'], 0, -1),
+    ]);
+    const ids = [...waitingIds, ...activeIds];
+    if (ids.length === 0) return [];
+    const names = await Promise.all(ids.map((id) => connection.hget(queue.toKey(id), 'name')));
+    return ids.map((id, i) => ({
+      id,
+      owner: ownerOfName(names[i] ?? ''),
+      waiting: i < waitingIds.length,
+    }));
+  }
+
+  /**
+   * The fair shares for a new evaluation by `owner`: their older waiting evaluation of the same
+   * sheet is removed, then the caps per person and per project are checked.
+   */
+  async function applyShares(owner: JobOwner): Promise<void> {
+    const live = await liveJobs();
+    const older = live.filter(
+      (j) => j.waiting && j.owner?.userId === owner.userId && j.owner.sheetId === owner.sheetId,
+    );
+    const replaced = new Set<string>();
+    for (const job of older) {
+      await connection.set(supersededKey(job.id), '1', 'EX', 600);
+      const removed = await queue.remove(job.id).catch(() => 0);
+      if (removed) replaced.add(job.id);
+    }
+    const counted = live.filter((j) => j.owner && !replaced.has(j.id));
+    const mine = counted.filter((j) => j.owner!.userId === owner.userId).length;
+    if (mine >= config.perPerson) {
+      throw new RateLimitedError(
+        `You already have ${mine} evaluations waiting or running (the limit per person is ${config.perPerson}); try again when one has finished.`,
+        5,
+      );
+    }
+    const project = counted.filter((j) => j.owner!.projectId === owner.projectId).length;
+    if (project >= config.perProject) {
+      throw new RateLimitedError(
+        `This project already has ${project} evaluations waiting or running (the limit per project is ${config.perProject}); try again when one has finished.`,
+        5,
+      );
+    }
+  }
 
   async function settleFromStore(jobId: string): Promise<void> {
     const waiter = pending.get(jobId);
     if (!waiter) return;
     const job = await queue.getJob(jobId);
     if (!job) {
-      waiter.fail(cancelled());
+      waiter.fail(await goneError(jobId));
       return;
     }
     const state = await job.getState();
@@ -112,7 +185,11 @@ export function createJobQueue(config: QueueConfig, log: Logger): JobQueue {
     pending.get(jobId)?.fail(failedError(failedReason));
   });
   events.on('removed', ({ jobId }) => {
-    pending.get(jobId)?.fail(cancelled());
+    if (!pending.has(jobId)) return;
+    goneError(jobId).then(
+      (e) => pending.get(jobId)?.fail(e),
+      (e: unknown) => pending.get(jobId)?.fail(e),
+    );
   });
   const poll = setInterval(() => {
     for (const jobId of pending.keys()) {
@@ -159,12 +236,18 @@ export function createJobQueue(config: QueueConfig, log: Logger): JobQueue {
     options: {
       signal?: AbortSignal | undefined;
       onProgress?: ((progress: SheetProgress) => void) | undefined;
-      priority?: number | undefined;
+      owner?: JobOwner | undefined;
     } = {},
   ): Promise<JobReply> {
     if (options.signal?.aborted) throw cancelled();
     await ready;
+    if (options.owner) await applyShares(options.owner);
     await refuseWhenUnserved();
+    const bytes =
+      data.kind === 'describe'
+        ? data.text.length
+        : data.uploads.reduce((sum, u) => sum + u.text.length, 0);
+    const priority = bytes >= config.largeBytes ? LARGE_PRIORITY : SMALL_PRIORITY;
     const jobId = randomUUID();
     const reply = new Promise<JobReply>((resolve, reject) => {
       pending.set(jobId, {
@@ -178,9 +261,9 @@ export function createJobQueue(config: QueueConfig, log: Logger): JobQueue {
       cancel(jobId).catch((e: unknown) => log.error(`cancelling job ${jobId}`, e));
     };
     try {
-      await queue.add(data.kind, data, {
+      await queue.add(jobName(data.kind, options.owner), data, {
         jobId,
-        ...(options.priority ? { priority: options.priority } : {}),
+        priority,
         removeOnComplete: { age: 3600, count: 500 },
         removeOnFail: { age: 24 * 3600, count: 500 },
       });

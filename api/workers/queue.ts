@@ -21,6 +21,20 @@ export interface JobOwner {
   sheetId: number;
 }
 
+/**
+ * A job's name carries its kind and owner (`evaluate|7|3|12`), so the fairness rules read the
+ * names of the queued jobs and never their data (which holds the uploads).
+ */
+export function jobName(kind: JobData['kind'], owner?: JobOwner): string {
+  return owner ? `${kind}|${owner.userId}|${owner.projectId}|${owner.sheetId}` : kind;
+}
+
+export function ownerOfName(name: string): JobOwner | null {
+  const [, userId, projectId, sheetId] = name.split('|');
+  if (sheetId === undefined) return null;
+  return { userId: Number(userId), projectId: Number(projectId), sheetId: Number(sheetId) };
+}
+
 export interface EvaluateJobData {
   kind: 'evaluate';
   sheet: Sheet;

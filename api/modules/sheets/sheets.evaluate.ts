@@ -59,13 +59,12 @@ export async function evaluateSheetDraft(
   input: DraftBody,
   options: RunOptions = {},
 ): Promise<Pick<SheetEvaluation, 'results' | 'digests' | 'engineVersion'>> {
-  await ctx.access.sheet(user, sheetId, 'sheet.read');
+  const { projectId } = await ctx.access.sheet(user, sheetId, 'sheet.read');
   const sheet: Sheet = { blocks: input.blocks, settings: input.settings };
-  const { results, digests, engineVersion } = await evaluateWithUploads(
-    ctx,
-    sheetId,
-    sheet,
-    options,
-  );
+  // The editor's evaluations are the person's own: the queue's fair shares apply to them.
+  const { results, digests, engineVersion } = await evaluateWithUploads(ctx, sheetId, sheet, {
+    ...options,
+    owner: { userId: user.id, projectId, sheetId },
+  });
   return { results, digests, engineVersion };
 }
