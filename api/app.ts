@@ -100,6 +100,7 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
       ...(mailer ? { mailer } : {}),
       runner: jobs.runner,
       describeMatrixFile: jobs.describeMatrixFile,
+      evaluations: jobs.evaluations,
     });
     const app = express();
     app.disable('x-powered-by');

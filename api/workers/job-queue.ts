@@ -21,8 +21,10 @@ import {
   EngineError,
   type EngineErrorCode,
   type MatrixAnalysis,
+  type Sheet,
   type SheetProgress,
   type SheetResults,
+  type SheetUpload,
 } from '../../core/index';
 import type { QueueConfig } from '../config/index';
 import { AppError, RateLimitedError } from '../http/errors';
@@ -42,9 +44,41 @@ import {
 } from './queue';
 import type { MatrixFileDescriber, SheetRunner } from './sheet-runner';
 
+/** An evaluation job as the editor sees it when it comes back to a sheet. */
+export type EvaluationJobView = {
+  id: string;
+  /** The text that was evaluated. */
+  sheet: Sheet;
+  progress: SheetProgress | null;
+} & (
+  | { state: 'waiting' | 'running' }
+  | { state: 'done'; results: SheetResults }
+  | { state: 'failed'; error: JobRefusal }
+);
+
+/**
+ * Evaluations not bound to a request (long solves): started, followed by any number of
+ * requests, cancelled; closing the page does not stop them. The latest one per person and sheet
+ * is remembered for a day.
+ */
+export interface DetachedEvaluations {
+  start(sheet: Sheet, uploads: SheetUpload[], owner: JobOwner): Promise<string>;
+  latest(owner: JobOwner): Promise<EvaluationJobView | null>;
+  view(jobId: string): Promise<EvaluationJobView | null>;
+  /** Whether `jobId` is the latest evaluation of `owner` (only its owner follows or cancels it). */
+  ownedBy(jobId: string, owner: JobOwner): Promise<boolean>;
+  /** Waits until the job has its reply (view it then); throws only when it is gone or failed. */
+  follow(
+    jobId: string,
+    options: { signal?: AbortSignal; onProgress?: (progress: SheetProgress) => void },
+  ): Promise<void>;
+  cancel(jobId: string): Promise<void>;
+}
+
 export interface JobQueue {
   runner: SheetRunner;
   describeMatrixFile: MatrixFileDescriber;
+  evaluations: DetachedEvaluations;
   /** The BullMQ queue itself (tests and the bench read its counts). */
   queue: Queue<JobData, JobReply>;
   close(): Promise<void>;
@@ -100,13 +134,19 @@ export function createJobQueue(config: QueueConfig, log: Logger): JobQueue {
   connection.on('error', () => {});
   const queue = new Queue<JobData, JobReply>(QUEUE_NAME, { connection, prefix: config.prefix });
   queue.on('error', (e) => log.error('evaluation queue', e));
+  const eventsConnection = redisConnection(config.redisUrl, true);
   const events = new QueueEvents(QUEUE_NAME, {
-    connection: redisConnection(config.redisUrl, true),
+    connection: eventsConnection,
     prefix: config.prefix,
   });
   events.on('error', (e) => log.error('evaluation queue events', e));
   const ready = Promise.all([queue.waitUntilReady(), events.waitUntilReady()]);
-  const pending = new Map<string, Pending>();
+  // Every caller following a job (the request that queued it, an editor that came back to it).
+  const pending = new Map<string, Set<Pending>>();
+  const each = (jobId: string, f: (p: Pending) => void) => {
+    for (const waiter of pending.get(jobId) ?? []) f(waiter);
+  };
+  const latestKey = (owner: JobOwner) => `${config.prefix}:latest:${owner.userId}:${owner.sheetId}`;
   const supersededKey = (jobId: string) => `${config.prefix}:superseded:${jobId}`;
 
   /** Why a job is no longer in the queue: replaced by a newer one, or cancelled. */
@@ -163,32 +203,34 @@ export function createJobQueue(config: QueueConfig, log: Logger): JobQueue {
   }
 
   async function settleFromStore(jobId: string): Promise<void> {
-    const waiter = pending.get(jobId);
-    if (!waiter) return;
+    if (!pending.has(jobId)) return;
+    // The state first, then the job: a job read before it completed has no reply yet.
+    const state = await queue.getJobState(jobId);
+    if (state !== 'completed' && state !== 'failed' && state !== 'unknown') return;
     const job = await queue.getJob(jobId);
-    if (!job) {
-      waiter.fail(await goneError(jobId));
+    if (!job || state === 'unknown') {
+      const e = await goneError(jobId);
+      each(jobId, (w) => w.fail(e));
       return;
     }
-    const state = await job.getState();
-    if (state === 'completed') waiter.settle(job.returnvalue);
-    else if (state === 'failed') waiter.fail(failedError(job.failedReason));
+    if (state === 'completed') each(jobId, (w) => w.settle(job.returnvalue));
+    else each(jobId, (w) => w.fail(failedError(job.failedReason)));
   }
 
   events.on('progress', ({ jobId, data }) => {
-    pending.get(jobId)?.onProgress?.(data as unknown as SheetProgress);
+    each(jobId, (w) => w.onProgress?.(data as unknown as SheetProgress));
   });
   events.on('completed', ({ jobId }) => {
-    settleFromStore(jobId).catch((e: unknown) => pending.get(jobId)?.fail(e));
+    settleFromStore(jobId).catch((e: unknown) => each(jobId, (w) => w.fail(e)));
   });
   events.on('failed', ({ jobId, failedReason }) => {
-    pending.get(jobId)?.fail(failedError(failedReason));
+    each(jobId, (w) => w.fail(failedError(failedReason)));
   });
   events.on('removed', ({ jobId }) => {
     if (!pending.has(jobId)) return;
     goneError(jobId).then(
-      (e) => pending.get(jobId)?.fail(e),
-      (e: unknown) => pending.get(jobId)?.fail(e),
+      (e) => each(jobId, (w) => w.fail(e)),
+      (e: unknown) => each(jobId, (w) => w.fail(e)),
     );
   });
   const poll = setInterval(() => {
@@ -231,17 +273,10 @@ export function createJobQueue(config: QueueConfig, log: Logger): JobQueue {
     await connection.publish(cancelChannel(config.prefix), jobId);
   }
 
-  async function submit(
-    data: JobData,
-    options: {
-      signal?: AbortSignal | undefined;
-      onProgress?: ((progress: SheetProgress) => void) | undefined;
-      owner?: JobOwner | undefined;
-    } = {},
-  ): Promise<JobReply> {
-    if (options.signal?.aborted) throw cancelled();
+  /** Queues a job (after the fair shares and the queue's limits) and answers its id. */
+  async function enqueue(data: JobData, owner?: JobOwner): Promise<string> {
     await ready;
-    if (options.owner) await applyShares(options.owner);
+    if (owner) await applyShares(owner);
     await refuseWhenUnserved();
     const bytes =
       data.kind === 'describe'
@@ -249,64 +284,141 @@ export function createJobQueue(config: QueueConfig, log: Logger): JobQueue {
         : data.uploads.reduce((sum, u) => sum + u.text.length, 0);
     const priority = bytes >= config.largeBytes ? LARGE_PRIORITY : SMALL_PRIORITY;
     const jobId = randomUUID();
+    await queue.add(jobName(data.kind, owner), data, {
+      jobId,
+      priority,
+      removeOnComplete: { age: 24 * 3600, count: 500 },
+      removeOnFail: { age: 24 * 3600, count: 500 },
+    });
+    if (owner) await connection.set(latestKey(owner), jobId, 'EX', 24 * 3600);
+    return jobId;
+  }
+
+  /**
+   * Follows a queued job to its reply, passing on its progress. With `cancelOnAbort`, the
+   * signal cancels the job itself; without, it only stops following (the job goes on).
+   */
+  async function follow(
+    jobId: string,
+    options: {
+      signal?: AbortSignal | undefined;
+      onProgress?: ((progress: SheetProgress) => void) | undefined;
+      cancelOnAbort?: boolean;
+    },
+  ): Promise<JobReply> {
+    let waiter!: Pending;
     const reply = new Promise<JobReply>((resolve, reject) => {
-      pending.set(jobId, {
+      waiter = {
         settle: resolve,
         fail: reject,
         ...(options.onProgress ? { onProgress: options.onProgress } : {}),
-      });
+      };
     });
+    const set = pending.get(jobId) ?? new Set<Pending>();
+    set.add(waiter);
+    pending.set(jobId, set);
     const onAbort = () => {
-      pending.get(jobId)?.fail(cancelled());
-      cancel(jobId).catch((e: unknown) => log.error(`cancelling job ${jobId}`, e));
+      waiter.fail(cancelled());
+      if (options.cancelOnAbort) {
+        cancel(jobId).catch((e: unknown) => log.error(`cancelling job ${jobId}`, e));
+      }
     };
+    options.signal?.addEventListener('abort', onAbort, { once: true });
+    // A job that finished before it was followed.
+    settleFromStore(jobId).catch(() => {});
     try {
-      await queue.add(jobName(data.kind, options.owner), data, {
-        jobId,
-        priority,
-        removeOnComplete: { age: 3600, count: 500 },
-        removeOnFail: { age: 24 * 3600, count: 500 },
-      });
-      options.signal?.addEventListener('abort', onAbort, { once: true });
       return await reply;
     } finally {
-      pending.delete(jobId);
+      set.delete(waiter);
+      if (set.size === 0) pending.delete(jobId);
       options.signal?.removeEventListener('abort', onAbort);
     }
   }
 
+  const evaluateData = (sheet: Sheet, uploads: SheetUpload[]): JobData => ({
+    kind: 'evaluate',
+    sheet,
+    uploads,
+    timeLimitMs: config.timeLimitMs,
+  });
+
   const runner: SheetRunner = async (sheet, uploads, options) => {
-    const reply = (await submit(
-      { kind: 'evaluate', sheet, uploads, timeLimitMs: config.timeLimitMs },
-      options,
-    )) as EvaluateJobReply;
+    if (options.signal?.aborted) throw cancelled();
+    const jobId = await enqueue(evaluateData(sheet, uploads), options.owner);
+    const reply = (await follow(jobId, { ...options, cancelOnAbort: true })) as EvaluateJobReply;
     if (!reply.ok) throw refusalError(reply.error);
     return reply.results as SheetResults;
   };
 
   const describeMatrixFile: MatrixFileDescriber = async (text, format, name) => {
-    const reply = (await submit({
+    const jobId = await enqueue({
       kind: 'describe',
       text,
       format,
       name,
       timeLimitMs: config.timeLimitMs,
-    })) as DescribeJobReply;
+    });
+    const reply = (await follow(jobId, {})) as DescribeJobReply;
     if (!reply.ok) throw refusalError(reply.error);
     return reply.shape as MatrixAnalysis;
+  };
+
+  /** A job as the editor sees it. */
+  async function view(jobId: string): Promise<EvaluationJobView | null> {
+    const state = await queue.getJobState(jobId);
+    const job = await queue.getJob(jobId);
+    if (!job || job.data.kind !== 'evaluate') return null;
+    const base = {
+      id: jobId,
+      sheet: job.data.sheet,
+      progress:
+        typeof job.progress === 'object' ? (job.progress as unknown as SheetProgress) : null,
+    };
+    if (state === 'completed') {
+      const reply = job.returnvalue as EvaluateJobReply;
+      return reply.ok
+        ? { ...base, state: 'done', results: reply.results }
+        : { ...base, state: 'failed', error: reply.error };
+    }
+    if (state === 'failed') {
+      const e = failedError(job.failedReason);
+      return {
+        ...base,
+        state: 'failed',
+        error: { status: e.status, code: e.code, message: e.message },
+      };
+    }
+    return { ...base, state: state === 'active' ? 'running' : 'waiting' };
+  }
+
+  const evaluations: DetachedEvaluations = {
+    start: (sheet, uploads, owner) => enqueue(evaluateData(sheet, uploads), owner),
+    latest: async (owner) => {
+      const jobId = await connection.get(latestKey(owner));
+      return jobId ? view(jobId) : null;
+    },
+    view,
+    ownedBy: async (jobId, owner) => (await connection.get(latestKey(owner))) === jobId,
+    follow: async (jobId, options) => {
+      await follow(jobId, options);
+    },
+    cancel,
   };
 
   return {
     runner,
     describeMatrixFile,
+    evaluations,
     queue,
     close: async () => {
       clearInterval(poll);
-      for (const waiter of pending.values()) {
-        waiter.fail(new AppError(503, 'SHUTTING_DOWN', 'The server is stopping.'));
+      for (const jobId of pending.keys()) {
+        each(jobId, (w) => w.fail(new AppError(503, 'SHUTTING_DOWN', 'The server is stopping.')));
       }
       await events.close();
       await queue.close();
+      eventsConnection.disconnect();
+      connection.disconnect();
     },
   };
 }
