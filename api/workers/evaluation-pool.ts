@@ -101,31 +101,6 @@ export interface EvaluationPool {
   close(): Promise<void>;
 }
 
-function envNumber(name: string): number | undefined {
-  const v = process.env[name];
-  if (v === undefined || v === '') return undefined;
-  const n = Number(v);
-  return Number.isFinite(n) && n > 0 ? n : undefined;
-}
-
-/**
- * Options from the environment: MW_EVAL_THREADS, MW_EVAL_TIME_LIMIT_MS, MW_EVAL_MEMORY_MB,
- * MW_EVAL_MAX_QUEUE, MW_EVAL_WARM (0 = start workers on first use).
- */
-export function poolOptionsFromEnv(): EvaluationPoolOptions {
-  const o: EvaluationPoolOptions = {};
-  const threads = envNumber('MW_EVAL_THREADS');
-  const time = envNumber('MW_EVAL_TIME_LIMIT_MS');
-  const mem = envNumber('MW_EVAL_MEMORY_MB');
-  const queue = envNumber('MW_EVAL_MAX_QUEUE');
-  if (threads) o.threads = Math.floor(threads);
-  if (time) o.timeLimitMs = time;
-  if (mem) o.memoryLimitMb = mem;
-  if (queue) o.maxQueue = Math.floor(queue);
-  if (process.env.MW_EVAL_WARM === '0') o.warm = false;
-  return o;
-}
-
 /**
  * Compiled (scripts/build-server.mjs puts every bundle in dist/server/, the worker beside the
  * server) or from source through tsx (Vitest, `npm run dev`): the worker file and how to load it.
