@@ -5,6 +5,7 @@ import {
   type ApiClient,
   type TestApp,
 } from '../support/api-app';
+import { asText, parseEvents } from '../support/event-stream';
 
 // Evaluations not bound to a request: started, followed by server-sent events, found again as
 // the person's latest, cancelled; only their owner follows or cancels them. Done by the test
@@ -24,26 +25,8 @@ const frame = [
   { id: 'm', kind: 'modes', source: 'stiffness: frame.K\nmass: frame.M\ncount: 2\nname: sway' },
 ];
 
-function parseEvents(text: string): { event: string; data: unknown }[] {
-  return text
-    .split('\n\n')
-    .filter((chunk) => chunk.trim() !== '')
-    .map((chunk) => ({
-      event: /^event: (.*)$/m.exec(chunk)?.[1] ?? 'message',
-      data: JSON.parse(/^data: (.*)$/m.exec(chunk)?.[1] ?? 'null'),
-    }));
-}
-
 function events(client: ApiClient, jobId: string) {
-  return client
-    .get(`/api/sheets/${sheetId}/evaluations/${jobId}/events`)
-    .buffer(true)
-    .parse((response, callback) => {
-      let body = '';
-      response.setEncoding('utf8');
-      response.on('data', (chunk: string) => (body += chunk));
-      response.on('end', () => callback(null, body));
-    });
+  return asText(client.get(`/api/sheets/${sheetId}/evaluations/${jobId}/events`));
 }
 
 beforeAll(async () => {
