@@ -20,8 +20,6 @@ export default defineConfig({
         test: {
           name: 'api',
           sequence: { groupOrder: 1 },
-          // Most API test files never evaluate: start evaluation workers on first use only.
-          env: { MW_EVAL_WARM: '0' },
           include: ['test/api/**/*.test.ts'],
           environment: 'node',
           globalSetup: ['test/support/db-global-setup.ts'],

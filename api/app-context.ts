@@ -10,6 +10,7 @@ import { projectsService } from './modules/projects/projects.service';
 import { remarksService } from './modules/remarks/remarks.service';
 import { revisionsService } from './modules/revisions/revisions.service';
 import { sheetsService } from './modules/sheets/sheets.service';
+import type { DetachedEvaluations } from './workers/job-queue';
 import {
   inProcessDescriber,
   inProcessRunner,
@@ -26,6 +27,8 @@ export interface ContextParts {
   /** Default: the engine in this thread (createApp hands in the worker pool's). */
   runner?: SheetRunner;
   describeMatrixFile?: MatrixFileDescriber;
+  /** Evaluations not bound to a request: the queue's (none in-process). */
+  evaluations?: DetachedEvaluations;
 }
 
 /**
@@ -49,5 +52,6 @@ export function createAppContext(parts: ContextParts): AppContext {
     mailer: parts.mailer ?? createMailer({ store: (entry) => outboxService.store(db, entry) }),
     runner: parts.runner ?? inProcessRunner,
     describeMatrixFile: parts.describeMatrixFile ?? inProcessDescriber,
+    ...(parts.evaluations ? { evaluations: parts.evaluations } : {}),
   };
 }

@@ -33,7 +33,7 @@ import { createUploadsRouter } from './modules/uploads/uploads.routes';
 import { createUsersRouter } from './modules/users/users.routes';
 import { usersService } from './modules/users/users.service';
 import { createVerifyRouter } from './modules/verify/verify.routes';
-import { createEvaluationPool, poolOptionsFromEnv } from './workers/evaluation-pool';
+import { createJobQueue } from './workers/job-queue';
 
 export interface AppOptions extends Partial<AppConfig> {
   /** How often expired sessions are swept, in ms (0 turns the sweep off; tests do). */
@@ -93,16 +93,17 @@ export async function createApp(options: AppOptions = {}): Promise<CreatedApp> {
     closers.push(() => sessions.close());
 
     // Every evaluation (editor, issue for check, compare, seal) and every uploaded file's read
-    // runs in the worker pool, never on the event loop.
-    const pool = createEvaluationPool(poolOptionsFromEnv());
-    closers.push(() => pool.close());
+    // is a job on the queue, done by a worker process: never in this process.
+    const jobs = createJobQueue(config.queue, log);
+    closers.push(() => jobs.close());
     const ctx = createAppContext({
       db,
       config,
       log,
       ...(mailer ? { mailer } : {}),
-      runner: pool.run.bind(pool),
-      describeMatrixFile: pool.describeMatrixFile,
+      runner: jobs.runner,
+      describeMatrixFile: jobs.describeMatrixFile,
+      evaluations: jobs.evaluations,
     });
     const app = express();
     app.disable('x-powered-by');

@@ -1,6 +1,7 @@
 // The one place that listens. npm start runs it compiled (dist/server/server.js, built by
 // scripts/build-server.mjs) after building the client; npm run dev runs it through tsx.
 import { createApp } from './app';
+import { superviseWorkers } from './workers/supervisor';
 
 const DEMO_PEOPLE = [
   ['Ada Brennan', 'admin', 'ada.brennan@brackwater.example'],
@@ -11,7 +12,7 @@ const DEMO_PEOPLE = [
 ] as const;
 
 async function main(): Promise<void> {
-  const { app, config, close } = await createApp();
+  const { app, config, close, ctx } = await createApp();
   const server = app.listen(config.port, config.host);
   await new Promise<void>((resolve, reject) => {
     server.once('listening', resolve);
@@ -25,10 +26,14 @@ async function main(): Promise<void> {
     throw e;
   });
 
+  // The evaluation workers: child processes of their own, restarted when one dies.
+  const workers = superviseWorkers(config.workers, ctx.log);
+
   const url = `http://${config.host}:${config.port}/`;
   const lines = [
     '',
     `Modewright is running at ${url}${config.dev ? ' (development, hot reload)' : ''}`,
+    `Evaluation workers: ${config.workers} process${config.workers === 1 ? '' : 'es'} on the queue ${config.queue.redisUrl}`,
     '',
     'Demo sign-ins (password for each: modewright-demo):',
     ...DEMO_PEOPLE.map(([name, role, email]) => `  ${email.padEnd(36)} ${name} (${role})`),
@@ -43,7 +48,7 @@ async function main(): Promise<void> {
     process.stdout.write(`${signal}: stopping\n`);
     server.close();
     server.closeAllConnections();
-    close().then(
+    Promise.all([workers.close(), close()]).then(
       () => process.exit(0),
       () => process.exit(1),
     );

@@ -7,7 +7,8 @@
 //
 // Output (one folder, so every bundle finds the worker files beside it):
 //   dist/server/server.js               api/server.ts (the app, listening)
-//   dist/server/evaluate.worker.js      api/workers/evaluate.worker.ts (piscina's worker)
+//   dist/server/job-worker.js           api/workers/job-worker.ts (a worker process: npm run worker)
+//   dist/server/evaluate.worker.js      api/workers/evaluate.worker.ts (its evaluation thread)
 //   dist/server/dense-helper.worker.js  api/workers/dense-helper.worker.ts (dense solver threads)
 //   dist/server/solve.js                scripts/solve.ts (the engine from the command line)
 // Packages stay external (imported from node_modules at run time).
@@ -24,6 +25,7 @@ const quiet = process.argv.includes('--quiet');
 const entryPoints = {
   server: 'api/server.ts',
   'evaluate.worker': 'api/workers/evaluate.worker.ts',
+  'job-worker': 'api/workers/job-worker.ts',
   'dense-helper.worker': 'api/workers/dense-helper.worker.ts',
   solve: 'scripts/solve.ts',
 };

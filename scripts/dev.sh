@@ -8,5 +8,6 @@ cd "$ROOT"
 ensure_npm_packages
 ensure_debian_packages
 bash scripts/db.sh start
+bash scripts/redis.sh start
 npx tsx api/db/prepare.ts
 MW_DEV=1 exec npx tsx watch --clear-screen=false --ignore 'web/**' api/server.ts

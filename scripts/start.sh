@@ -1,5 +1,6 @@
 #!/usr/bin/env bash
-# npm start: the whole product on a fresh clone — packages, MariaDB, schema, demo data, client, server.
+# npm start: the whole product on a fresh clone — packages, MariaDB, Redis, schema, demo data,
+# client, server.
 set -euo pipefail
 source "$(dirname "$0")/lib.sh"
 cd "$ROOT"
@@ -7,6 +8,7 @@ cd "$ROOT"
 ensure_npm_packages
 ensure_debian_packages
 bash scripts/db.sh start
+bash scripts/redis.sh start
 log "migrating the database; demo data when it is empty"
 npx tsx api/db/prepare.ts
 log "building the client"

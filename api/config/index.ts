@@ -1,4 +1,5 @@
 import { randomBytes } from 'node:crypto';
+import os from 'node:os';
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 
@@ -29,6 +30,60 @@ export interface AppConfig {
   bodyLimitBytes: number;
   /** Largest matrix file accepted by an upload, in bytes (MW_UPLOAD_LIMIT_BYTES, default 20 MB). */
   uploadLimitBytes: number;
+  /** The evaluation queue (Redis) the API adds jobs to and the workers take them from. */
+  queue: QueueConfig;
+  /**
+   * Worker processes `npm start` runs and restarts beside the API (MW_WORKERS; default one per
+   * core; 0 for an API machine whose workers run elsewhere).
+   */
+  workers: number;
+}
+
+/** The evaluation queue: shared by the API processes and the worker processes. */
+export interface QueueConfig {
+  /** MW_REDIS_URL, else the project's own Redis on 127.0.0.1:MW_REDIS_PORT (6407). */
+  redisUrl: string;
+  /**
+   * Key prefix (MW_QUEUE_PREFIX, default `mw:<database>`): one queue per database, so the test
+   * and the demo queue never mix.
+   */
+  prefix: string;
+  /** Time limit of one evaluation, ms (MW_EVAL_TIME_LIMIT_MS, default 30 000). */
+  timeLimitMs: number;
+  /** Heap limit of each worker's evaluation thread, MB (MW_EVAL_MEMORY_MB, default 512). */
+  memoryLimitMb: number;
+  /** Resident memory of a worker process beyond which its job is stopped, MB (MW_WORKER_RSS_MB). */
+  rssLimitMb: number;
+  /** Jobs (waiting and running) the whole queue accepts before answering 429 (MW_EVAL_MAX_QUEUE). */
+  maxQueue: number;
+  /** How often workers look for jobs whose worker died, ms (MW_QUEUE_STALLED_MS, default 30 000). */
+  stalledIntervalMs: number;
+  /** Evaluations one person may have waiting or running (MW_QUEUE_PER_PERSON, default 3). */
+  perPerson: number;
+  /** Evaluations one project may have waiting or running (MW_QUEUE_PER_PROJECT, default 8). */
+  perProject: number;
+  /**
+   * Uploads (bytes, all of a sheet's) from which an evaluation is a large solve and waits behind
+   * the small ones (MW_QUEUE_LARGE_BYTES, default 1 MiB).
+   */
+  largeBytes: number;
+}
+
+/** The queue's settings from the environment (the worker processes read only these). */
+export function loadQueueConfig(dbName = process.env.MW_DB_NAME ?? 'modewright'): QueueConfig {
+  const memoryLimitMb = intFromEnv('MW_EVAL_MEMORY_MB', 512);
+  return {
+    redisUrl: process.env.MW_REDIS_URL || `redis://127.0.0.1:${intFromEnv('MW_REDIS_PORT', 6407)}`,
+    prefix: process.env.MW_QUEUE_PREFIX || `mw:${dbName}`,
+    timeLimitMs: intFromEnv('MW_EVAL_TIME_LIMIT_MS', 30_000),
+    memoryLimitMb,
+    rssLimitMb: intFromEnv('MW_WORKER_RSS_MB', 2 * memoryLimitMb + 512),
+    maxQueue: intFromEnv('MW_EVAL_MAX_QUEUE', 64),
+    stalledIntervalMs: intFromEnv('MW_QUEUE_STALLED_MS', 30_000),
+    perPerson: intFromEnv('MW_QUEUE_PER_PERSON', 3),
+    perProject: intFromEnv('MW_QUEUE_PER_PROJECT', 8),
+    largeBytes: intFromEnv('MW_QUEUE_LARGE_BYTES', 1024 * 1024),
+  };
 }
 
 export const projectRoot = path.resolve(import.meta.dirname, '..', '..');
@@ -101,6 +156,9 @@ export function loadConfig(overrides: Partial<AppConfig> = {}): AppConfig {
     logRequests: process.env.MW_LOG_REQUESTS !== '0',
     bodyLimitBytes: 1024 * 1024,
     uploadLimitBytes: intFromEnv('MW_UPLOAD_LIMIT_BYTES', 20 * 1024 * 1024),
+    workers:
+      process.env.MW_WORKERS === '0' ? 0 : intFromEnv('MW_WORKERS', os.availableParallelism()),
+    queue: loadQueueConfig(overrides.db?.name ?? process.env.MW_DB_NAME ?? 'modewright'),
   };
   return { ...base, ...overrides, db: { ...base.db, ...overrides.db } };
 }

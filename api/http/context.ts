@@ -1,6 +1,7 @@
 import type { AppConfig } from '../config/index';
 import type { Db } from '../db/index';
 import type { Mailer } from '../mail/mailer';
+import type { DetachedEvaluations } from '../workers/job-queue';
 import type { MatrixFileDescriber, SheetRunner } from '../workers/sheet-runner';
 import type { Access } from './access';
 import type { Logger } from './logger';
@@ -19,6 +20,8 @@ export interface AppContext {
   runner: SheetRunner;
   /** Reads an uploaded matrix file: the worker pool's reader in the app. */
   describeMatrixFile: MatrixFileDescriber;
+  /** Evaluations not bound to a request (the queue's, in the app; absent in-process). */
+  evaluations?: DetachedEvaluations;
 }
 
 declare module 'express-session' {

@@ -64,6 +64,8 @@ export interface EvaluationPoolOptions {
 export interface RunOptions {
   signal?: AbortSignal;
   onProgress?: (progress: SheetProgress) => void;
+  /** This evaluation's time limit, ms; default the pool's. */
+  timeLimitMs?: number;
 }
 
 export interface EvaluationPool {
@@ -97,31 +99,6 @@ export interface EvaluationPool {
     };
   };
   close(): Promise<void>;
-}
-
-function envNumber(name: string): number | undefined {
-  const v = process.env[name];
-  if (v === undefined || v === '') return undefined;
-  const n = Number(v);
-  return Number.isFinite(n) && n > 0 ? n : undefined;
-}
-
-/**
- * Options from the environment: MW_EVAL_THREADS, MW_EVAL_TIME_LIMIT_MS, MW_EVAL_MEMORY_MB,
- * MW_EVAL_MAX_QUEUE, MW_EVAL_WARM (0 = start workers on first use).
- */
-export function poolOptionsFromEnv(): EvaluationPoolOptions {
-  const o: EvaluationPoolOptions = {};
-  const threads = envNumber('MW_EVAL_THREADS');
-  const time = envNumber('MW_EVAL_TIME_LIMIT_MS');
-  const mem = envNumber('MW_EVAL_MEMORY_MB');
-  const queue = envNumber('MW_EVAL_MAX_QUEUE');
-  if (threads) o.threads = Math.floor(threads);
-  if (time) o.timeLimitMs = time;
-  if (mem) o.memoryLimitMb = mem;
-  if (queue) o.maxQueue = Math.floor(queue);
-  if (process.env.MW_EVAL_WARM === '0') o.warm = false;
-  return o;
 }
 
 /**
@@ -181,13 +158,16 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
       throw queueFull(timeLimitMs);
     }
     const controller = new AbortController();
+    const limitMs = runOptions.timeLimitMs ?? timeLimitMs;
     let reason: 'time' | 'cancel' | null = null;
     let timer: NodeJS.Timeout | undefined;
+    // The block being evaluated: a limit that stops the worker names it.
+    let current: SheetProgress | null = null;
     const startClock = () => {
       timer ??= setTimeout(() => {
         reason = 'time';
         controller.abort();
-      }, timeLimitMs);
+      }, limitMs);
     };
     const onCancel = () => {
       reason ??= 'cancel';
@@ -201,8 +181,10 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
     const done = new Promise<void>((resolve) => (markDone = resolve));
     port1.on('message', (msg: { type: string; progress: SheetProgress }) => {
       if (msg.type === 'start') startClock();
-      else if (msg.type === 'progress') runOptions.onProgress?.(msg.progress);
-      else if (msg.type === 'done') markDone();
+      else if (msg.type === 'progress') {
+        current = msg.progress;
+        runOptions.onProgress?.(msg.progress);
+      } else if (msg.type === 'done') markDone();
     });
     const task: EvaluateTask = {
       sheet,
@@ -223,7 +205,7 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
       await Promise.race([done, new Promise((r) => (grace = setTimeout(r, 2000)))]);
       clearTimeout(grace);
     } catch (err) {
-      throw translate(err, reason, timeLimitMs, memoryLimitMb);
+      throw inBlock(translate(err, reason, limitMs, memoryLimitMb), current);
     } finally {
       running--;
       if (timer) clearTimeout(timer);
@@ -301,6 +283,20 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
     }),
     close: () => piscina.destroy(),
   };
+}
+
+/**
+ * A limit that stopped the worker (time, memory) names the block it was in: the message starts
+ * with the block's number and kind, and the details carry its id and index.
+ */
+export function inBlock(err: unknown, at: SheetProgress | null): unknown {
+  if (!at || !(err instanceof AppError) || err.code !== 'SHEET_LIMIT') return err;
+  return new AppError(
+    err.status,
+    err.code,
+    `Block ${at.blockIndex + 1} (${at.kind}): ${err.message}`,
+    { details: { ...err.details, blockId: at.blockId, blockIndex: at.blockIndex } },
+  );
 }
 
 function queueFull(timeLimitMs: number): RateLimitedError {

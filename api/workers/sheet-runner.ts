@@ -7,10 +7,17 @@ import {
   type SheetResults,
   type SheetUpload,
 } from '../../core/index';
+import type { JobOwner } from './queue';
 
 export interface RunOptions {
   signal?: AbortSignal;
   onProgress?: (progress: SheetProgress) => void;
+  /**
+   * Who asked, for the queue's fair shares (caps per person and project; a newer evaluation of
+   * the same draft replaces the older one still waiting). Evaluations without an owner (issue for
+   * check, seal) are never replaced.
+   */
+  owner?: JobOwner;
 }
 
 /**

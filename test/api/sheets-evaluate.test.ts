@@ -3,6 +3,7 @@ import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { anonymous, createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
 import { createProjectTeam, unique } from '../support/factories';
+import { asText, parseEvents } from '../support/event-stream';
 
 // Evaluating a sheet's draft on the server: the three templates,
 // uploads resolved by name, the streamed variant, roles.
@@ -278,32 +279,14 @@ describe('POST /api/sheets/:sheetId/evaluate', () => {
   });
 });
 
-/** Splits a server-sent event stream into { event, data } records. */
-function parseEvents(text: string): { event: string; data: unknown }[] {
-  return text
-    .split('\n\n')
-    .filter((chunk) => chunk.trim() !== '')
-    .map((chunk) => {
-      const event = /^event: (.*)$/m.exec(chunk)?.[1] ?? 'message';
-      const data = /^data: (.*)$/m.exec(chunk)?.[1] ?? 'null';
-      return { event, data: JSON.parse(data) };
-    });
-}
-
 /** POST …/evaluate/stream, the whole event stream read as text. */
 function stream(client: ApiClient, sheetId: number, blocks: unknown[]) {
-  return client
-    .post(`/api/sheets/${sheetId}/evaluate/stream`, {
+  return asText(
+    client.post(`/api/sheets/${sheetId}/evaluate/stream`, {
       blocks,
       settings: { significantFigures: 4 },
-    })
-    .buffer(true)
-    .parse((response, callback) => {
-      let body = '';
-      response.setEncoding('utf8');
-      response.on('data', (chunk: string) => (body += chunk));
-      response.on('end', () => callback(null, body));
-    });
+    }),
+  );
 }
 
 describe('POST /api/sheets/:sheetId/evaluate/stream', () => {

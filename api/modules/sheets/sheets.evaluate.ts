@@ -2,6 +2,7 @@ import { digestSheet, type Sheet, type SheetDigests, type SheetResults } from '.
 import type { DbOrTx } from '../../db/index';
 import type { AppContext } from '../../http/context';
 import { AppError } from '../../http/errors';
+import type { DetachedEvaluations, EvaluationJobView } from '../../workers/job-queue';
 import type { RunOptions } from '../../workers/sheet-runner';
 import { uploadsService } from '../uploads/uploads.service';
 import type { User } from '../users/users.repository';
@@ -59,13 +60,108 @@ export async function evaluateSheetDraft(
   input: DraftBody,
   options: RunOptions = {},
 ): Promise<Pick<SheetEvaluation, 'results' | 'digests' | 'engineVersion'>> {
-  await ctx.access.sheet(user, sheetId, 'sheet.read');
+  const { projectId } = await ctx.access.sheet(user, sheetId, 'sheet.read');
   const sheet: Sheet = { blocks: input.blocks, settings: input.settings };
-  const { results, digests, engineVersion } = await evaluateWithUploads(
-    ctx,
-    sheetId,
-    sheet,
-    options,
-  );
+  // The editor's evaluations are the person's own: the queue's fair shares apply to them.
+  const { results, digests, engineVersion } = await evaluateWithUploads(ctx, sheetId, sheet, {
+    ...options,
+    owner: { userId: user.id, projectId, sheetId },
+  });
   return { results, digests, engineVersion };
+}
+
+/** The queue's detached evaluations, or 503 where there is none (an in-process context). */
+function detached(ctx: AppContext): DetachedEvaluations {
+  if (!ctx.evaluations) {
+    throw new AppError(503, 'NO_QUEUE', 'Evaluations in the background need the evaluation queue.');
+  }
+  return ctx.evaluations;
+}
+
+/** A detached evaluation as the editor gets it: its state, and its results once done. */
+export interface EvaluationJob {
+  id: string;
+  state: EvaluationJobView['state'];
+  draft: Sheet;
+  progress: EvaluationJobView['progress'];
+  results?: SheetResults;
+  digests?: SheetDigests;
+  engineVersion?: string;
+  error?: { code: string; message: string; details?: Record<string, unknown> };
+}
+
+function jobOf(view: EvaluationJobView): EvaluationJob {
+  const base = { id: view.id, state: view.state, draft: view.sheet, progress: view.progress };
+  if (view.state === 'done') {
+    const d = digestSheet(view.sheet, view.results);
+    return { ...base, results: view.results, digests: d.digests, engineVersion: d.engineVersion };
+  }
+  if (view.state === 'failed') {
+    const { code, message, details } = view.error;
+    return { ...base, error: { code, message, ...(details ? { details } : {}) } };
+  }
+  return base;
+}
+
+/**
+ * Starts an evaluation of the editor's text that is not bound to the request (a long solve):
+ * closing the page does not stop it; the person follows it, comes back to it or cancels it.
+ */
+export async function startDetachedEvaluation(
+  ctx: AppContext,
+  user: User,
+  sheetId: number,
+  input: DraftBody,
+): Promise<string> {
+  const { projectId } = await ctx.access.sheet(user, sheetId, 'sheet.read');
+  const evaluations = detached(ctx);
+  const uploads = await uploadsService.textsForSheet(ctx.db, sheetId);
+  const sheet: Sheet = { blocks: input.blocks, settings: input.settings };
+  return evaluations.start(sheet, uploads, { userId: user.id, projectId, sheetId });
+}
+
+/** The person's latest detached evaluation of the sheet (a day at most), or null. */
+export async function latestDetachedEvaluation(
+  ctx: AppContext,
+  user: User,
+  sheetId: number,
+): Promise<EvaluationJob | null> {
+  const { projectId } = await ctx.access.sheet(user, sheetId, 'sheet.read');
+  const view = await detached(ctx).latest({ userId: user.id, projectId, sheetId });
+  return view ? jobOf(view) : null;
+}
+
+/** The person's own detached evaluation `jobId` of the sheet, else 404. */
+async function ownJob(ctx: AppContext, user: User, sheetId: number, jobId: string) {
+  const { projectId } = await ctx.access.sheet(user, sheetId, 'sheet.read');
+  const evaluations = detached(ctx);
+  if (!(await evaluations.ownedBy(jobId, { userId: user.id, projectId, sheetId }))) {
+    throw new AppError(404, 'NOT_FOUND', `There is no evaluation ${jobId} of yours on this sheet.`);
+  }
+  return evaluations;
+}
+
+/** Follows the person's detached evaluation to its results; the signal stops following only. */
+export async function followDetachedEvaluation(
+  ctx: AppContext,
+  user: User,
+  sheetId: number,
+  jobId: string,
+  options: RunOptions,
+): Promise<EvaluationJob> {
+  const evaluations = await ownJob(ctx, user, sheetId, jobId);
+  await evaluations.follow(jobId, options);
+  const view = await evaluations.view(jobId);
+  if (!view) throw cancelledError();
+  return jobOf(view);
+}
+
+export async function cancelDetachedEvaluation(
+  ctx: AppContext,
+  user: User,
+  sheetId: number,
+  jobId: string,
+): Promise<void> {
+  const evaluations = await ownJob(ctx, user, sheetId, jobId);
+  await evaluations.cancel(jobId);
 }

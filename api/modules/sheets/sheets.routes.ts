@@ -4,7 +4,15 @@ import type { AppContext } from '../../http/context';
 import { normaliseError } from '../../http/error-middleware';
 import { AppError } from '../../http/errors';
 import { parse } from '../../http/validate';
-import { evaluateSheetDraft } from './sheets.evaluate';
+import { z } from 'zod';
+import type { SheetProgress } from '../../../core/index';
+import {
+  cancelDetachedEvaluation,
+  evaluateSheetDraft,
+  followDetachedEvaluation,
+  latestDetachedEvaluation,
+  startDetachedEvaluation,
+} from './sheets.evaluate';
 import {
   createSheetBody,
   draftBody,
@@ -30,6 +38,53 @@ function disconnectSignal(res: Response): AbortSignal {
     if (!res.writableFinished) controller.abort();
   });
   return controller.signal;
+}
+
+const jobParams = sheetParams.extend({
+  jobId: z.string().regex(/^[0-9a-f-]{36}$/, 'must be an evaluation id'),
+});
+
+/** A solver's progress as the editor shows it, with the share of the sheet done. */
+function progressEvent(p: SheetProgress) {
+  return {
+    ...p,
+    // within a solving modes block, the share of its modes converged so far
+    fraction:
+      p.blockCount > 0
+        ? (p.blockIndex + (p.modesWanted ? (p.modesConverged ?? 0) / p.modesWanted : 0)) /
+          p.blockCount
+        : null,
+  };
+}
+
+/** Server-sent events on `res`: the headers go with the first event. */
+function eventStream(res: Response) {
+  let started = false;
+  const send = (event: string, data: unknown) => {
+    if (!started) {
+      started = true;
+      res.status(200).set({
+        'Content-Type': 'text/event-stream; charset=utf-8',
+        'Cache-Control': 'no-cache, no-transform',
+        'X-Accel-Buffering': 'no',
+      });
+      res.flushHeaders();
+    }
+    if (!res.writableEnded) res.write(`event: ${event}\ndata: ${JSON.stringify(data)}\n\n`);
+  };
+  return {
+    send,
+    started: () => started,
+    sendError: (err: AppError) =>
+      send('error', {
+        error: {
+          code: err.code,
+          message: err.message,
+          ...(err.field ? { field: err.field } : {}),
+          ...(err.details ? { details: err.details } : {}),
+        },
+      }),
+  };
 }
 
 /**
@@ -108,54 +163,74 @@ export function createSheetsRouter(ctx: AppContext): Router {
     await ctx.access.sheet(user, sheetId, 'sheet.read');
 
     const signal = disconnectSignal(res);
-    let started = false;
-    const send = (event: string, data: unknown) => {
-      if (!started) {
-        started = true;
-        res.status(200).set({
-          'Content-Type': 'text/event-stream; charset=utf-8',
-          'Cache-Control': 'no-cache, no-transform',
-          'X-Accel-Buffering': 'no',
-        });
-        res.flushHeaders();
-      }
-      if (!res.writableEnded) res.write(`event: ${event}\ndata: ${JSON.stringify(data)}\n\n`);
-    };
+    const stream = eventStream(res);
     try {
       const out = await evaluateSheetDraft(ctx, user, sheetId, input, {
         signal,
-        onProgress: (p) =>
-          send('progress', {
-            ...p,
-            // within a solving modes block, the share of its modes converged so far
-            fraction:
-              p.blockCount > 0
-                ? (p.blockIndex + (p.modesWanted ? (p.modesConverged ?? 0) / p.modesWanted : 0)) /
-                  p.blockCount
-                : null,
-          }),
+        onProgress: (p) => stream.send('progress', progressEvent(p)),
       });
-      send('result', out);
+      stream.send('result', out);
     } catch (e) {
       if (signal.aborted) {
         res.end();
         return;
       }
-      if (!started) {
+      if (!stream.started()) {
         setRetryAfter(res, e);
         throw e;
       }
-      const err = normaliseError(e, log, `POST ${req.originalUrl}`);
-      send('error', {
-        error: {
-          code: err.code,
-          message: err.message,
-          ...(err.field ? { field: err.field } : {}),
-          ...(err.details ? { details: err.details } : {}),
-        },
-      });
+      stream.sendError(normaliseError(e, log, `POST ${req.originalUrl}`));
     }
     res.end();
+  });
+
+  // Evaluations not bound to a request (long solves): started, followed by server-sent events
+  // from any page, cancelled; closing the page does not stop them.
+  router.post('/sheets/:sheetId/evaluations', requireSignedIn, async (req, res) => {
+    const { sheetId } = parse(sheetParams, req.params, 'params');
+    const input = parse(draftBody, req.body);
+    try {
+      const id = await startDetachedEvaluation(ctx, currentUser(req), sheetId, input);
+      res.status(202).json({ job: { id, state: 'waiting' } });
+    } catch (err) {
+      setRetryAfter(res, err);
+      throw err;
+    }
+  });
+
+  router.get('/sheets/:sheetId/evaluations/latest', requireSignedIn, async (req, res) => {
+    const { sheetId } = parse(sheetParams, req.params, 'params');
+    res.json({ job: await latestDetachedEvaluation(ctx, currentUser(req), sheetId) });
+  });
+
+  // `progress` events while it runs, then `result` (the job with its results and digests) or
+  // `error`. A client that disconnects stops following; the evaluation goes on.
+  router.get('/sheets/:sheetId/evaluations/:jobId/events', requireSignedIn, async (req, res) => {
+    const { sheetId, jobId } = parse(jobParams, req.params, 'params');
+    const signal = disconnectSignal(res);
+    const stream = eventStream(res);
+    try {
+      const job = await followDetachedEvaluation(ctx, currentUser(req), sheetId, jobId, {
+        signal,
+        onProgress: (p) => stream.send('progress', progressEvent(p)),
+      });
+      if (job.state === 'failed' && job.error) stream.send('error', { error: job.error });
+      else stream.send('result', job);
+    } catch (e) {
+      if (signal.aborted) {
+        res.end();
+        return;
+      }
+      if (!stream.started()) throw e;
+      stream.sendError(normaliseError(e, log, `GET ${req.originalUrl}`));
+    }
+    res.end();
+  });
+
+  router.delete('/sheets/:sheetId/evaluations/:jobId', requireSignedIn, async (req, res) => {
+    const { sheetId, jobId } = parse(jobParams, req.params, 'params');
+    await cancelDetachedEvaluation(ctx, currentUser(req), sheetId, jobId);
+    res.status(204).end();
   });
 
   return router;

@@ -1,5 +1,6 @@
 import { ApiError } from '../../../lib/api-client';
-import { writeRequest } from './request';
+import { api } from '../../../lib/api-client';
+import { readApiError, writeRequest } from './request';
 import type { Draft } from './types';
 
 export type EvaluationProgress = { message: string; fraction: number | null };
@@ -41,6 +42,16 @@ export async function evaluateStream(
     // A server that answers in one piece is accepted as well.
     return (await response.json()) as EvaluationResponse;
   }
+  return readEvents(response, onProgress);
+}
+
+/** Reads server-sent events up to the first `result` (returned) or `error` (thrown). */
+async function readEvents(
+  response: Response,
+  onProgress: (progress: EvaluationProgress) => void,
+): Promise<EvaluationResponse> {
+  if (!response.body)
+    throw new ApiError(0, { code: 'STREAM_ENDED', message: 'The server sent no events.' });
   const reader = response.body.pipeThrough(new TextDecoderStream()).getReader();
   let buffer = '';
   for (;;) {
@@ -87,4 +98,62 @@ export async function evaluateStream(
     message:
       'The server closed the evaluation before sending a result. Edit or press Run to retry.',
   });
+}
+
+/** An evaluation not bound to a request, as the server keeps it (a day at most). */
+export type EvaluationJob = {
+  id: string;
+  state: 'waiting' | 'running' | 'done' | 'failed';
+  draft: Draft;
+  progress: unknown;
+  results?: unknown;
+  error?: { code: string; message: string };
+};
+
+/**
+ * Starts an evaluation that goes on when the page closes (the server keeps it as a job); answers
+ * its id.
+ */
+export async function startEvaluation(sheetId: number | string, draft: Draft): Promise<string> {
+  const body = await api.post<{ job: { id: string } }>(`/api/sheets/${sheetId}/evaluations`, draft);
+  return body.job.id;
+}
+
+/** The person's latest evaluation of the sheet, running or finished, or null. */
+export async function latestEvaluation(sheetId: number | string): Promise<EvaluationJob | null> {
+  return (await api.get<{ job: EvaluationJob | null }>(`/api/sheets/${sheetId}/evaluations/latest`))
+    .job;
+}
+
+export function cancelEvaluation(sheetId: number | string, jobId: string): Promise<void> {
+  return api.delete(`/api/sheets/${sheetId}/evaluations/${jobId}`);
+}
+
+/**
+ * Follows an evaluation job over server-sent events to its results. Aborting the signal stops
+ * following; the evaluation itself goes on (cancelEvaluation stops it).
+ */
+export async function followEvaluation(
+  sheetId: number | string,
+  jobId: string,
+  signal: AbortSignal,
+  onProgress: (progress: EvaluationProgress) => void,
+): Promise<EvaluationResponse> {
+  let response: Response;
+  try {
+    response = await fetch(`/api/sheets/${sheetId}/evaluations/${jobId}/events`, {
+      credentials: 'same-origin',
+      headers: { Accept: 'text/event-stream' },
+      signal,
+    });
+  } catch (error) {
+    if (error instanceof DOMException && error.name === 'AbortError') throw error;
+    throw new ApiError(0, {
+      code: 'NETWORK',
+      message:
+        'Could not reach the Modewright server. Check the connection and that it is running.',
+    });
+  }
+  if (!response.ok) throw await readApiError(response);
+  return readEvents(response, onProgress);
 }

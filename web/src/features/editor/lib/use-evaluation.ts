@@ -1,6 +1,13 @@
 import { useCallback, useEffect, useRef, useState } from 'react';
 import { isApiError } from '../../../lib/api-client';
-import { evaluateStream, type EvaluationProgress } from '../api/evaluate';
+import {
+  cancelEvaluation,
+  followEvaluation,
+  latestEvaluation,
+  startEvaluation,
+  type EvaluationProgress,
+  type EvaluationResponse,
+} from '../api/evaluate';
 import type { SheetResults } from '../api/results';
 import type { Draft } from '../api/types';
 
@@ -12,7 +19,7 @@ export type EvaluationState =
   | { phase: 'cancelled' }
   | { phase: 'failed'; message: string };
 
-function readResults(body: { results: unknown }): SheetResults | null {
+function readResults(body: { results?: unknown }): SheetResults | null {
   const r = body.results as Partial<SheetResults> | undefined;
   if (!r || !Array.isArray(r.blocks)) return null;
   return {
@@ -24,73 +31,158 @@ function readResults(body: { results: unknown }): SheetResults | null {
   };
 }
 
+/** The text of a draft as the server keeps it, for comparing a job's draft with the editor's. */
+function draftKey(draft: Draft): string {
+  return JSON.stringify({
+    blocks: draft.blocks.map(({ id, kind, source }) => ({ id, kind, source })),
+    settings: { significantFigures: draft.settings.significantFigures },
+  });
+}
+
 /**
  * Evaluates the draft on the server as the author types (700 ms after the last keystroke), one
- * evaluation at a time: a newer text cancels the older request. Results stay on screen, marked
- * stale, until the new ones arrive.
+ * evaluation at a time: a newer text cancels the older one. Results stay on screen, marked
+ * stale, until the new ones arrive. Each evaluation is a job on the server that goes on when the
+ * page closes: coming back to the sheet with the same text shows it running, then its results.
  */
 export function useEvaluation(sheetId: number | string, draft: Draft) {
   const [results, setResults] = useState<SheetResults | null>(null);
   const [evaluatedText, setEvaluatedText] = useState<string | null>(null);
   const [state, setState] = useState<EvaluationState>({ phase: 'idle' });
   const controller = useRef<AbortController | null>(null);
+  const job = useRef<string | null>(null);
   const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
+  // Until the server has said whether an evaluation of this text is already running or done.
+  const [resuming, setResuming] = useState(true);
   const latest = useRef(draft);
   useEffect(() => {
     latest.current = draft;
   });
 
+  /** Follows job `jobId` (evaluating `text`) to its results, as the current evaluation. */
+  const follow = useCallback(
+    async (jobId: string, text: string, mine: AbortController) => {
+      try {
+        const body: EvaluationResponse = await followEvaluation(
+          sheetId,
+          jobId,
+          mine.signal,
+          (progress) => {
+            if (controller.current === mine) {
+              setState({ phase: 'running', progress, startedAt: Date.now() });
+            }
+          },
+        );
+        if (controller.current !== mine) return;
+        const read = readResults(body);
+        if (read) {
+          setResults(read);
+          setEvaluatedText(text);
+          setState({ phase: 'idle' });
+        } else {
+          setState({
+            phase: 'failed',
+            message: 'The server sent results this editor cannot read.',
+          });
+        }
+      } catch (error) {
+        if (controller.current !== mine) return;
+        if (mine.signal.aborted) {
+          setState({ phase: 'cancelled' });
+          return;
+        }
+        setState({
+          phase: 'failed',
+          message:
+            isApiError(error) || error instanceof Error ? error.message : 'The evaluation failed.',
+        });
+      } finally {
+        if (controller.current === mine && mine.signal.aborted) controller.current = null;
+      }
+    },
+    [sheetId],
+  );
+
+  /** Stops following the current evaluation and, with `stop`, the evaluation itself. */
+  const drop = useCallback(
+    (stop: boolean) => {
+      controller.current?.abort();
+      const jobId = job.current;
+      job.current = null;
+      if (stop && jobId) void cancelEvaluation(sheetId, jobId).catch(() => {});
+    },
+    [sheetId],
+  );
+
   const run = useCallback(async () => {
     if (timer.current) clearTimeout(timer.current);
-    controller.current?.abort();
+    drop(true);
     const mine = new AbortController();
     controller.current = mine;
-    const text = JSON.stringify(latest.current);
+    const draftNow = latest.current;
+    const text = JSON.stringify(draftNow);
     setState({ phase: 'running', progress: null, startedAt: Date.now() });
+    let jobId: string;
     try {
-      const body = await evaluateStream(
-        sheetId,
-        JSON.parse(text) as Draft,
-        mine.signal,
-        (progress) => {
-          if (controller.current === mine) {
-            setState({ phase: 'running', progress, startedAt: Date.now() });
-          }
-        },
-      );
-      if (controller.current !== mine) return;
-      const read = readResults(body);
-      if (read) {
-        setResults(read);
-        setEvaluatedText(text);
-        setState({ phase: 'idle' });
-      } else {
-        setState({ phase: 'failed', message: 'The server sent results this editor cannot read.' });
-      }
+      jobId = await startEvaluation(sheetId, draftNow);
     } catch (error) {
       if (controller.current !== mine) return;
-      if (mine.signal.aborted) {
-        setState({ phase: 'cancelled' });
-        return;
-      }
       setState({
         phase: 'failed',
         message:
           isApiError(error) || error instanceof Error ? error.message : 'The evaluation failed.',
       });
-    } finally {
-      if (controller.current === mine && mine.signal.aborted) controller.current = null;
+      return;
     }
-  }, [sheetId]);
+    if (controller.current !== mine) {
+      // A newer text or a cancel came while it was being queued.
+      void cancelEvaluation(sheetId, jobId).catch(() => {});
+      return;
+    }
+    job.current = jobId;
+    await follow(jobId, text, mine);
+  }, [sheetId, drop, follow]);
+
+  // Coming back to the sheet: the latest evaluation of this very text, running or done.
+  useEffect(() => {
+    let live = true;
+    latestEvaluation(sheetId)
+      .then((found) => {
+        if (!live || !found || controller.current) return;
+        const text = JSON.stringify(latest.current);
+        if (draftKey(found.draft) !== draftKey(latest.current)) return;
+        if (found.state === 'done') {
+          const read = readResults(found);
+          if (read) {
+            setResults(read);
+            setEvaluatedText(text);
+          }
+        } else if (found.state === 'waiting' || found.state === 'running') {
+          const mine = new AbortController();
+          controller.current = mine;
+          job.current = found.id;
+          setEvaluatedText(text);
+          setState({ phase: 'running', progress: null, startedAt: Date.now() });
+          void follow(found.id, text, mine);
+        }
+      })
+      .catch(() => {})
+      .finally(() => {
+        if (live) setResuming(false);
+      });
+    return () => {
+      live = false;
+    };
+  }, [sheetId, follow]);
 
   const cancel = useCallback(() => {
     if (timer.current) clearTimeout(timer.current);
-    controller.current?.abort();
-  }, []);
+    drop(true);
+  }, [drop]);
 
   const draftText = JSON.stringify(draft);
   useEffect(() => {
-    if (draftText === evaluatedText) return;
+    if (resuming || draftText === evaluatedText) return;
     if (timer.current) clearTimeout(timer.current);
     timer.current = setTimeout(() => void run(), DEBOUNCE_MS);
     return () => {
@@ -98,8 +190,9 @@ export function useEvaluation(sheetId: number | string, draft: Draft) {
     };
     // evaluatedText is read, not watched: a finished evaluation must not start another.
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [draftText, run]);
+  }, [draftText, run, resuming]);
 
+  // Leaving the page stops following only: the evaluation goes on, and is there on return.
   useEffect(() => () => controller.current?.abort(), []);
 
   const stale = results !== null && evaluatedText !== draftText;

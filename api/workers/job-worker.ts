@@ -1,0 +1,211 @@
+/**
+ * One worker process (`npm run worker`): takes evaluation jobs from the queue on Redis, one at a
+ * time, and runs each in its own evaluation thread (./evaluation-pool.ts, one thread) so that
+ * this process's event loop stays free to keep the job's lock, pass progress on and hear a cancel.
+ *
+ * The limits, from the first to the last line of defence:
+ * - the engine's own budgets (entries, solve memory) refuse a block before it allocates;
+ * - the job's time limit and the thread's heap limit stop the thread, and the job fails with a
+ *   message naming the block it was in;
+ * - an RSS watchdog: when this whole process's resident memory passes MW_WORKER_RSS_MB, the job
+ *   is stopped the same way, and the process exits if the memory does not come back (the
+ *   supervisor of `npm start`, or any other, starts a new one).
+ * A worker that dies mid-job (kill -9, a machine lost) leaves the job to BullMQ's stalled-job
+ * check: another worker takes it again. Nothing here reads the database: a job carries its sheet
+ * and uploads.
+ */
+import { hostname } from 'node:os';
+import { Worker, type Job } from 'bullmq';
+import {
+  EngineError,
+  isEngineError,
+  type MatrixAnalysis,
+  type SheetProgress,
+} from '../../core/index';
+import { loadQueueConfig, type QueueConfig } from '../config/index';
+import { AppError } from '../http/errors';
+import { createLogger, type Logger } from '../http/logger';
+import { createEvaluationPool, inBlock } from './evaluation-pool';
+import {
+  cancelChannel,
+  QUEUE_NAME,
+  redisConnection,
+  type JobData,
+  type JobRefusal,
+  type JobReply,
+} from './queue';
+
+export interface JobWorker {
+  close(): Promise<void>;
+}
+
+interface Active {
+  controller: AbortController;
+  /** Why it was stopped from outside the engine. */
+  stoppedBy: 'cancel' | 'memory' | null;
+  last: SheetProgress | null;
+}
+
+function refusalOf(err: unknown): JobRefusal {
+  if (err instanceof AppError) {
+    return {
+      status: err.status,
+      code: err.code,
+      message: err.message,
+      ...(err.field ? { field: err.field } : {}),
+      ...(err.details ? { details: err.details } : {}),
+    };
+  }
+  if (isEngineError(err) || err instanceof EngineError) {
+    const e = err as EngineError;
+    return {
+      status: 422,
+      code: e.code,
+      message: e.message,
+      engine: true,
+      ...(e.details ? { details: e.details as Record<string, unknown> } : {}),
+    };
+  }
+  throw err;
+}
+
+/** Starts taking jobs. `config` defaults to the environment's (MW_REDIS_URL, MW_EVAL_*). */
+export async function startJobWorker(
+  config: QueueConfig = loadQueueConfig(),
+  log: Logger = createLogger(true),
+): Promise<JobWorker> {
+  const pool = createEvaluationPool({
+    threads: 1,
+    timeLimitMs: config.timeLimitMs,
+    memoryLimitMb: config.memoryLimitMb,
+    maxQueue: 4,
+  });
+  const active = new Map<string, Active>();
+
+  const subscriber = redisConnection(config.redisUrl, true);
+  await subscriber.subscribe(cancelChannel(config.prefix));
+  subscriber.on('message', (_channel: string, jobId: string) => {
+    const job = active.get(jobId);
+    if (job) {
+      job.stoppedBy ??= 'cancel';
+      job.controller.abort();
+    }
+  });
+
+  const rssLimit = config.rssLimitMb * 2 ** 20;
+  let rssTripped = false;
+  const watchdog = setInterval(() => {
+    if (process.memoryUsage.rss() <= rssLimit) return;
+    if (active.size === 0) {
+      if (rssTripped) {
+        log.error(
+          `worker ${process.pid}: resident memory stays above ${config.rssLimitMb} MB; exiting`,
+        );
+        process.exit(1);
+      }
+      return;
+    }
+    rssTripped = true;
+    for (const job of active.values()) {
+      job.stoppedBy ??= 'memory';
+      job.controller.abort();
+    }
+  }, 250);
+  watchdog.unref();
+
+  const processor = async (job: Job<JobData, JobReply>): Promise<JobReply> => {
+    const data = job.data;
+    if (data.kind === 'describe') {
+      try {
+        const shape: MatrixAnalysis = await pool.describeMatrixFile(
+          data.text,
+          data.format,
+          data.name,
+        );
+        return { ok: true, shape };
+      } catch (err) {
+        return { ok: false, error: refusalOf(err) };
+      }
+    }
+    const state: Active = { controller: new AbortController(), stoppedBy: null, last: null };
+    active.set(job.id!, state);
+    try {
+      const results = await pool.run(data.sheet, data.uploads, {
+        signal: state.controller.signal,
+        timeLimitMs: data.timeLimitMs,
+        onProgress: (progress) => {
+          state.last = progress;
+          void job.updateProgress(progress as unknown as object).catch(() => {});
+        },
+      });
+      return { ok: true, results };
+    } catch (err) {
+      if (state.stoppedBy === 'memory') {
+        const limit = new AppError(
+          422,
+          'SHEET_LIMIT',
+          `The evaluation made its worker pass the ${config.rssLimitMb} MB memory limit of a worker process (MW_WORKER_RSS_MB) and was stopped. Reduce the size of the matrices in the sheet.`,
+        );
+        return { ok: false, error: refusalOf(inBlock(limit, state.last)) };
+      }
+      return { ok: false, error: refusalOf(err) };
+    } finally {
+      active.delete(job.id!);
+    }
+  };
+
+  const worker = new Worker<JobData, JobReply>(QUEUE_NAME, processor, {
+    connection: redisConnection(config.redisUrl, true),
+    prefix: config.prefix,
+    // Named so that a job says which process on which machine took it.
+    name: `${hostname()}:${process.pid}`,
+    concurrency: 1,
+    stalledInterval: config.stalledIntervalMs,
+    lockDuration: config.stalledIntervalMs,
+    maxStalledCount: 1,
+  });
+  worker.on('error', (e) => log.error('queue worker', e));
+  await worker.waitUntilReady();
+
+  return {
+    close: async () => {
+      clearInterval(watchdog);
+      await worker.close(true);
+      await pool.close();
+      subscriber.disconnect();
+    },
+  };
+}
+
+/** `npm run worker`: one worker process until SIGINT/SIGTERM (or its supervisor goes away). */
+async function main(): Promise<void> {
+  const log = createLogger(true);
+  const config = loadQueueConfig();
+  const worker = await startJobWorker(config, log);
+  process.stdout.write(
+    `Modewright worker ${process.pid} taking jobs from ${config.redisUrl} (queue ${config.prefix})\n`,
+  );
+  let stopping = false;
+  const stop = () => {
+    if (stopping) return;
+    stopping = true;
+    worker.close().then(
+      () => process.exit(0),
+      () => process.exit(1),
+    );
+  };
+  process.on('SIGINT', stop);
+  process.on('SIGTERM', stop);
+  // Forked by the supervisor of `npm start`: go when it goes.
+  if (process.send) process.on('disconnect', stop);
+}
+
+const isEntry = process.argv[1] !== undefined && /job-worker\.(ts|js)$/.test(process.argv[1]);
+if (isEntry) {
+  main().catch((e: unknown) => {
+    process.stderr.write(
+      `Modewright worker could not start: ${e instanceof Error ? e.message : String(e)}\n`,
+    );
+    process.exit(1);
+  });
+}
