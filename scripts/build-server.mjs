@@ -29,7 +29,7 @@ const entryPoints = {
   'dense-helper.worker': 'api/workers/dense-helper.worker.ts',
   solve: 'scripts/solve.ts',
 };
-const sourceDirs = ['api', 'core', 'shared'];
+const sourceDirs = ['api', 'core'];
 const sourceFiles = ['scripts/solve.ts', 'scripts/build-server.mjs', 'package-lock.json'];
 
 /** The newest modification time of the sources, ms. */
