@@ -29,11 +29,11 @@ export function AppShell({ user, children }: { user: User; children: ReactNode }
       </a>
       <header className="border-b border-rule bg-paper-sheet">
         <div className="mx-auto flex max-w-6xl flex-wrap items-center justify-between gap-3 px-6 py-3">
-          <div className="flex items-center gap-6">
+          <div className="flex flex-wrap items-center gap-x-6 gap-y-2">
             <Link to={paths.projects.href()} aria-label="Modewright, projects">
               <Wordmark />
             </Link>
-            <nav aria-label="Main" className="flex items-center gap-1">
+            <nav aria-label="Main" className="flex flex-wrap items-center gap-1">
               <NavLink to={paths.projects.href()} end className={navClass}>
                 Projects
               </NavLink>

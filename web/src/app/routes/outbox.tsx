@@ -1,6 +1,7 @@
 import { Section } from '../../components/ui/section';
 import { OutboxList } from '../../features/outbox/components/outbox-list';
 import { useSignedInUser } from './use-user';
+import { useDocumentTitle } from '../../lib/use-document-title';
 
 /**
  * The mail the local fake transport kept when no SMTP server is configured: everyone reads what
@@ -8,6 +9,7 @@ import { useSignedInUser } from './use-user';
  */
 export function OutboxRoute() {
   const user = useSignedInUser();
+  useDocumentTitle(user.isAdmin ? 'Outbox' : 'Your mail');
   return (
     <Section title={user.isAdmin ? 'Outbox' : 'Your mail'}>
       <p className="mb-3 text-sm text-ink-soft">

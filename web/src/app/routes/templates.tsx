@@ -2,9 +2,11 @@ import { Section } from '../../components/ui/section';
 import { paths } from '../../config/paths';
 import { FirmTemplatesTable } from '../../features/sheets/components/firm-templates-table';
 import { useSignedInUser } from './use-user';
+import { useDocumentTitle } from '../../lib/use-document-title';
 
 /** The firm's own sheet templates, beside the built-in ones "new sheet" offers. */
 export function TemplatesRoute() {
+  useDocumentTitle('Firm templates');
   const user = useSignedInUser();
   return (
     <Section title="Firm templates">

@@ -16,6 +16,7 @@ import {
 import { UNIT_SYSTEM_LABELS, type UnitSystem } from '../../../../../core/display-units';
 import { hunkRows, remarkThreads } from '../lib/hunk-rows';
 import { changeValues } from '../lib/shown-values';
+import { useDocumentTitle } from '../../../lib/use-document-title';
 
 const count = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
 
@@ -61,6 +62,7 @@ export function CompareView({
   revisionHref: (revisionId: number) => string;
 }) {
   const choices = useRevisionChoices(sheetId);
+  useDocumentTitle('Compare revisions');
   const list = choices.data ?? [];
   const last = list.at(-1);
   const fromId = from ?? (list.length >= 2 ? (list.at(-2)?.id ?? null) : (last?.id ?? null));
@@ -336,40 +338,47 @@ function UnitsNote({ comparison }: { comparison: Comparison }) {
 function ResultTable({ rows, comparison }: { rows: ResultChange[]; comparison: Comparison }) {
   const system = shownSystem(comparison);
   return (
-    <table className="w-full border-collapse text-sm">
-      <thead>
-        <tr className="border-b border-rule text-left text-xs text-ink-soft">
-          <th className="py-1 pr-3">Block</th>
-          <th className="py-1 pr-3">Result</th>
-          <th className="py-1 pr-3">Was</th>
-          <th className="py-1 pr-3">Now</th>
-          <th className="py-1 pr-3">Change</th>
-        </tr>
-      </thead>
-      <tbody>
-        {rows.map((r) => {
-          const shown = changeValues(r, system);
-          return (
-            <tr key={`${r.blockId}-${r.key}`} className="border-b border-rule/60">
-              <td className="py-1 pr-3 text-xs whitespace-nowrap">
-                {blockName(comparison, r.blockId)}
-              </td>
-              <td className="py-1 pr-3">{r.key}</td>
-              <td className="py-1 pr-3 font-mono text-xs" title={r.old ?? undefined}>
-                {shown.old}
-              </td>
-              <td className="py-1 pr-3 font-mono text-xs" title={r.new ?? undefined}>
-                {shown.new}
-              </td>
-              <td className="py-1 pr-3 font-mono text-xs">
-                {r.relativeChange === null
-                  ? '—'
-                  : `${r.relativeChange >= 0 ? '+' : '−'}${Math.abs(r.relativeChange * 100).toPrecision(3)} %`}
-              </td>
-            </tr>
-          );
-        })}
-      </tbody>
-    </table>
+    <div
+      className="max-w-full overflow-x-auto"
+      role="region"
+      aria-label="Results that changed (scrolls sideways)"
+      tabIndex={0}
+    >
+      <table className="w-full border-collapse text-sm">
+        <thead>
+          <tr className="border-b border-rule text-left text-xs text-ink-soft">
+            <th className="py-1 pr-3">Block</th>
+            <th className="py-1 pr-3">Result</th>
+            <th className="py-1 pr-3">Was</th>
+            <th className="py-1 pr-3">Now</th>
+            <th className="py-1 pr-3">Change</th>
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map((r) => {
+            const shown = changeValues(r, system);
+            return (
+              <tr key={`${r.blockId}-${r.key}`} className="border-b border-rule/60">
+                <td className="py-1 pr-3 text-xs whitespace-nowrap">
+                  {blockName(comparison, r.blockId)}
+                </td>
+                <td className="py-1 pr-3">{r.key}</td>
+                <td className="py-1 pr-3 font-mono text-xs" title={r.old ?? undefined}>
+                  {shown.old}
+                </td>
+                <td className="py-1 pr-3 font-mono text-xs" title={r.new ?? undefined}>
+                  {shown.new}
+                </td>
+                <td className="py-1 pr-3 font-mono text-xs">
+                  {r.relativeChange === null
+                    ? '—'
+                    : `${r.relativeChange >= 0 ? '+' : '−'}${Math.abs(r.relativeChange * 100).toPrecision(3)} %`}
+                </td>
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
+    </div>
   );
 }

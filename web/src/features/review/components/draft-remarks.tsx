@@ -101,7 +101,7 @@ function PendingRemark({ remark, where }: { remark: Remark; where: string }) {
       >
         {where}, line {remark.line}
       </button>
-      <span className="min-w-0 flex-1">
+      <span className="min-w-0 grow basis-64">
         {remark.text} <span className="text-xs text-ink-faint">— {remark.author.name}</span>
         {last ? (
           <span className="block text-xs text-ink-soft">

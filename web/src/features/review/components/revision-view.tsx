@@ -25,6 +25,7 @@ import {
 import { RemarkCard } from './remark-card';
 import { RemarkForm } from './remark-form';
 import { SpreadsheetButton } from './spreadsheet-button';
+import { useDocumentTitle } from '../../../lib/use-document-title';
 
 const countRemarks = (n: number) => `${n} remark${n === 1 ? '' : 's'}`;
 
@@ -55,6 +56,11 @@ export function RevisionView({
   sealAction?: (revision: RevisionDetail) => ReactNode;
 }) {
   const revision = useRevision(revisionId);
+  useDocumentTitle(
+    revision.data
+      ? `${revision.data.sheet.number} Rev ${revision.data.number}`
+      : `Revision ${revisionId}`,
+  );
   const remarks = useRemarks(revisionId);
 
   if (revision.isPending) return <Spinner label="Loading the revision…" />;
