@@ -167,15 +167,23 @@ describe('POST /api/firm-templates', () => {
 });
 
 describe('GET /api/firm-templates', () => {
-  it('refuses a signed-out request with 401 and lists the templates for anyone signed in', async () => {
+  it('refuses a signed-out request with 401, lists the templates for the firm engineers, and refuses a viewer or a person on no project with 403', async () => {
     expect((await (await anonymous(t.app)).get('/api/firm-templates')).status).toBe(401);
     const name = `Listed ${unique()}`;
     await save(author, { sheetId: sheet.id, name });
-    const res = await outsider.get('/api/firm-templates');
-    expect(res.status).toBe(200);
-    const listed = res.body.templates.find((x: { name: string }) => x.name === name);
-    expect(listed.origin.sheetNumber).toBe(sheet.number);
-    expect(listed).not.toHaveProperty('blocks');
+    for (const client of [checker, admin]) {
+      const res = await client.get('/api/firm-templates');
+      expect(res.status).toBe(200);
+      const listed = res.body.templates.find((x: { name: string }) => x.name === name);
+      expect(listed.origin.sheetNumber).toBe(sheet.number);
+      expect(listed).not.toHaveProperty('blocks');
+    }
+    // A viewer is the client's representative; the firm's library is not hers to read.
+    for (const client of [viewer, outsider]) {
+      const res = await client.get('/api/firm-templates');
+      expect(res.status).toBe(403);
+      expect(res.body.error.message).toMatch(/for its engineers/);
+    }
   });
 });
 

@@ -51,6 +51,15 @@ export const membersRepository = {
     return group(rows)[0];
   },
 
+  /** Whether the person holds any of `roles` in any project. */
+  async holdsRoleAnywhere(db: DbOrTx, userId: number, roles: ProjectRole[]): Promise<boolean> {
+    const row = (await db('project_members')
+      .where({ user_id: userId })
+      .whereIn('role', roles)
+      .first('user_id')) as { user_id: number } | undefined;
+    return row !== undefined;
+  },
+
   async rolesOf(db: DbOrTx, projectId: number, userId: number): Promise<ProjectRole[]> {
     const rows: { role: ProjectRole }[] = await db('project_members')
       .select('role')

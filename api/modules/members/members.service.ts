@@ -22,6 +22,14 @@ export const membersService = {
     return membersRepository.listByProject(db, projectId);
   },
 
+  /**
+   * Whether the person works for the firm on some project: author, checker or principal there
+   * (a viewer, the client's representative, is not).
+   */
+  isFirmEngineer(db: Db, userId: number): Promise<boolean> {
+    return membersRepository.holdsRoleAnywhere(db, userId, ['author', 'checker', 'principal']);
+  },
+
   rolesOf(db: Db, projectId: number, userId: number): Promise<ProjectRole[]> {
     return membersRepository.rolesOf(db, projectId, userId);
   },

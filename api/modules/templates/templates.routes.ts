@@ -18,8 +18,8 @@ import { templatesService } from './templates.service';
 export function createTemplatesRouter(ctx: AppContext): Router {
   const router = Router();
 
-  router.get('/firm-templates', requireSignedIn, async (_req, res) => {
-    res.json({ templates: await templatesService.list(ctx) });
+  router.get('/firm-templates', requireSignedIn, async (req, res) => {
+    res.json({ templates: await templatesService.list(ctx, currentUser(req)) });
   });
 
   router.post('/firm-templates', requireSignedIn, async (req, res) => {

@@ -2,6 +2,7 @@ import { isDuplicateKeyError } from '../../db/index';
 import type { AppContext } from '../../http/context';
 import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from '../../http/errors';
 import { activityService } from '../activity/activity.service';
+import { membersService } from '../members/members.service';
 import { revisionAccess } from '../revisions/revisions.service';
 import type { SheetBlock, SheetSettings } from '../sheets/sheets.repository';
 import { sheetsService, type SheetDetail } from '../sheets/sheets.service';
@@ -65,7 +66,13 @@ async function sourceOf(ctx: AppContext, user: User, input: SaveTemplateBody) {
 
 export const templatesService = {
   /** The firm's templates, for anyone signed in (starting a sheet still needs authorship). */
-  list(ctx: AppContext): Promise<FirmTemplateSummary[]> {
+  /** The firm's templates, for its engineers (an admin, or an author, checker or principal). */
+  async list(ctx: AppContext, user: User): Promise<FirmTemplateSummary[]> {
+    if (!user.isAdmin && !(await membersService.isFirmEngineer(ctx.db, user.id))) {
+      throw new ForbiddenError(
+        "The firm's templates are for its engineers: you hold no author, checker or principal role in any project.",
+      );
+    }
     return templatesRepository.list(ctx.db);
   },
 

@@ -4,6 +4,7 @@ import { Button } from '../../components/ui/button';
 import { Alert } from '../../components/ui/alert';
 import { paths } from '../../config/paths';
 import { useSignOut } from '../../features/auth/api/sign-out';
+import { useProjects } from '../../features/projects/api/get-projects';
 import { SearchBox } from '../../features/search/components/search-box';
 import type { User } from '../../types/api';
 import { Caution } from './caution';
@@ -18,6 +19,11 @@ const navClass = ({ isActive }: { isActive: boolean }) =>
 export function AppShell({ user, children }: { user: User; children: ReactNode }) {
   const signOut = useSignOut();
   const navigate = useNavigate();
+  // The firm's templates are for its engineers: an admin, or an author, checker or principal of
+  // some project (not a client's viewer).
+  const projects = useProjects();
+  const engineer =
+    user.isAdmin || (projects.data ?? []).some((p) => p.myRoles.some((r) => r !== 'viewer'));
 
   return (
     <div className="flex min-h-screen flex-col">
@@ -37,9 +43,11 @@ export function AppShell({ user, children }: { user: User; children: ReactNode }
               <NavLink to={paths.projects.href()} end className={navClass}>
                 Projects
               </NavLink>
-              <NavLink to={paths.templates.href()} className={navClass}>
-                Templates
-              </NavLink>
+              {engineer ? (
+                <NavLink to={paths.templates.href()} className={navClass}>
+                  Templates
+                </NavLink>
+              ) : null}
               {user.isAdmin ? (
                 <NavLink to={paths.admin.href()} className={navClass}>
                   Admin
