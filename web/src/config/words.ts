@@ -5,8 +5,9 @@ export const CAUTION =
   'Results must be verified by a qualified engineer; built-in criteria do not replace the codes ' +
   'adopted by the authority having jurisdiction or licensed professional judgement.';
 
-export const PROJECT_ROLES = ['author', 'checker', 'principal', 'viewer'] as const;
-export type ProjectRole = (typeof PROJECT_ROLES)[number];
+import { PROJECT_ROLES, type ProjectRole } from '../../../core/vocabulary';
+
+export { PROJECT_ROLES, type ProjectRole };
 
 export const ROLE_LABELS: Record<ProjectRole, string> = {
   author: 'Author',

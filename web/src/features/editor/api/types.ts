@@ -1,14 +1,13 @@
 // The shapes the sheets API sends (the sheets contract). Times are ISO-8601 UTC strings.
 import type { UnitSystem } from '../../../../../core/display-units';
 
-export const BLOCK_KINDS = ['text', 'calc', 'matrix', 'modes', 'response', 'criteria'] as const;
-export type BlockKind = (typeof BLOCK_KINDS)[number];
+import { BLOCK_KINDS, type BlockKind, type SheetStatus } from '../../../../../core/vocabulary';
+
+export { BLOCK_KINDS, type BlockKind, type SheetStatus };
 
 export type Block = { id: string; kind: BlockKind; source: string };
 export type DraftSettings = { significantFigures: number; units?: UnitSystem };
 export type Draft = { blocks: Block[]; settings: DraftSettings };
-
-export type SheetStatus = 'draft' | 'in_check' | 'returned' | 'checked' | 'sealed';
 
 export type SheetDetail = {
   id: number;

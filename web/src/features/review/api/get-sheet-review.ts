@@ -2,13 +2,14 @@
 // it never overwrites the editor's copy of the draft.
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
+import type { SheetStatus } from '../../../../../core/vocabulary';
 
 export type SheetReviewInfo = {
   id: number;
   projectId: number;
   number: string;
   title: string;
-  status: 'draft' | 'in_check' | 'returned' | 'checked' | 'sealed';
+  status: SheetStatus;
   latestRevision: { id: number; number: number; status: string } | null;
   projectJobNumber: string;
   projectName: string;

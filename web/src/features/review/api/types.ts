@@ -2,7 +2,9 @@
 import type { SheetResults } from '../../../components/results';
 
 export type PersonRef = { id: number; name: string };
-export type RevisionStatus = 'in_check' | 'returned' | 'checked' | 'sealed' | 'superseded';
+import type { RevisionStatus } from '../../../../../core/vocabulary';
+
+export type { RevisionStatus };
 
 export type RevisionSummary = {
   id: number;

@@ -1,4 +1,6 @@
-export type SheetStatus = 'draft' | 'in_check' | 'returned' | 'checked' | 'sealed';
+import type { SheetStatus } from '../../../../../core/vocabulary';
+
+export type { SheetStatus };
 
 export type SheetSummary = {
   id: number;
