@@ -18,7 +18,7 @@ export function Table({
     return (
       <div className="min-w-0">
         <div
-          className="max-w-full overflow-x-auto overscroll-x-contain"
+          className="relative max-w-full overflow-x-auto overscroll-x-contain"
           role="region"
           aria-label={`${caption} (scrolls sideways)`}
           tabIndex={0}
@@ -35,7 +35,7 @@ export function Table({
     );
   }
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className="w-full border-collapse text-left text-sm">
         <caption className="sr-only">{caption}</caption>
         {children}
