@@ -96,6 +96,20 @@ describe('results by digest', () => {
     expect(runs).toBe(before + 1);
   });
 
+  it('issues an unchanged draft for check from the store', async () => {
+    const draft = await author.get(`/api/sheets/${sheetId}`);
+    const saved = await author.agent
+      .put(`/api/sheets/${sheetId}/draft`)
+      .set('X-CSRF-Token', author.csrfToken)
+      .set('If-Match', `"${draft.body.sheet.draftVersion}"`)
+      .send({ blocks: blocks('100 kN/mm'), settings: { significantFigures: 4 } });
+    expect(saved.status).toBe(200);
+    const before = runs;
+    const res = await author.post(`/api/sheets/${sheetId}/revisions`, { purpose: 'For check' });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect(runs).toBe(before);
+  });
+
   it('re-runs afresh on the path sealing takes, whatever is stored', async () => {
     const sheet = { blocks: blocks('100 kN/mm'), settings: { significantFigures: 4 } } as never;
     const before = runs;

@@ -101,13 +101,14 @@ const MAX_STORED_CHARS = 8 * 2 ** 20;
  * and engine, is answered from the store and not recomputed; otherwise evaluated and stored
  * when its results are free of sheet errors (an error may hang on a worker's limits, which are
  * not in the key).
- * Seals do not come here: they always re-run afresh (evaluateWithUploads).
+ * The editor and issue for check come here; seals and comparisons do not: they always re-run
+ * afresh (evaluateWithUploads), and a seal compares its fresh results with the revision's.
  */
-async function evaluateStored(
+export async function evaluateStored(
   ctx: Pick<AppContext, 'db' | 'runner'>,
   sheetId: number,
   sheet: Sheet,
-  options: RunOptions,
+  options: RunOptions = {},
 ): Promise<SheetEvaluation> {
   const uploads = await uploadsService.textsForSheet(ctx.db, sheetId);
   const digest = resultsDigest(sheet, uploads);
