@@ -48,8 +48,16 @@ export interface QueueConfig {
    * and the demo queue never mix.
    */
   prefix: string;
-  /** Time limit of one evaluation, ms (MW_EVAL_TIME_LIMIT_MS, default 30 000). */
+  /**
+   * Time limit of one evaluation bound to a request (POST /evaluate, its stream, issue and seal)
+   * and of an upload's parse, ms (MW_EVAL_TIME_LIMIT_MS, default 30 000).
+   */
   timeLimitMs: number;
+  /**
+   * Time limit of an evaluation in the background (the editor's long solves, not bound to a
+   * request), ms (MW_SOLVE_TIME_LIMIT_MS, default 30 minutes).
+   */
+  solveTimeLimitMs: number;
   /** Heap limit of each worker's evaluation thread, MB (MW_EVAL_MEMORY_MB, default 512). */
   memoryLimitMb: number;
   /** Resident memory of a worker process beyond which its job is stopped, MB (MW_WORKER_RSS_MB). */
@@ -76,6 +84,7 @@ export function loadQueueConfig(dbName = process.env.MW_DB_NAME ?? 'modewright')
     redisUrl: process.env.MW_REDIS_URL || `redis://127.0.0.1:${intFromEnv('MW_REDIS_PORT', 6407)}`,
     prefix: process.env.MW_QUEUE_PREFIX || `mw:${dbName}`,
     timeLimitMs: intFromEnv('MW_EVAL_TIME_LIMIT_MS', 30_000),
+    solveTimeLimitMs: intFromEnv('MW_SOLVE_TIME_LIMIT_MS', 30 * 60_000),
     memoryLimitMb,
     rssLimitMb: intFromEnv('MW_WORKER_RSS_MB', 2 * memoryLimitMb + 512),
     maxQueue: intFromEnv('MW_EVAL_MAX_QUEUE', 64),

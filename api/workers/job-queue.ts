@@ -335,16 +335,17 @@ export function createJobQueue(config: QueueConfig, log: Logger): JobQueue {
     }
   }
 
-  const evaluateData = (sheet: Sheet, uploads: SheetUpload[]): JobData => ({
+  /** A job's data; `background` jobs (not bound to a request) have the long solve limit. */
+  const evaluateData = (sheet: Sheet, uploads: SheetUpload[], background: boolean): JobData => ({
     kind: 'evaluate',
     sheet,
     uploads,
-    timeLimitMs: config.timeLimitMs,
+    timeLimitMs: background ? config.solveTimeLimitMs : config.timeLimitMs,
   });
 
   const runner: SheetRunner = async (sheet, uploads, options) => {
     if (options.signal?.aborted) throw cancelled();
-    const jobId = await enqueue(evaluateData(sheet, uploads), options.owner);
+    const jobId = await enqueue(evaluateData(sheet, uploads, false), options.owner);
     const reply = (await follow(jobId, { ...options, cancelOnAbort: true })) as EvaluateJobReply;
     if (!reply.ok) throw refusalError(reply.error);
     return reply.results as SheetResults;
@@ -392,7 +393,7 @@ export function createJobQueue(config: QueueConfig, log: Logger): JobQueue {
   }
 
   const evaluations: DetachedEvaluations = {
-    start: (sheet, uploads, owner) => enqueue(evaluateData(sheet, uploads), owner),
+    start: (sheet, uploads, owner) => enqueue(evaluateData(sheet, uploads, true), owner),
     latest: async (owner) => {
       const jobId = await connection.get(latestKey(owner));
       return jobId ? view(jobId) : null;

@@ -12,12 +12,15 @@
 //    in its own process, for its own peak memory) against scipy's solve alone, and ml-matrix for
 //    dense n ≤ 1000.
 // --baseline times the command line of another checkout (with its own node_modules) in the same
-// alternation, as a before/after column of the first table. Not part of npm test.
+// alternation, as a before/after column of the first table. --queue adds the evaluation queue's
+// table (./queue.ts; needs Redis: `npm run redis:start`), --queue-only prints it alone. Not part
+// of npm test.
 import { execFileSync, spawnSync } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { loadavg, cpus } from 'node:os';
 import { join } from 'node:path';
 import { PROBLEMS } from './problems';
+import { benchQueue } from './queue';
 import { benchUsersPath, type UsersPathResult } from './users-path';
 
 const args = process.argv.slice(2);
@@ -31,6 +34,8 @@ const usersOnly = args.includes('--users-only');
 const kernelOnly = args.includes('--kernel-only');
 const baselineAt = args.indexOf('--baseline');
 const baselineRoot = baselineAt >= 0 ? (args[baselineAt + 1] ?? null) : null;
+const queueOnly = args.includes('--queue-only');
+const withQueue = queueOnly || args.includes('--queue');
 const outDir = 'bench-results';
 mkdirSync(outDir, { recursive: true });
 
@@ -76,9 +81,11 @@ function median(xs: number[]): number {
   return s[Math.floor(s.length / 2)]!;
 }
 
-const selected = PROBLEMS.filter((p) =>
-  only ? only.includes(p.name) : quick ? p.quick : large ? true : !p.large,
-);
+const selected = queueOnly
+  ? []
+  : PROBLEMS.filter((p) =>
+      only ? only.includes(p.name) : quick ? p.quick : large ? true : !p.large,
+    );
 const rows: string[] = [];
 const userRows: string[] = [];
 const userDetails: string[] = [];
@@ -206,11 +213,12 @@ for (const p of selected) {
   details.push(`- **${p.name}**: ${extra.join('; ')}. Engine notes: ${r.notes.join(' ')}`);
   console.log(rows[rows.length - 1]);
 }
+const queueLines = withQueue ? await benchQueue(runsOverride ?? 20) : [];
 const load1 = loadavg();
 const table = [
   `Machine: ${cpus().length} × ${cpus()[0]?.model ?? 'cpu'}, Node ${process.version}; load average at start ${load0.map((l) => l.toFixed(2)).join(' ')}, at end ${load1.map((l) => l.toFixed(2)).join(' ')}.`,
   '',
-  ...(kernelOnly
+  ...(kernelOnly || queueOnly
     ? []
     : [
         "## The users' path: whole processes",
@@ -230,7 +238,7 @@ const table = [
         ...userDetails,
         '',
       ]),
-  ...(usersOnly
+  ...(usersOnly || queueOnly
     ? []
     : [
         '## Kernels inside one process',
@@ -246,8 +254,9 @@ const table = [
         ...details,
         '',
       ]),
+  ...queueLines,
 ].join('\n');
-writeFileSync(join(outDir, 'bench.md'), table);
+writeFileSync(join(outDir, queueOnly ? 'queue.md' : 'bench.md'), table);
 console.log('\n' + table);
 
 function userRow(name: string, n: number, kind: 'sparse' | 'dense', u: UsersPathResult): string {

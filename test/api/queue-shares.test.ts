@@ -25,7 +25,13 @@ let clients: Record<'author' | 'checker' | 'principal' | 'outsider', ApiClient>;
 let jobs: JobQueue;
 const sheets: number[] = [];
 
-const draft = (source: string) => ({ blocks: [{ id: 'c', kind: 'calc', source }], settings });
+// Each text carries this run's tag, so that no result stored by an earlier run answers it (the
+// results store answers an unchanged text without a job).
+const run = `${process.pid}-${Date.now()}`;
+const draft = (source: string) => ({
+  blocks: [{ id: 'c', kind: 'calc', source: `${source}  # run ${run}` }],
+  settings,
+});
 
 async function waitingCount(): Promise<number> {
   const counts = await jobs.queue.getJobCounts('waiting', 'prioritized');

@@ -6,7 +6,8 @@ import { startWorkerProcess, type WorkerProcess } from '../support/worker-proces
 
 // The evaluation queue with worker processes of its own (a queue prefix no other test uses):
 // two workers with 64 MB evaluation threads and a 2 s stalled-job check; one API side whose jobs
-// have a 3 s time limit and one whose jobs have two minutes.
+// have a 3 s time limit and one whose jobs have two minutes; one whose jobs bound to a request
+// have 1 ms and whose background evaluations have two minutes.
 
 const prefix = `mw:test-workers-${process.pid}-${Date.now()}`;
 const workerEnv = { MW_QUEUE_PREFIX: prefix, MW_EVAL_MEMORY_MB: '64', MW_QUEUE_STALLED_MS: '2000' };
@@ -16,6 +17,7 @@ const log = createLogger(false);
 let workers: WorkerProcess[] = [];
 let short: JobQueue;
 let long: JobQueue;
+let split: JobQueue;
 
 // Slow enough to meet a 3 s limit on any machine (seven products of 800×800 matrices, about
 // 3.6e9 floating-point operations) while small in memory.
@@ -30,12 +32,14 @@ beforeAll(async () => {
   const base = loadQueueConfig('modewright_test');
   short = createJobQueue({ ...base, prefix, timeLimitMs: 3000 }, log);
   long = createJobQueue({ ...base, prefix, timeLimitMs: 120_000 }, log);
+  split = createJobQueue({ ...base, prefix, timeLimitMs: 1, solveTimeLimitMs: 120_000 }, log);
 }, 120_000);
 
 afterAll(async () => {
   await long?.queue.obliterate({ force: true }).catch(() => {});
   await short?.close();
   await long?.close();
+  await split?.close();
   await Promise.all(workers.map((w) => w.stop()));
 });
 
@@ -83,6 +87,28 @@ describe('evaluation jobs in worker processes', () => {
       details: { blockId: 'mem' },
     });
     for (const w of workers) expect(w.child.exitCode).toBeNull();
+  });
+
+  it('gives a background evaluation the long solve limit, and a request-bound one the short limit', async () => {
+    // Two products of 200×200 matrices: far more than 1 ms of work, far less than two minutes.
+    const sheet = {
+      blocks: [{ id: 'p', kind: 'calc', source: 'A = ones(200, 200)\nB = A * A * A\nb = B[1, 1]' }],
+      settings,
+    } as never;
+    const owner = { userId: 1, projectId: 1, sheetId: 1 };
+    await expect(split.runner(sheet, [], {})).rejects.toMatchObject({
+      code: 'SHEET_LIMIT',
+      message: expect.stringMatching(/longer than the 0\.001 s limit/),
+    });
+    const jobId = await split.evaluations.start(sheet, [], owner);
+    const job = await split.queue.getJob(jobId);
+    expect(job!.data.timeLimitMs).toBe(120_000);
+    await split.evaluations.follow(jobId, {});
+    const view = await split.evaluations.view(jobId);
+    expect(view).toMatchObject({ state: 'done' });
+    // b = (A·A·A)[1,1] with A the 200×200 ones: 200² = 40 000 (closed form, exact).
+    const values = JSON.stringify(view!.state === 'done' ? view!.results : null);
+    expect(values).toContain('40000');
   });
 
   it('cancels a running job when the caller goes away; the worker takes the next', async () => {

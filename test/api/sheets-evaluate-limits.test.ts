@@ -42,6 +42,18 @@ const sheet = {
   ],
   settings: { significantFigures: 4 },
 };
+/**
+ * `sheet` with a comment of its own in the data block: a text no evaluation has stored, so that it
+ * is evaluated by the pool and not answered from the results store.
+ */
+function fresh(label: string) {
+  const [intro, data, ...rest] = sheet.blocks;
+  return {
+    ...sheet,
+    blocks: [intro, { ...data!, source: `${data!.source}  # ${label} ${unique()}` }, ...rest],
+  };
+}
+
 // f₁ = √(k/2m)/(2π) with k = 50e6 N/m, m = 100e3 kg.
 const f1 = Math.sqrt(50e6 / (2 * 100e3)) / (2 * Math.PI);
 // Slow enough to meet the time limit on any machine (seven products of 800×800 matrices, about
@@ -87,10 +99,10 @@ afterAll(async () => {
 const evaluate = (body: unknown) => client.post(`/api/sheets/${sheetId}/evaluate`, body);
 
 describe('POST /api/sheets/:sheetId/evaluate, the limits', () => {
-  let first: { digests: { canonicalText: string; results: string } };
+  let first: { results: { blocks: { modes: { frequency: number }[] }[] } };
 
   it('evaluates a sheet with all five block kinds in a worker', async () => {
-    const res = await evaluate(sheet);
+    const res = await evaluate(fresh('first'));
     expect(res.status).toBe(200);
     expect(res.body.results.errors).toEqual([]);
     expect(res.body.results.summary).toEqual({ passed: 2, failed: 0, errors: 0 });
@@ -100,14 +112,14 @@ describe('POST /api/sheets/:sheetId/evaluate, the limits', () => {
     first = res.body;
   });
 
-  it('stops a huge matrix expression at the time limit, answers 429 when the queue is full, and keeps serving with the same digests after the worker restart', async () => {
+  it('stops a huge matrix expression at the time limit, answers 429 when the queue is full, and keeps serving the same results after the worker restart', async () => {
     // One thread and a queue of one: the huge expression runs, the next sheet waits, the third
     // request is refused with 429 and a retry hint.
     const huge = evaluate(heavy).then((r) => r);
     await new Promise((r) => setTimeout(r, 300));
-    const queued = evaluate(sheet).then((r) => r);
+    const queued = evaluate(fresh('queued')).then((r) => r);
     await new Promise((r) => setTimeout(r, 300));
-    const refused = await evaluate(sheet);
+    const refused = await evaluate(fresh('refused'));
     expect(refused.status).toBe(429);
     expect(refused.body.error.code).toBe('RATE_LIMITED');
     expect(Number(refused.headers['retry-after'])).toBeGreaterThanOrEqual(1);
@@ -115,10 +127,10 @@ describe('POST /api/sheets/:sheetId/evaluate, the limits', () => {
     expect(res.status).toBe(422);
     expect(res.body.error.code).toBe('SHEET_LIMIT');
     expect(res.body.error.message).toMatch(/longer than the 5 s limit/);
-    // The terminated worker is replaced; the queued sheet gives byte-identical digests.
+    // The terminated worker is replaced; the queued sheet gives bit-identical frequencies.
     const again = await queued;
     expect(again.status).toBe(200);
-    expect(again.body.digests).toEqual(first.digests);
+    expect(again.body.results.blocks[3].modes).toEqual(first.results.blocks[3]!.modes);
   });
 
   it('stops an evaluation at the memory limit, replaces the worker and keeps serving', async () => {
@@ -126,9 +138,9 @@ describe('POST /api/sheets/:sheetId/evaluate, the limits', () => {
     expect(res.status).toBe(422);
     expect(res.body.error.code).toBe('SHEET_LIMIT');
     expect(res.body.error.message).toMatch(/more than the 64 MB memory limit/);
-    const again = await evaluate(sheet);
+    const again = await evaluate(fresh('after memory'));
     expect(again.status).toBe(200);
-    expect(again.body.digests).toEqual(first.digests);
+    expect(again.body.results.blocks[3].modes).toEqual(first.results.blocks[3]!.modes);
   });
 
   it('stops a matrix above the size limit before allocating it', async () => {

@@ -112,9 +112,10 @@ describe('POST /api/sheets/:sheetId/evaluate on the worker pool, under its memor
       },
       { id: 'solve', kind: 'modes', source: 'stiffness: frame.K\nmass: frame.M\nmethod: dense' },
     ];
-    // Warm the worker, then count the threads started from here on.
+    // Warm the worker (a text of its own, which no stored result answers), then count the
+    // threads started from here on.
     const warm = await author.post(`/api/sheets/${sheet.id}/evaluate`, {
-      blocks: [{ id: 'x', kind: 'calc', source: 'x = 1 m' }],
+      blocks: [{ id: 'x', kind: 'calc', source: `x = 1 m  # warm ${Date.now()}` }],
       settings: { significantFigures: 4 },
     });
     expect(warm.status).toBe(200);

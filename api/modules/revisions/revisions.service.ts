@@ -202,7 +202,7 @@ export const revisionsService = {
     const latestBefore = await revisionsRepository.findLatest(db, sheetId);
     refuseWhileInReview(latestBefore);
 
-    const evaluation = await sheetsService.evaluate(ctx, sheetId, sheet);
+    const evaluation = await sheetsService.evaluateStored(ctx, sheetId, sheet);
     const firstError = evaluation.results.errors[0];
     if (firstError) {
       throw new AppError(

@@ -1,4 +1,14 @@
-import { digestSheet, type Sheet, type SheetDigests, type SheetResults } from '../../../core/index';
+import { createHash } from 'node:crypto';
+import {
+  canonicalJson,
+  canonicalText,
+  digestSheet,
+  ENGINE_VERSION,
+  type Sheet,
+  type SheetDigests,
+  type SheetResults,
+  type SheetUpload,
+} from '../../../core/index';
 import type { DbOrTx } from '../../db/index';
 import type { AppContext } from '../../http/context';
 import { AppError } from '../../http/errors';
@@ -6,6 +16,7 @@ import type { DetachedEvaluations, EvaluationJobView } from '../../workers/job-q
 import type { RunOptions } from '../../workers/sheet-runner';
 import { uploadsService } from '../uploads/uploads.service';
 import type { User } from '../users/users.repository';
+import { sheetsResultsRepository } from './sheets-results.repository';
 import type { DraftBody } from './sheets.schemas';
 
 /**
@@ -37,8 +48,21 @@ export async function evaluateWithUploads(
   db: DbOrTx = ctx.db,
 ): Promise<SheetEvaluation> {
   const uploads = await uploadsService.textsForSheet(db, sheetId);
+  return evaluateLoaded(ctx, sheet, uploads, options);
+}
+
+async function evaluateLoaded(
+  ctx: Pick<AppContext, 'runner'>,
+  sheet: Sheet,
+  uploads: SheetUpload[],
+  options: RunOptions,
+): Promise<SheetEvaluation> {
   const results = await ctx.runner(sheet, uploads, options);
   if (options.signal?.aborted) throw cancelledError();
+  return frozen(sheet, results);
+}
+
+function frozen(sheet: Sheet, results: SheetResults): SheetEvaluation {
   const d = digestSheet(sheet, results);
   return {
     results,
@@ -47,6 +71,59 @@ export async function evaluateWithUploads(
     digests: d.digests,
     engineVersion: d.engineVersion,
   };
+}
+
+const sha256 = (text: string) => createHash('sha256').update(text, 'utf8').digest('hex');
+
+/**
+ * The key results are stored under: the SHA-256 of the canonical JSON of the sheet's canonical
+ * text, its settings, the name and SHA-256 of each upload, and the engine version. Anything that
+ * changes the results changes one of these.
+ */
+export function resultsDigest(sheet: Sheet, uploads: SheetUpload[]): string {
+  return sha256(
+    canonicalJson({
+      text: canonicalText(sheet),
+      settings: sheet.settings,
+      uploads: uploads
+        .map((u) => ({ name: u.name, sha256: sha256(u.text) }))
+        .sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0)),
+      engine: ENGINE_VERSION,
+    }),
+  );
+}
+
+/** The largest results kept in the store (characters of canonical JSON); larger are recomputed. */
+const MAX_STORED_CHARS = 8 * 2 ** 20;
+
+/**
+ * Evaluates through the results store: a sheet evaluated before, unchanged with the same uploads
+ * and engine, is answered from the store and not recomputed; otherwise evaluated and stored
+ * when its results are free of sheet errors (an error may hang on a worker's limits, which are
+ * not in the key).
+ * The editor and issue for check come here; seals and comparisons do not: they always re-run
+ * afresh (evaluateWithUploads), and a seal compares its fresh results with the revision's.
+ */
+export async function evaluateStored(
+  ctx: Pick<AppContext, 'db' | 'runner'>,
+  sheetId: number,
+  sheet: Sheet,
+  options: RunOptions = {},
+): Promise<SheetEvaluation> {
+  const uploads = await uploadsService.textsForSheet(ctx.db, sheetId);
+  const digest = resultsDigest(sheet, uploads);
+  const stored = await sheetsResultsRepository.find(ctx.db, digest);
+  if (stored !== null) return frozen(sheet, JSON.parse(stored) as SheetResults);
+  const evaluation = await evaluateLoaded(ctx, sheet, uploads, options);
+  if (evaluation.results.errors.length === 0 && evaluation.resultsJson.length <= MAX_STORED_CHARS) {
+    await sheetsResultsRepository.save(
+      ctx.db,
+      digest,
+      evaluation.engineVersion,
+      evaluation.resultsJson,
+    );
+  }
+  return evaluation;
 }
 
 /**
@@ -63,7 +140,7 @@ export async function evaluateSheetDraft(
   const { projectId } = await ctx.access.sheet(user, sheetId, 'sheet.read');
   const sheet: Sheet = { blocks: input.blocks, settings: input.settings };
   // The editor's evaluations are the person's own: the queue's fair shares apply to them.
-  const { results, digests, engineVersion } = await evaluateWithUploads(ctx, sheetId, sheet, {
+  const { results, digests, engineVersion } = await evaluateStored(ctx, sheetId, sheet, {
     ...options,
     owner: { userId: user.id, projectId, sheetId },
   });

@@ -7,7 +7,7 @@ import type { AppContext } from '../../http/context';
 import { AppError, ConflictError, NotFoundError } from '../../http/errors';
 import { activityService } from '../activity/activity.service';
 import type { User } from '../users/users.repository';
-import { evaluateWithUploads } from './sheets.evaluate';
+import { evaluateStored, evaluateWithUploads } from './sheets.evaluate';
 import {
   countRevisions,
   deleteSheet,
@@ -285,6 +285,9 @@ export const sheetsService = {
 
   /** Evaluates a sheet with the uploads of sheet `sheetId`, frozen into canonical forms. */
   evaluate: evaluateWithUploads,
+
+  /** As `evaluate`, answered from the results store when the same text was evaluated before. */
+  evaluateStored,
 };
 
 /** The If-Match refusal: the header names the version the edit started from. */
