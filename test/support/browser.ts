@@ -78,7 +78,13 @@ export async function launchBrowser(): Promise<BrowserSession> {
       // Leave the app first: a request still in flight (a sheet page's evaluation) could set the
       // session cookie again after it was cleared.
       await page.goto('about:blank');
-      await context.clearCookies();
+      // A response already under way when the page left may still set the cookie: clear until
+      // the store stays empty.
+      for (let attempt = 0; attempt < 10; attempt++) {
+        await context.clearCookies();
+        await page.waitForTimeout(150);
+        if ((await context.cookies()).length === 0) break;
+      }
     },
     async close() {
       await context.close();
