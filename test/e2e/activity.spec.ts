@@ -1,28 +1,13 @@
 // The project's activity in sentences: the checker reads who did what to which sheet and
 // revision, by number and line, not by database id (demo scenario of seeds/03_demo_review.ts).
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import {
-  demoPeople,
-  demoProjects,
-  launchBrowser,
-  saveScreenshot,
-  signInAs,
-  type BrowserSession,
-} from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import { demoPeople, demoProjects, useSignedInBrowser, saveScreenshot } from '../support/browser';
 
 describe('project activity (browser)', () => {
-  let tomasz: BrowserSession;
-
-  beforeAll(async () => {
-    tomasz = await launchBrowser();
-    await signInAs(tomasz.page, demoPeople.tomasz);
-  });
-  afterAll(async () => {
-    await tomasz?.close();
-  });
+  const tomaszSession = useSignedInBrowser(demoPeople.tomasz);
 
   it('names sheets, revisions and lines, and shows no ids or raw keys', async () => {
-    const { page } = tomasz;
+    const { page } = tomaszSession();
     await page.getByRole('link', { name: demoProjects.footbridge.name }).click();
     const list = page.getByRole('list', { name: 'Activity' });
     await list.waitFor();

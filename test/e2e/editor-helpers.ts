@@ -4,13 +4,11 @@
 import { mkdir } from 'node:fs/promises';
 import path from 'node:path';
 import type { Locator, Page } from 'playwright-core';
-import { afterAll, afterEach, beforeAll, expect } from 'vitest';
+import { expect } from 'vitest';
 import {
   demoPeople,
   demoProjects,
-  launchBrowser,
-  saveScreenshot,
-  signInAs,
+  useSignedInBrowser,
   type BrowserSession,
 } from '../support/browser';
 
@@ -187,25 +185,7 @@ export async function shotPath(name: string): Promise<string> {
  * work asks first, and the tests always leave; a failed test leaves a screenshot.
  */
 export function useAuthorBrowser(): () => BrowserSession {
-  let ines: BrowserSession | undefined;
-  beforeAll(async () => {
-    ines = await launchBrowser();
-    ines.context.on('page', (p) => p.on('dialog', (d) => void d.accept()));
-    ines.page.on('dialog', (d) => void d.accept());
-    await signInAs(ines.page, demoPeople.ines);
-  });
-  afterEach(async ({ task }) => {
-    if (ines && task.result?.state === 'fail') {
-      await saveScreenshot(ines.page, `failed-${task.name.slice(0, 40)}`);
-    }
-  });
-  afterAll(async () => {
-    await ines?.close();
-  });
-  return () => {
-    if (!ines) throw new Error('The browser is not started yet.');
-    return ines;
-  };
+  return useSignedInBrowser(demoPeople.ines);
 }
 
 /** The sheet id in an editor address (`/projects/3/sheets/17` → 17). */

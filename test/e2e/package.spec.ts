@@ -8,15 +8,13 @@ import { execFileSync } from 'node:child_process';
 import { writeFile } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import {
   baseUrl,
   demoPeople,
   demoProjects,
-  launchBrowser,
+  useSignedInBrowser,
   saveScreenshot,
-  signInAs,
-  type BrowserSession,
 } from '../support/browser';
 
 function pdfPages(file: string): number {
@@ -33,18 +31,10 @@ function pdfText(file: string): string {
 const occurrences = (text: string, needle: string) => text.split(needle).length - 1;
 
 describe('calculation package (browser)', () => {
-  let lena: BrowserSession;
-
-  beforeAll(async () => {
-    lena = await launchBrowser();
-    await signInAs(lena.page, demoPeople.lena);
-  });
-  afterAll(async () => {
-    await lena?.close();
-  });
+  const lenaSession = useSignedInBrowser(demoPeople.lena);
 
   it('binds the sealed sheets, adds a chosen revision, and prints one PDF with pages numbered across it', async () => {
-    const { page } = lena;
+    const { page } = lenaSession();
     await page
       .getByRole('table', { name: 'Projects' })
       .getByRole('link', { name: demoProjects.footbridge.name })
@@ -122,7 +112,7 @@ describe('calculation package (browser)', () => {
   });
 
   it('shows the package at phone width', async () => {
-    const { page } = lena;
+    const { page } = lenaSession();
     await page.setViewportSize({ width: 390, height: 844 });
     await page.reload();
     await page.getByRole('region', { name: 'Cover' }).waitFor();

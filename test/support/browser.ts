@@ -4,8 +4,8 @@ import { existsSync } from 'node:fs';
 import { mkdir, mkdtemp, rm } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
+import { afterAll, afterEach, beforeAll, inject } from 'vitest';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
-import { inject } from 'vitest';
 
 declare module 'vitest' {
   export interface ProvidedContext {
@@ -142,4 +142,30 @@ export async function saveScreenshot(page: Page, name: string): Promise<string> 
       : { fullPage: true, clip: { x: 0, y: 0, width, height: 2400 } }),
   });
   return file;
+}
+
+/**
+ * One browser for a describe block, signed in as `person` before its tests (dialogs accepted), a
+ * screenshot of a failed test, closed after them; the returned function gives the session.
+ */
+export function useSignedInBrowser(person: { email: string; name: string }): () => BrowserSession {
+  let browser: BrowserSession | undefined;
+  beforeAll(async () => {
+    browser = await launchBrowser();
+    browser.context.on('page', (p) => p.on('dialog', (d) => void d.accept()));
+    browser.page.on('dialog', (d) => void d.accept());
+    await signInAs(browser.page, person);
+  });
+  afterEach(async ({ task }) => {
+    if (browser && task.result?.state === 'fail') {
+      await saveScreenshot(browser.page, `failed-${task.name.slice(0, 40)}`);
+    }
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+  return () => {
+    if (!browser) throw new Error('The browser is not started yet.');
+    return browser;
+  };
 }
