@@ -1,6 +1,14 @@
 // The words the server stores and the client shows, written once. This module imports nothing,
 // so the client may import it (values and types) without pulling server or engine code.
 
+/**
+ * Block ids the editor makes (`b` and 12 hex digits) mean nothing to a reader; ids an author or a
+ * template gave (`deck-data`) do, and are worth showing.
+ */
+export function isGeneratedBlockId(id: string): boolean {
+  return /^b[0-9a-f]{12}$/.test(id);
+}
+
 /** The kinds of block (DESIGN.md §4); `response` runs an analysis on a modes result above it. */
 export const BLOCK_KINDS = ['text', 'calc', 'matrix', 'modes', 'response', 'criteria'] as const;
 export type BlockKind = (typeof BLOCK_KINDS)[number];

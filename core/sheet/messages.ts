@@ -6,6 +6,7 @@ import type { MathNode, Unit } from 'mathjs';
 import { EngineError, isEngineError } from '../errors';
 import { FORBIDDEN_NAMES, type SheetMath } from './math';
 import type { SheetLocation } from './types';
+import { isGeneratedBlockId } from '../vocabulary';
 
 export interface MessageContext {
   sm: SheetMath;
@@ -57,7 +58,7 @@ export function suggestName(name: string, names: Iterable<string>): string | nul
  */
 export function blockName(at: Pick<SheetLocation, 'blockId' | 'blockIndex'>): string {
   const place = `block ${at.blockIndex + 1}`;
-  return /^b[0-9a-f]{12}$/.test(at.blockId) ? place : `${place} ("${at.blockId}")`;
+  return isGeneratedBlockId(at.blockId) ? place : `${place} ("${at.blockId}")`;
 }
 
 /** Explains why `name` is not known at this point. */

@@ -1,8 +1,8 @@
 import type { MailMessage } from '../../mail/mailer';
 import type { SheetContext } from '../sheets/sheets.repository';
+import { isGeneratedBlockId } from '../../../core/vocabulary';
 
 /** Generated block ids (b + 12 hex digits) mean nothing to a reader; named ones do. */
-const GENERATED_ID = /^b[0-9a-f]{12}$/;
 
 /**
  * A block as the reader of a mail knows it: "block 2 (calc)", with the id the author gave it
@@ -14,7 +14,7 @@ export function blockLabel(
 ): string {
   const i = blocks.findIndex((b) => b.id === blockId);
   if (i < 0) return `block ${blockId}`;
-  const named = GENERATED_ID.test(blockId) ? '' : `, ${blockId}`;
+  const named = isGeneratedBlockId(blockId) ? '' : `, ${blockId}`;
   return `block ${i + 1} (${blocks[i]!.kind}${named})`;
 }
 

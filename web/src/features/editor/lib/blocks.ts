@@ -1,5 +1,5 @@
 import { BLOCK_REFERENCE } from '../../../config/sheet-reference';
-import { BLOCK_KINDS, type Block, type BlockKind, type Draft } from '../api/types';
+import { BLOCK_KINDS, type Block, type BlockKind } from '../api/types';
 
 /** A fresh block id, stable across revisions once saved (its shape: lib/block-ids.ts). */
 export function newBlockId(): string {
@@ -19,10 +19,6 @@ export function moveBlock(blocks: readonly Block[], from: number, to: number): B
   const [moved] = next.splice(from, 1);
   if (moved) next.splice(to, 0, moved);
   return next;
-}
-
-export function sameDraft(a: Draft, b: Draft): boolean {
-  return JSON.stringify(a) === JSON.stringify(b);
 }
 
 /**
