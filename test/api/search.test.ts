@@ -115,9 +115,10 @@ describe('GET /api/search', () => {
   });
 
   it('finds the block and line of a word in the draft’s text and calc sources, by word start', async () => {
-    const text = await search(viewer, word('footfall'));
+    const text = await search(author, word('footfall'));
     expect(text.body.results).toHaveLength(1);
     expect(text.body.results[0].place).toEqual({
+      revision: null,
       blockId: 'intro',
       blockIndex: 1,
       blockKind: 'text',
@@ -125,8 +126,26 @@ describe('GET /api/search', () => {
       text: `The ${word('footfall')} rate is assumed.`,
     });
     // A prefix finds the whole word (boolean mode's trailing *).
-    const calc = await search(viewer, word('bearingpad').slice(0, -2));
-    expect(calc.body.results[0].place).toMatchObject({ blockId: 'masses', blockIndex: 2, line: 2 });
+    const calc = await search(checker, word('bearingpad').slice(0, -2));
+    expect(calc.body.results[0].place).toMatchObject({
+      revision: null,
+      blockId: 'masses',
+      blockIndex: 2,
+      line: 2,
+    });
+  });
+
+  it('gives a viewer, who may not read the draft, the place in the newest revision', async () => {
+    const text = await search(viewer, word('footfall'));
+    expect(text.body.results).toHaveLength(1);
+    expect(text.body.results[0].place).toEqual({
+      revision: { id: revisionId, number: 1 },
+      blockId: 'intro',
+      blockIndex: 1,
+      blockKind: 'text',
+      line: 2,
+      text: `The ${word('footfall')} rate is assumed.`,
+    });
   });
 
   it('finds a sheet by its exact number, though its tokens are too short to index', async () => {
@@ -233,6 +252,13 @@ describe('GET /api/search', () => {
     expect(res.status).toBe(200);
     const after = await search(author, word('retrofit'));
     expect(after.body.results[0].place).toMatchObject({ blockId: 'later', blockIndex: 3, line: 1 });
+    // Only in the unissued draft: not the viewer's to find, by text or by place.
+    const viewers = await search(viewer, word('retrofit'));
+    expect(viewers.status).toBe(200);
+    expect(viewers.body.results).toEqual([]);
+    // The title is hers to read; the draft's line is not, so the result has no place.
+    const byTitle = await search(viewer, `${word('quaywobble')} ${word('retrofit')}`);
+    expect(byTitle.body.results).toEqual([]);
   });
 
   it('uses the full-text index rather than reading every row', async () => {

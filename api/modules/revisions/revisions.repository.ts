@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import type { DbOrTx } from '../../db/index';
+import { readJson, type DbOrTx } from '../../db/index';
 
 export type RevisionStatus = 'in_check' | 'returned' | 'checked' | 'sealed' | 'superseded';
 
@@ -197,6 +197,34 @@ export const revisionsRepository = {
       .orderBy('r.number', 'desc')
       .first()) as RevisionRow | undefined;
     return row ? toRecord(row) : undefined;
+  },
+
+  /** The blocks of the newest revision of each sheet named, keyed by sheet id. */
+  async latestBlocksOf(
+    db: DbOrTx,
+    sheetIds: readonly number[],
+  ): Promise<Map<number, { id: number; number: number; blocks: RevisionBlock[] }>> {
+    const out = new Map<number, { id: number; number: number; blocks: RevisionBlock[] }>();
+    if (sheetIds.length === 0) return out;
+    const rows = (await db('revisions as r')
+      .whereIn('r.sheet_id', sheetIds)
+      .whereRaw(
+        'r.number = (select max(r2.number) from revisions r2 where r2.sheet_id = r.sheet_id)',
+      )
+      .select('r.id', 'r.sheet_id', 'r.number', 'r.blocks')) as {
+      id: number;
+      sheet_id: number;
+      number: number;
+      blocks: unknown;
+    }[];
+    for (const r of rows) {
+      out.set(r.sheet_id, {
+        id: r.id,
+        number: r.number,
+        blocks: readJson<RevisionBlock[]>(r.blocks),
+      });
+    }
+    return out;
   },
 
   async findSheetIdOf(db: DbOrTx, id: number): Promise<number | undefined> {
