@@ -1,3 +1,5 @@
+import { placeQuery } from '../lib/place';
+
 // Every client-side address in one place, so links and redirects agree.
 export const paths = {
   signIn: {
@@ -24,12 +26,20 @@ export const paths = {
   templates: { path: '/templates', href: () => '/templates' },
   sheet: {
     path: '/projects/:projectId/sheets/:sheetId',
-    href: (projectId: number | string, sheetId: number | string) =>
-      `/projects/${projectId}/sheets/${sheetId}`,
+    /** With a place: the editor opens on that line of that block (lib/place.ts). */
+    href: (
+      projectId: number | string,
+      sheetId: number | string,
+      place?: { blockId: string; line: number },
+    ) => `/projects/${projectId}/sheets/${sheetId}${place ? placeQuery(place) : ''}`,
   },
   revision: {
     path: '/revisions/:revisionId',
-    href: (revisionId: number | string) => `/revisions/${revisionId}`,
+    /** With a place: the line (and the remark, if one is named) marked and in view. */
+    href: (
+      revisionId: number | string,
+      place?: { blockId: string; line: number; remarkId?: number },
+    ) => `/revisions/${revisionId}${place ? placeQuery(place) : ''}`,
   },
   print: {
     path: '/revisions/:revisionId/print',

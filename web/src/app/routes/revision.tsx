@@ -5,6 +5,7 @@ import { useRevision } from '../../features/review/api/get-revision';
 import { RevisionView } from '../../features/review/components/revision-view';
 import { SaveTemplate } from '../../features/sheets/components/save-template';
 import { SealDialog } from '../../features/seal/components/seal-dialog';
+import { useGoToPlace } from '../../lib/use-go-to-place';
 import { useSignedInUser } from './use-user';
 
 /** A revision, read-only, with its remarks; the checker's and principal's actions. */
@@ -15,6 +16,8 @@ export function RevisionRoute() {
   const valid = Number.isInteger(revisionId) && revisionId > 0;
   // The view's own query (cached): whether this person may save the revision as a firm template.
   const rev = useRevision(revisionId, valid).data;
+  // `?block=…&line=…[&remark=…]` (a search result, a shared link): that line, that remark.
+  useGoToPlace('revision');
   if (!Number.isInteger(revisionId) || revisionId <= 0) {
     return (
       <Alert title="No such revision.">

@@ -7,6 +7,7 @@ import { paths } from '../../config/paths';
 import { useSheet } from '../../features/editor/api/get-sheet';
 import { useDraftRemarkMarks } from '../../features/review/api/pending-remarks';
 import { SaveTemplate } from '../../features/sheets/components/save-template';
+import { useGoToPlace } from '../../lib/use-go-to-place';
 import { useSignedInUser } from './use-user';
 import {
   IssueForCheck,
@@ -28,6 +29,8 @@ export function SheetRoute() {
   const user = useSignedInUser();
   // The editor's own query (cached): whether this person may save the draft as a firm template.
   const sheet = useSheet(valid ? sheetId : 0);
+  // `?block=…&line=…` (a search result, a shared link): the editor opens on that line.
+  useGoToPlace('editor');
   if (!valid) {
     return (
       <Alert title="No such sheet.">

@@ -1,28 +1,9 @@
 import { Link } from 'react-router-dom';
 import { QueryError } from '../../../components/ui/alert';
+import { goToEditorLine } from '../../../lib/editor-line';
 import { useRevision } from '../api/get-revision';
 import { usePendingRemarks } from '../api/pending-remarks';
 import { REMARK_STATE_LABELS, REMARK_TYPE_LABELS, type Remark } from '../api/types';
-
-/**
- * Puts the cursor of the draft's editor on a line of a block, found by the block's id (the
- * editor marks each block card with data-block-id); false when the draft no longer has the block.
- */
-async function goToLine(blockId: string, line: number): Promise<boolean> {
-  const card = document.querySelector<HTMLElement>(`[data-block-id="${CSS.escape(blockId)}"]`);
-  const content = card?.querySelector<HTMLElement>('.cm-content');
-  if (!card || !content) return false;
-  card.scrollIntoView({ block: 'center' });
-  // The editor is loaded already when its blocks are on the page; this only reaches it.
-  const { EditorView } = await import('@codemirror/view');
-  const view = EditorView.findFromDOM(content);
-  if (!view) return false;
-  const doc = view.state.doc;
-  const target = doc.line(Math.min(Math.max(1, line), doc.lines));
-  view.dispatch({ selection: { anchor: target.from }, scrollIntoView: true });
-  view.focus();
-  return true;
-}
 
 /**
  * The remarks of the latest revision that are not closed, above the draft: what the author has
@@ -95,7 +76,7 @@ function PendingRemark({ remark, where }: { remark: Remark; where: string }) {
       </span>
       <button
         type="button"
-        onClick={() => void goToLine(remark.blockId, remark.line)}
+        onClick={() => void goToEditorLine(remark.blockId, remark.line)}
         className="text-xs text-accent-strong underline underline-offset-2"
         aria-label={`Go to ${where}, line ${remark.line} in the draft`}
       >

@@ -26,6 +26,7 @@ import { RemarkCard } from './remark-card';
 import { RemarkForm } from './remark-form';
 import { SpreadsheetButton } from './spreadsheet-button';
 import { useDocumentTitle } from '../../../lib/use-document-title';
+import { revisionBlockId, revisionLineId } from '../../../lib/use-go-to-place';
 
 const countRemarks = (n: number) => `${n} remark${n === 1 ? '' : 's'}`;
 
@@ -468,7 +469,7 @@ function Blocks({
         return (
           <section
             key={block.id}
-            id={`block-${block.id}`}
+            id={revisionBlockId(block.id)}
             aria-label={label}
             className="rounded-sm border border-rule bg-paper-sheet shadow-sheet"
           >
@@ -502,7 +503,7 @@ function Blocks({
                 const here = byLine.get(`${block.id}:${line}`) ?? [];
                 const unclosed = here.filter((r) => r.state !== 'closed').length;
                 return (
-                  <li key={line} id={`line-${block.id}-${line}`} data-line={line}>
+                  <li key={line} id={revisionLineId(block.id, line)} data-line={line}>
                     <div
                       className={`flex ${here.length > 0 ? (unclosed > 0 ? 'bg-fail-soft/50' : 'bg-pass-soft/40') : ''}`}
                     >
@@ -646,7 +647,9 @@ function RemarkList({
             me={me}
             onShow={() =>
               document
-                .getElementById(r.line === 0 ? `block-${r.blockId}` : `line-${r.blockId}-${r.line}`)
+                .getElementById(
+                  r.line === 0 ? revisionBlockId(r.blockId) : revisionLineId(r.blockId, r.line),
+                )
                 ?.scrollIntoView({ block: 'center' })
             }
           />

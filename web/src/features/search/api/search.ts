@@ -8,7 +8,9 @@ export type SheetResult = {
   project: ProjectRef;
   sheet: { id: number; number: string; title: string; subject: string };
   fields: ('number' | 'title' | 'subject')[];
+  /** In the draft (`revision` null), or in the newest revision for a viewer. */
   place: {
+    revision: { id: number; number: number } | null;
     blockId: string;
     blockIndex: number;
     blockKind: string;

@@ -74,15 +74,20 @@ function Where({ project, sheet }: { project: SheetResult['project']; sheet: { n
   );
 }
 
+/** Where a sheet result goes: the line in the draft, or in the revision a viewer reads. */
+function sheetResultHref({ project, sheet, place }: SheetResult): string {
+  if (!place) return paths.sheet.href(project.id, sheet.id);
+  return place.revision
+    ? paths.revision.href(place.revision.id, place)
+    : paths.sheet.href(project.id, sheet.id, place);
+}
+
 function SheetItem({ result }: { result: SheetResult }) {
   const { place } = result;
   return (
     <li className="flex flex-col gap-1 py-3">
       <Where project={result.project} sheet={result.sheet} />
-      <Link
-        to={paths.sheet.href(result.project.id, result.sheet.id)}
-        className="font-medium text-accent-strong hover:underline"
-      >
+      <Link to={sheetResultHref(result)} className="font-medium text-accent-strong hover:underline">
         {result.sheet.number} — {result.sheet.title}
       </Link>
       {result.fields.length > 0 ? (
@@ -96,7 +101,7 @@ function SheetItem({ result }: { result: SheetResult }) {
       {place ? (
         <span className="text-sm">
           <span className="text-ink-soft">
-            Draft, block {place.blockIndex} ({place.blockKind}), line {place.line}:
+            {`${place.revision ? `Rev ${place.revision.number}` : 'Draft'}, block ${place.blockIndex} (${place.blockKind}), line ${place.line}:`}
           </span>{' '}
           <code className="font-mono text-xs break-all">{place.text}</code>
         </span>
@@ -110,7 +115,11 @@ function RemarkItem({ result }: { result: RemarkResult }) {
     <li className="flex flex-col gap-1 py-3">
       <Where project={result.project} sheet={result.sheet} />
       <Link
-        to={paths.revision.href(result.revision.id)}
+        to={paths.revision.href(result.revision.id, {
+          blockId: result.blockId,
+          line: result.line,
+          remarkId: result.remarkId,
+        })}
         className="font-medium text-accent-strong hover:underline"
       >
         {result.sheet.number} Rev {result.revision.number} —{' '}
