@@ -10,7 +10,9 @@ import os from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import {
+  A4_WIDTH_PX,
   baseUrl,
+  paperWidths,
   demoPeople,
   demoProjects,
   useSignedInBrowser,
@@ -32,6 +34,8 @@ const occurrences = (text: string, needle: string) => text.split(needle).length 
 
 describe('calculation package (browser)', () => {
   const lenaSession = useSignedInBrowser(demoPeople.lena);
+  /** Pages of the browser's own print at desktop width, for the phone's print to match. */
+  let desktopPrintPages = 0;
 
   it('binds the sealed sheets, adds a chosen revision, and prints one PDF with pages numbered across it', async () => {
     const { page } = lenaSession();
@@ -105,18 +109,43 @@ describe('calculation package (browser)', () => {
     await writeFile(own, await page.pdf({ preferCSSPageSize: true, printBackground: true }));
     await page.emulateMedia({ media: 'screen' });
     const ownPages = pdfPages(own);
+    desktopPrintPages = ownPages;
     const ownText = pdfText(own);
     expect(ownText).toContain(`Page ${ownPages} of ${ownPages}`);
     expect(occurrences(ownText, sealCode)).toBeGreaterThanOrEqual(3);
     expect(ownText).not.toContain('Download PDF');
   });
 
-  it('shows the package at phone width', async () => {
+  it('shows the whole A4 page at phone width without sideways scrolling, and prints the same pages', async () => {
     const { page } = lenaSession();
     await page.setViewportSize({ width: 390, height: 844 });
     await page.reload();
     await page.getByRole('region', { name: 'Cover' }).waitFor();
+    await page.locator('[data-package-state="ready"]').waitFor();
+    const phone = await paperWidths(page);
+    expect(phone.page).toBeLessThanOrEqual(390);
+    // Still laid out as A4 (±1 px of rounding), only drawn smaller to fit the width.
+    expect(Math.abs(phone.paper - A4_WIDTH_PX)).toBeLessThanOrEqual(1);
+    expect(phone.shown).toBeLessThanOrEqual(390);
+    // The controls above the paper keep their own size (compared with the desktop's below).
+    const button = page.getByRole('button', { name: 'Print or save as PDF' });
+    const phoneButton = (await button.boundingBox())!.height;
     await saveScreenshot(page, 'package-390');
+
+    // Paper is paper: printed from the phone, the same A4 pages as from the desktop.
+    expect(desktopPrintPages).toBeGreaterThan(0);
+    await page.emulateMedia({ media: 'print' });
+    const own = path.join(os.tmpdir(), `modewright-package-390-${Date.now()}.pdf`);
+    await writeFile(own, await page.pdf({ preferCSSPageSize: true, printBackground: true }));
+    await page.emulateMedia({ media: 'screen' });
+    expect(pdfPages(own)).toBe(desktopPrintPages);
+
+    await page.setViewportSize({ width: 1366, height: 860 });
+    const desktop = await paperWidths(page);
+    expect(desktop.page).toBeLessThanOrEqual(1366);
+    expect(Math.abs(desktop.shown - A4_WIDTH_PX)).toBeLessThanOrEqual(1);
+    expect(Math.abs(phoneButton - (await button.boundingBox())!.height)).toBeLessThanOrEqual(1);
+    await saveScreenshot(page, 'package-1366');
     await page.setViewportSize({ width: 1280, height: 860 });
   });
 });

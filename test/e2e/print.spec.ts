@@ -8,7 +8,7 @@ import { mkdtemp, readFile } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { saveScreenshot } from '../support/browser';
+import { A4_WIDTH_PX, paperWidths, saveScreenshot } from '../support/browser';
 import { openDemoRevision, useAuthorBrowser } from './editor-helpers';
 
 describe('print view (browser)', () => {
@@ -89,5 +89,23 @@ describe('print view: page numbers and the record of the check (browser)', () =>
     expect(at('Check remarks on Rev 2')).toBeGreaterThan(at('Calculation'));
     expect(at('Caution.')).toBeGreaterThan(at('Check remarks on Rev 2'));
     await saveScreenshot(page, 'print-dyn-01-remarks');
+
+    // At phone width the A4 page is shown whole (laid out 210 mm wide, drawn to fit) with no
+    // sideways scrolling, and printing from the phone gives the same pages.
+    await page.setViewportSize({ width: 390, height: 844 });
+    const phone = await paperWidths(page);
+    expect(phone.page).toBeLessThanOrEqual(390);
+    expect(Math.abs(phone.paper - A4_WIDTH_PX)).toBeLessThanOrEqual(1); // ±1 px of rounding
+    expect(phone.shown).toBeLessThanOrEqual(390);
+    await saveScreenshot(page, 'print-dyn-01-390');
+    const small = path.join(path.dirname(pdf), 'dyn-01-390.pdf');
+    await page.emulateMedia({ media: 'print' });
+    await page.pdf({ path: small, format: 'A4', preferCSSPageSize: true });
+    await page.emulateMedia({ media: 'screen' });
+    const smallPages = execFileSync('pdftotext', ['-layout', small, '-'], { encoding: 'utf8' })
+      .split('\f')
+      .filter((p) => p.trim() !== '');
+    expect(smallPages.length).toBe(pages.length);
+    await page.setViewportSize({ width: 1280, height: 860 });
   });
 });

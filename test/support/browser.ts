@@ -169,3 +169,23 @@ export function useSignedInBrowser(person: { email: string; name: string }): () 
     return browser;
   };
 }
+
+/** An A4 sheet's width in CSS pixels: 210 mm at 96 px to the inch (CSS Values 4, absolute units). */
+export const A4_WIDTH_PX = (210 * 96) / 25.4;
+
+/**
+ * The page's laid-out width, and the print preview's paper (`.mw-print`): its width in its own
+ * layout and the width it is drawn at on the screen.
+ */
+export async function paperWidths(
+  page: Page,
+): Promise<{ page: number; paper: number; shown: number }> {
+  return page.evaluate(() => {
+    const paper = document.querySelector<HTMLElement>('.mw-print')!;
+    return {
+      page: document.documentElement.scrollWidth,
+      paper: paper.offsetWidth,
+      shown: paper.getBoundingClientRect().width,
+    };
+  });
+}

@@ -8,6 +8,7 @@ import { packagePdfHref, usePackage, type CalculationPackage } from '../api/get-
 import { RevisionPages, STATUS } from './print-view';
 import { RemarksRecord } from './remarks-record';
 import { SealQr } from './seal-qr';
+import { useFitToWidth } from '../lib/use-fit-to-width';
 
 const day = (iso: string | null) => (iso ? formatUtc(iso).slice(0, 10) : '—');
 
@@ -30,6 +31,7 @@ export function PackageView({
   verifyUrl: (path: string) => string;
 }) {
   const pkg = usePackage(projectId, revisions);
+  const fitRef = useFitToWidth();
   const [qrDone, setQrDone] = useState<ReadonlySet<string>>(new Set());
   const onQrReady = useCallback(
     (url: string) => setQrDone((done) => (done.has(url) ? done : new Set([...done, url]))),
@@ -51,6 +53,7 @@ export function PackageView({
 
   return (
     <div
+      ref={fitRef}
       className="mw-print mx-auto max-w-[210mm] bg-white p-6 shadow-sheet"
       data-package-state={ready ? 'ready' : 'composing'}
     >

@@ -12,6 +12,7 @@ import { pageMarginCss } from '../lib/page-margins';
 import { RemarksRecord, type PrintRemarks } from './remarks-record';
 import './print.css';
 import { DIGEST_WORDS } from '../../../config/digests';
+import { useFitToWidth } from '../lib/use-fit-to-width';
 
 // Markdown's own elements at print sizes (the base styles reset them).
 const PRINTED_MARKDOWN = [
@@ -88,6 +89,7 @@ export function PrintView({
   remarks: PrintRemarks;
 }) {
   const print = usePrint(revisionId);
+  const fitRef = useFitToWidth();
   if (print.isPending) return <Spinner label="Composing the calculation package…" />;
   if (print.isError) {
     return <QueryError what="the package" error={print.error} onRetry={() => print.refetch()} />;
@@ -96,10 +98,10 @@ export function PrintView({
   const r = pkg.revision;
 
   return (
-    <div className="mw-print mx-auto max-w-[210mm] bg-white p-6 shadow-sheet">
+    <div ref={fitRef} className="mw-print mx-auto max-w-[210mm] bg-white p-6 shadow-sheet">
       {/* the page numbers sit in the page's margin, right above the title block of each page */}
       <style>{pageMarginCss(`${pkg.sheet.number} · Rev ${r.number}`)}</style>
-      <div className="mw-no-print mb-4 flex items-center gap-3">
+      <div className="mw-no-print mb-4 flex flex-wrap items-center gap-3">
         <Link to={backHref} className="text-sm text-accent-strong hover:underline">
           ← Back to Rev {r.number}
         </Link>
