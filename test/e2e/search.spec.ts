@@ -179,6 +179,15 @@ describe('search (browser)', () => {
 // the author's result opens the editor on that line, the viewer's the sealed revision's line.
 describe('search results go to the line (browser)', () => {
   const query = 'handrail heating';
+
+  /** The marked place holds the searched words and the page scrolled it into view. */
+  async function expectMarked(page: Page, selector: string) {
+    await page
+      .locator(selector)
+      .getByText(/handrail heating/)
+      .waitFor();
+    expect(await inView(page, selector)).toBe(true);
+  }
   let author: BrowserSession;
   let viewer: BrowserSession;
 
@@ -201,19 +210,11 @@ describe('search results go to the line (browser)', () => {
     await page.getByRole('link', { name: /^DYN-01 — East Basin footbridge/ }).click();
     await page.waitForURL(new RegExp(`/projects/\\d+/sheets/\\d+\\?block=deck-data&line=${line}$`));
     const marked = '[data-block-id="deck-data"] .cm-line.mw-place-mark';
-    await page
-      .locator(marked)
-      .getByText(/handrail heating/)
-      .waitFor();
-    expect(await inView(page, marked)).toBe(true);
+    await expectMarked(page, marked);
     await saveScreenshot(page, 'search-place-editor-1366');
     await page.reload();
-    await page
-      .locator(marked)
-      .getByText(/handrail heating/)
-      .waitFor();
-    expect(await inView(page, marked)).toBe(true);
-    // The mark is brief; the cursor stays on the line.
+    await expectMarked(page, marked);
+    // The mark is brief.
     await page.locator(marked).waitFor({ state: 'detached', timeout: 10_000 });
   });
 
@@ -225,14 +226,9 @@ describe('search results go to the line (browser)', () => {
     await page.getByRole('link', { name: /^DYN-01 — East Basin footbridge/ }).click();
     await page.waitForURL(new RegExp(`/revisions/\\d+\\?block=deck-data&line=${line}$`));
     const marked = `li.mw-place-mark[data-line="${line}"]`;
-    await page
-      .locator(marked)
-      .getByText(/handrail heating/)
-      .waitFor();
-    expect(await inView(page, marked)).toBe(true);
+    await expectMarked(page, marked);
     await saveScreenshot(page, 'search-place-revision-390');
     await page.reload();
-    await page.locator(marked).waitFor();
-    expect(await inView(page, marked)).toBe(true);
+    await expectMarked(page, marked);
   });
 });
