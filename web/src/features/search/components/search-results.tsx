@@ -13,8 +13,9 @@ export function SearchResults({ q }: { q: string }) {
   if (!q.trim()) {
     return (
       <EmptyState title="Type what to look for">
-        Search finds sheet numbers, titles, subjects, the text and calc lines of drafts, and remark
-        threads in the projects you can open.
+        Search finds sheet numbers, titles, subjects, the text and calc lines of drafts (of issued
+        revisions, for a viewer), and remark threads in the projects you can open. A result opens on
+        its line.
       </EmptyState>
     );
   }
