@@ -35,6 +35,8 @@ export interface RevisionSummary {
   checkNote: string | null;
   /** What the checker signed the revision off for ("For construction"); null: as issued. */
   checkedPurpose: string | null;
+  /** What the principal sealed it for, when stated at the seal; null: as signed off. */
+  sealedPurpose: string | null;
 }
 
 /** A revision with everything that was frozen when it was issued, exactly as stored. */
@@ -85,6 +87,7 @@ interface RevisionRow {
   seal_code: string | null;
   check_note: string | null;
   checked_purpose: string | null;
+  sealed_purpose: string | null;
   blocks?: string;
   settings?: string;
   canonical_text?: string;
@@ -128,6 +131,7 @@ function summaryQuery(db: DbOrTx): Knex.QueryBuilder {
       's.code as seal_code',
       'r.check_note',
       'r.checked_purpose',
+      'r.sealed_purpose',
     );
 }
 
@@ -150,6 +154,7 @@ function toSummary(row: RevisionRow): RevisionSummary {
     sealCode: row.seal_code,
     checkNote: row.check_note,
     checkedPurpose: row.checked_purpose,
+    sealedPurpose: row.sealed_purpose,
   };
 }
 
@@ -260,8 +265,16 @@ export const revisionsRepository = {
     });
   },
 
-  async markSealed(db: DbOrTx, id: number, by: number, at: Date): Promise<void> {
-    await db('revisions').where({ id }).update({ status: 'sealed', sealed_by: by, sealed_at: at });
+  async markSealed(
+    db: DbOrTx,
+    id: number,
+    by: number,
+    at: Date,
+    purpose: string | null,
+  ): Promise<void> {
+    await db('revisions')
+      .where({ id })
+      .update({ status: 'sealed', sealed_by: by, sealed_at: at, sealed_purpose: purpose });
   },
 
   /** sealed -> superseded for the sheet's earlier sealed revisions (the one step the triggers allow). */

@@ -394,9 +394,15 @@ export const revisionsService = {
   /** Seal: supersede the sheet's earlier sealed revision, inside the seal's transaction. */
   supersedeEarlier: revisionsRepository.supersedeEarlier,
 
-  /** Seal: the revision is sealed, inside the seal's transaction. */
-  markSealed(trx: Trx, revisionId: number, by: number, at: Date): Promise<void> {
-    return revisionsRepository.markSealed(trx, revisionId, by, at);
+  /** Seal: the revision is sealed (with the purpose stated at the seal), in the seal's transaction. */
+  markSealed(
+    trx: Trx,
+    revisionId: number,
+    by: number,
+    at: Date,
+    purpose: string | null,
+  ): Promise<void> {
+    return revisionsRepository.markSealed(trx, revisionId, by, at, purpose);
   },
 };
 
