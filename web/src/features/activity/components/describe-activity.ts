@@ -209,6 +209,7 @@ function sealed(e: ActivityEntry, d: Details): DescribedActivity {
   return {
     text: `sealed ${revisionName(e, d)}`,
     facts: [
+      str(d.purpose),
       str(d.sealCode) ? `seal code ${String(d.sealCode)}` : null,
       short(d.digest) ? `digest ${short(d.digest)}` : null,
       superseded.length > 0 ? `supersedes Rev ${superseded.join(', ')}` : null,

@@ -26,6 +26,8 @@ export type RevisionSummary = {
   checkNote: string | null;
   /** What the checker signed the revision off for; null: as issued. */
   checkedPurpose: string | null;
+  /** What the principal sealed it for, when stated at the seal; null: as signed off. */
+  sealedPurpose: string | null;
 };
 
 export type SealView = {
