@@ -22,6 +22,7 @@ export const earlierRemark = z.strictObject({
   createdAt: isoTime,
   replies: z.array(remarkReply),
 });
+export type EarlierRemark = z.infer<typeof earlierRemark>;
 
 export const remark = z.strictObject({
   id,

@@ -3,7 +3,8 @@ import { z } from 'zod';
 import { BLOCK_KINDS } from '../vocabulary';
 import { id } from './common';
 
-const projectRef = z.strictObject({ id, jobNumber: z.string(), name: z.string() });
+export const projectRef = z.strictObject({ id, jobNumber: z.string(), name: z.string() });
+export type ProjectRef = z.infer<typeof projectRef>;
 
 /** Where in a sheet's draft the words are: a block and its line (both 1-based). */
 export const blockPlace = z.strictObject({
@@ -13,6 +14,7 @@ export const blockPlace = z.strictObject({
   line: z.number().int(),
   text: z.string(),
 });
+export type BlockPlace = z.infer<typeof blockPlace>;
 
 export const sheetSearchResult = z.strictObject({
   kind: z.literal('sheet'),

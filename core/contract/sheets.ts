@@ -109,6 +109,7 @@ export const templateOrigin = z.strictObject({
   /** Null when saved from the draft. */
   revisionNumber: z.number().int().nullable(),
 });
+export type TemplateOrigin = z.infer<typeof templateOrigin>;
 
 /** A template of the firm's library as lists show it. */
 export const firmTemplateSummary = z.strictObject({

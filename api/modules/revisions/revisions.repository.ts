@@ -1,43 +1,11 @@
 import type { Knex } from 'knex';
 import type { DbOrTx } from '../../db/index';
+import type { PersonRef } from '../../../core/contract/common';
+import type { RevisionBlock, RevisionSummary } from '../../../core/contract/revisions';
+import type { RevisionStatus } from '../../../core/vocabulary';
 
-export type RevisionStatus = 'in_check' | 'returned' | 'checked' | 'sealed' | 'superseded';
-
-export interface PersonRef {
-  id: number;
-  name: string;
-}
-
-export interface RevisionBlock {
-  id: string;
-  kind: 'text' | 'calc' | 'matrix' | 'modes' | 'response' | 'criteria';
-  source: string;
-}
-
-/** A revision without its frozen content: what lists show. */
-export interface RevisionSummary {
-  id: number;
-  sheetId: number;
-  number: number;
-  status: RevisionStatus;
-  purpose: string;
-  issuedBy: PersonRef;
-  issuedAt: string;
-  returnedBy: PersonRef | null;
-  returnedAt: string | null;
-  checkedBy: PersonRef | null;
-  checkedAt: string | null;
-  sealedBy: PersonRef | null;
-  sealedAt: string | null;
-  supersededAt: string | null;
-  sealCode: string | null;
-  /** The checker's covering note on the return or the sign-off, if one was written. */
-  checkNote: string | null;
-  /** What the checker signed the revision off for ("For construction"); null: as issued. */
-  checkedPurpose: string | null;
-  /** What the principal sealed it for, when stated at the seal; null: as signed off. */
-  sealedPurpose: string | null;
-}
+// A revision as lists show it, and its frozen blocks: the shapes are the contract's.
+export type { PersonRef, RevisionBlock, RevisionStatus, RevisionSummary };
 
 /** A revision with everything that was frozen when it was issued, exactly as stored. */
 export interface RevisionRecord extends RevisionSummary {

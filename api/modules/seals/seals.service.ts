@@ -1,4 +1,5 @@
 import type { KeyObject } from 'node:crypto';
+import type { SealResponse, SealView } from '../../../core/contract/revisions';
 import { dbNow, isDuplicateKeyError, type Db, type DbOrTx } from '../../db/index';
 import type { AppContext } from '../../http/context';
 import { AppError, NotFoundError } from '../../http/errors';
@@ -9,7 +10,6 @@ import type { User } from '../users/users.repository';
 import { usersService } from '../users/users.service';
 import { sealedMail } from '../revisions/review-mail';
 import { wrongState, type RevisionInScope } from '../revisions/revision-state';
-import type { RevisionSummary } from '../revisions/revisions.repository';
 import { lockStatusIs, revisionsService, sheetOf } from '../revisions/revisions.service';
 import { sheetsService } from '../sheets/sheets.service';
 import { generateSealCode } from './seal-code';
@@ -25,16 +25,8 @@ import {
   type StoredSigningKey,
 } from './signing-keys';
 
-/** The seal as a revision shows it. */
-export interface SealView {
-  code: string;
-  digest: string;
-  signature: string;
-  publicKey: string;
-  principal: { id: number; name: string; licenceNumber: string; jurisdiction: string };
-  sealedAt: string;
-  engineVersion: string;
-}
+/** The seal as a revision shows it: the contract's shape. */
+export type { SealView };
 
 export function sealView(seal: SealRecord): SealView {
   return {
@@ -350,7 +342,7 @@ export const sealsService = {
     user: User,
     scope: RevisionInScope,
     { password, purpose }: { password: string; purpose: string | null },
-  ): Promise<{ revision: RevisionSummary; seal: SealView }> {
+  ): Promise<SealResponse> {
     const { db } = ctx;
     const licence = checkSealable(scope.rev, user);
     const { key, privateKey } = await unlockKey(db, user, scope, password);
