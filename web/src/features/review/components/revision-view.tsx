@@ -9,7 +9,7 @@ import { EmptyState } from '../../../components/ui/empty-state';
 import { Spinner } from '../../../components/ui/spinner';
 import { DIGEST_WORDS } from '../../../config/digests';
 import { formatUtc } from '../../../lib/format';
-import type { User } from '../../../types/api';
+import type { User } from '../../../../../core/contract/people';
 import { useRemarks } from '../api/get-remarks';
 import { useRevision } from '../api/get-revision';
 import { useRevisions } from '../api/get-revisions';

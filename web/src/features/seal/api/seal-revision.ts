@@ -1,16 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 
-export type SealResponse = {
-  revision: {
-    id: number;
-    sheetId: number;
-    number: number;
-    status: string;
-    sealCode: string | null;
-  };
-  seal: { code: string; digest: string; sealedAt: string };
-};
+import type { SealResponse } from '../../../../../core/contract/revisions';
 
 /** The password typed again, and optionally what the revision is sealed for. */
 export type SealInput = { password: string; purpose?: string };
