@@ -1,7 +1,8 @@
 // Revisions, their review and their seal (/api/sheets/:id/revisions, /api/revisions/:id…).
 import { z } from 'zod';
-import { BLOCK_KINDS, REVISION_STATUSES } from '../vocabulary';
+import { REVISION_STATUSES } from '../vocabulary';
 import { id, isoTime, personRef } from './common';
+import { sheetBlock } from './sheets';
 
 export const revisionSummary = z.strictObject({
   id,
@@ -28,12 +29,8 @@ export const revisionSummary = z.strictObject({
 });
 export type RevisionSummary = z.infer<typeof revisionSummary>;
 
-/** A revision's frozen block: the kinds of core/vocabulary.ts. */
-export const revisionBlock = z.strictObject({
-  id: z.string().min(1),
-  kind: z.enum(BLOCK_KINDS),
-  source: z.string(),
-});
+/** A revision's frozen block: as the draft held it when issued. */
+export const revisionBlock = sheetBlock;
 export type RevisionBlock = z.infer<typeof revisionBlock>;
 
 /** The seal as a revision shows it. */
