@@ -214,6 +214,15 @@ describe('review and seal, the whole flow (browser)', () => {
       .getByLabel('Sealed for (leave empty to keep “For check, mass stated”)')
       .fill('For construction');
     await form.getByLabel('Your password').fill(DEMO_PASSWORD);
+    await saveScreenshot(page, 'review-6a-seal-form');
+    // The form keeps to a 390 px phone screen: nothing wider than the page.
+    const desktop = page.viewportSize();
+    await page.setViewportSize({ width: 390, height: 844 });
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(
+      390,
+    );
+    await saveScreenshot(page, 'review-6b-seal-form-390');
+    if (desktop) await page.setViewportSize(desktop);
     await form.getByRole('button', { name: 'Seal Rev 2' }).click();
     await expect.poll(() => status(page).innerText(), { timeout: 60_000 }).toBe('Sealed');
     expect(await page.getByTestId('revision-purpose').innerText()).toBe(
