@@ -73,14 +73,22 @@ export default tseslint.config(
                 './engine.ts',
                 './vocabulary.ts',
                 './display-units.ts',
+                './contract',
               ],
               message:
-                'Import core/ only through core/index.ts (helper threads: core/threads.ts; the solver alone, without the sheet engine: core/engine.ts; the stored words: core/vocabulary.ts).',
+                'Import core/ only through core/index.ts (helper threads: core/threads.ts; the solver alone, without the sheet engine: core/engine.ts; the stored words: core/vocabulary.ts; the response shapes: core/contract/).',
             },
             {
               target: './core/vocabulary.ts',
               from: ['./core', './api', './web'],
               message: 'core/vocabulary.ts is the words both sides read: it imports nothing.',
+            },
+            {
+              target: './core/contract',
+              from: ['./core', './api', './web'],
+              except: ['./vocabulary.ts', './contract'],
+              message:
+                'core/contract/ is the response shapes both sides read: it imports zod and core/vocabulary.ts only.',
             },
             {
               target: './core/display-units.ts',
@@ -209,10 +217,12 @@ export default tseslint.config(
             {
               // Any path into core/ except the two modules that import nothing (one expression: a
               // gitignore group that excludes the folder `core` cannot re-include a file inside it).
+              // core/contract/ falls under it: the client reads the response shapes as types
+              // (z.infer), never zod's runtime.
               regex: '(^|/)core(/(?!(vocabulary|display-units)(\\.ts)?$).*)?$',
               allowTypeImports: true,
               message:
-                'The client imports core/ as types only (import type); shared values live in core/vocabulary.ts and core/display-units.ts.',
+                'The client imports core/ as types only (import type), the response shapes of core/contract/ included; shared values live in core/vocabulary.ts and core/display-units.ts.',
             },
           ],
         },

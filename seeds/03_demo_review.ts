@@ -164,7 +164,10 @@ async function footbridge(
   await revisionsService.signOff(deps, p.tomasz, rev2.id);
   await at(10, '09:15');
   const sealScope = await revisionAccess(deps, p.priya, rev2.id, 'revision.seal');
-  await sealsService.seal(deps, p.priya, sealScope, DEMO_PASSWORD);
+  await sealsService.seal(deps, p.priya, sealScope, {
+    password: DEMO_PASSWORD,
+    purpose: null,
+  });
 
   // After the seal the client asks for the comfort check itself: Ines adds the walking
   // acceleration to the draft, for Rev 3 (the sealed Rev 2 stays as it is).

@@ -144,6 +144,51 @@ describe('POST /api/revisions/:revisionId/seal', () => {
     ).toHaveLength(1);
   });
 
+  it('stores the purpose stated at the seal on the revision and in the activity; none keeps the sign-off purpose', async () => {
+    const revId = await signedOff(await newSheet());
+    const tooLong = await principal.post(`/api/revisions/${revId}/seal`, {
+      password: team.principal.password,
+      purpose: 'x'.repeat(501),
+    });
+    expect(tooLong.status).toBe(422);
+    expect(tooLong.body.error).toMatchObject({ code: 'VALIDATION', field: 'purpose' });
+    const res = await principal.post(`/api/revisions/${revId}/seal`, {
+      password: team.principal.password,
+      purpose: '  For construction, phase 2  ',
+    });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.revision).toMatchObject({
+      status: 'sealed',
+      purpose: 'For construction',
+      checkedPurpose: null,
+      sealedPurpose: 'For construction, phase 2',
+    });
+    const row = await t.db('revisions').where({ id: revId }).first();
+    expect(row.sealed_purpose).toBe('For construction, phase 2');
+    const entry = await t
+      .db('activity')
+      .where({ action: 'revision.sealed', object_id: revId })
+      .first();
+    expect(entry.details).toMatchObject({ purpose: 'For construction, phase 2' });
+    // The print's title block states the purpose the revision was sealed for.
+    const print = await author.get(`/api/revisions/${revId}/print`);
+    expect(print.body.revision.purpose).toBe('For construction, phase 2');
+
+    // Without a purpose the seal leaves it as signed off, and the activity has none.
+    const other = await signedOff(await newSheet());
+    const plain = await principal.post(`/api/revisions/${other}/seal`, {
+      password: team.principal.password,
+      purpose: '',
+    });
+    expect(plain.status, JSON.stringify(plain.body)).toBe(200);
+    expect(plain.body.revision.sealedPurpose).toBeNull();
+    const plainEntry = await t
+      .db('activity')
+      .where({ action: 'revision.sealed', object_id: other })
+      .first();
+    expect(plainEntry.details).not.toHaveProperty('purpose');
+  });
+
   it('refuses the author and the checker', async () => {
     const revId = await signedOff(await newSheet());
     for (const client of [author, checker]) {

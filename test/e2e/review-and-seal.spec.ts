@@ -209,9 +209,25 @@ describe('review and seal, the whole flow (browser)', () => {
     await form.getByLabel('Your password').fill('not-the-password');
     await form.getByRole('button', { name: 'Seal Rev 2' }).click();
     await form.getByText('The password is not right').waitFor();
+    // The principal states what the revision is sealed for (the checker left the issue's).
+    await form
+      .getByLabel('Sealed for (leave empty to keep “For check, mass stated”)')
+      .fill('For construction');
     await form.getByLabel('Your password').fill(DEMO_PASSWORD);
+    await saveScreenshot(page, 'review-6a-seal-form');
+    // The form keeps to a 390 px phone screen: nothing wider than the page.
+    const desktop = page.viewportSize();
+    await page.setViewportSize({ width: 390, height: 844 });
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(
+      390,
+    );
+    await saveScreenshot(page, 'review-6b-seal-form-390');
+    if (desktop) await page.setViewportSize(desktop);
     await form.getByRole('button', { name: 'Seal Rev 2' }).click();
     await expect.poll(() => status(page).innerText(), { timeout: 60_000 }).toBe('Sealed');
+    expect(await page.getByTestId('revision-purpose').innerText()).toBe(
+      'For construction (set at seal; issued “For check, mass stated”)',
+    );
     sealCode = (await page.getByTestId('seal-code').innerText()).trim();
     expect(sealCode).toMatch(/\S{6,}/);
     // The code links to its public verification.

@@ -1,5 +1,6 @@
 import type { ActivityAction } from '../../../core/vocabulary';
 import { readJson, type DbOrTx } from '../../db/index';
+import type { ActivityEntry } from '../../../core/contract/activity';
 
 export type { ActivityAction };
 
@@ -12,17 +13,8 @@ export interface NewActivity {
   details: Record<string, unknown>;
 }
 
-export interface ActivityEntry {
-  id: number;
-  at: string;
-  actor: { id: number; name: string } | null;
-  action: string;
-  objectType: string;
-  objectId: number | null;
-  details: Record<string, unknown>;
-  /** The sheet the entry is about (its details name `sheetId`, or the object is a sheet), when it still exists. */
-  sheet?: { id: number; number: string; title: string };
-}
+/** An activity row as lists send it (the shape is the contract's). */
+export type { ActivityEntry } from '../../../core/contract/activity';
 
 /** An activity row joined with its actor's name (`users as u`), as the lists select it. */
 export interface ActivityRow {

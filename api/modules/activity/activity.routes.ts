@@ -5,6 +5,7 @@ import type { AppContext } from '../../http/context';
 import { parse } from '../../http/validate';
 import { projectParams } from '../projects/projects.schemas';
 import { activityService } from './activity.service';
+import type { ActivityResponse } from '../../../core/contract/activity';
 
 /** Mounted at /api/projects/:projectId/activity. */
 export function createActivityRouter({ db, access }: AppContext): Router {
@@ -19,7 +20,7 @@ export function createActivityRouter({ db, access }: AppContext): Router {
       activity: permits('sheet.read_internal', user, myRoles)
         ? activity
         : activityService.clientFacing(activity),
-    });
+    } satisfies ActivityResponse);
   });
 
   return router;

@@ -9,6 +9,7 @@ import { resetPasswordBody } from '../users/users.schemas';
 import { usersService } from '../users/users.service';
 import { signInBody } from './auth.schemas';
 import { authService } from './auth.service';
+import type { MeResponse, SignInResponse } from '../../../core/contract/people';
 
 function regenerate(req: Request): Promise<void> {
   return new Promise((resolve, reject) =>
@@ -70,7 +71,7 @@ export function createAuthRouter({ db, config }: AppContext): Router {
     req.session.csrfToken = newCsrfToken();
     await save(req);
     await authService.recordSignedIn(db, user);
-    res.json({ user, csrfToken: req.session.csrfToken });
+    res.json({ user, csrfToken: req.session.csrfToken } satisfies SignInResponse);
   });
 
   router.post('/sign-out', requireSignedIn, async (req, res) => {
@@ -88,7 +89,7 @@ export function createAuthRouter({ db, config }: AppContext): Router {
   });
 
   router.get('/me', requireSignedIn, (req, res) => {
-    res.json({ user: currentUser(req) });
+    res.json({ user: currentUser(req) } satisfies MeResponse);
   });
 
   return router;

@@ -1,13 +1,9 @@
 import type { DbOrTx } from '../../db/index';
 import type { ProjectRole } from './roles';
 import { PROJECT_ROLES } from './roles';
+import type { Member } from '../../../core/contract/projects';
 
-export interface Member {
-  userId: number;
-  email: string;
-  name: string;
-  roles: ProjectRole[];
-}
+export type { Member } from '../../../core/contract/projects';
 
 interface MemberRow {
   user_id: number;

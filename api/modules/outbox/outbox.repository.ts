@@ -1,17 +1,8 @@
 import type { DbOrTx } from '../../db/index';
 
-export interface OutboxMessage {
-  id: number;
-  to: string[];
-  from: string;
-  subject: string;
-  text: string;
-  kind: string | null;
-  createdAt: string;
-  relatedSheetId: number | null;
-  /** The project of the related sheet, so a reader can open it. */
-  relatedProjectId: number | null;
-}
+import type { OutboxMessage } from '../../../core/contract/outbox';
+
+export type { OutboxMessage };
 
 export interface NewOutboxMessage {
   messageId: string | null;

@@ -4,6 +4,7 @@ import { currentUser, requireSignedIn } from '../../http/auth';
 import type { AppContext } from '../../http/context';
 import { parse } from '../../http/validate';
 import { outboxService } from './outbox.service';
+import type { OutboxResponse } from '../../../core/contract/outbox';
 
 const outboxQuery = z.object({
   sheetId: z.coerce.number().int().positive({ error: 'sheetId must be a sheet id.' }).optional(),
@@ -23,7 +24,7 @@ export function createOutboxRouter({ db }: AppContext): Router {
   const router = Router();
   router.get('/', requireSignedIn, async (req, res) => {
     const q = parse(outboxQuery, req.query, 'query');
-    res.json(await outboxService.listFor(db, currentUser(req), q));
+    res.json((await outboxService.listFor(db, currentUser(req), q)) satisfies OutboxResponse);
   });
   return router;
 }

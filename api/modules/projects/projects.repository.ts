@@ -1,18 +1,8 @@
 import type { DbOrTx } from '../../db/index';
+import type { Project } from '../../../core/contract/projects';
 import type { ProjectRole } from '../../../core/vocabulary';
 
-export interface Project {
-  id: number;
-  jobNumber: string;
-  name: string;
-  client: string;
-  site: string;
-  /** The roles the asking person holds in this project (empty for an admin who is not a member). */
-  myRoles: ProjectRole[];
-  memberCount: number;
-  createdAt: string;
-  updatedAt: string;
-}
+export type { Project };
 
 export interface ProjectFields {
   jobNumber: string;

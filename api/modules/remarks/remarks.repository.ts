@@ -1,55 +1,12 @@
 import type { Knex } from 'knex';
 import { dbNow, type DbOrTx } from '../../db/index';
 
-export type RemarkType = 'error' | 'query' | 'editorial';
-export type RemarkState = 'open' | 'answered' | 'closed';
+import type { PersonRef } from '../../../core/contract/common';
+import type { EarlierRemark, Remark, RemarkReply } from '../../../core/contract/remarks';
+import type { RemarkState, RemarkType } from '../../../core/vocabulary';
 
-export interface PersonRef {
-  id: number;
-  name: string;
-}
-
-export interface RemarkReply {
-  id: number;
-  text: string;
-  author: PersonRef;
-  createdAt: string;
-  /** When its writer last edited it; null when never. */
-  editedAt: string | null;
-}
-
-/** A remark as it stood on an earlier revision, before it was carried to this one. */
-export interface EarlierRemark {
-  remarkId: number;
-  revisionNumber: number;
-  line: number;
-  author: PersonRef;
-  createdAt: string;
-  replies: RemarkReply[];
-}
-
-export interface Remark {
-  id: number;
-  revisionId: number;
-  blockId: string;
-  line: number;
-  type: RemarkType;
-  text: string;
-  state: RemarkState;
-  carriedFrom: { remarkId: number; revisionNumber: number; line: number } | null;
-  lineChanged: boolean;
-  author: PersonRef;
-  createdAt: string;
-  updatedAt: string;
-  closedBy: PersonRef | null;
-  closedAt: string | null;
-  replies: RemarkReply[];
-  /**
-   * The thread on earlier revisions, oldest first, for a carried remark: who made it and when, and
-   * what was answered there (the checker of the new revision reads the author's answer).
-   */
-  earlier: EarlierRemark[];
-}
+// A remark, its replies and the thread on earlier revisions: the shapes are the contract's.
+export type { EarlierRemark, PersonRef, Remark, RemarkReply, RemarkState, RemarkType };
 
 export interface NewRemark {
   revisionId: number;

@@ -12,6 +12,7 @@ import {
   revisionParams,
 } from './remarks.schemas';
 import { remarksService } from './remarks.service';
+import type { RemarkResponse, RemarksResponse } from '../../../core/contract/remarks';
 
 /** Remarks on a revision and their threads. Mounted at /api. */
 export function createRemarksRouter(ctx: AppContext): Router {
@@ -20,7 +21,7 @@ export function createRemarksRouter(ctx: AppContext): Router {
   router.get('/revisions/:revisionId/remarks', requireSignedIn, async (req, res) => {
     const { revisionId } = parse(revisionParams, req.params, 'params');
     const scope = await revisionAccess(ctx, currentUser(req), revisionId, 'sheet.read');
-    res.json({ remarks: await remarksService.list(ctx, scope) });
+    res.json({ remarks: await remarksService.list(ctx, scope) } satisfies RemarksResponse);
   });
 
   router.post('/revisions/:revisionId/remarks', requireSignedIn, async (req, res) => {
@@ -29,7 +30,7 @@ export function createRemarksRouter(ctx: AppContext): Router {
     const user = currentUser(req);
     const scope = await revisionAccess(ctx, user, revisionId, 'remark.add');
     const remark = await remarksService.create(ctx, user, scope, input);
-    res.status(201).json({ remark });
+    res.status(201).json({ remark } satisfies RemarkResponse);
   });
 
   router.post('/remarks/:remarkId/replies', requireSignedIn, async (req, res) => {
@@ -38,7 +39,7 @@ export function createRemarksRouter(ctx: AppContext): Router {
     const user = currentUser(req);
     const scope = await remarkRevisionAccess(ctx, user, remarkId, 'remark.reply');
     const remark = await remarksService.reply(ctx, user, scope, remarkId, text);
-    res.status(201).json({ remark });
+    res.status(201).json({ remark } satisfies RemarkResponse);
   });
 
   router.patch('/remarks/:remarkId/replies/:replyId', requireSignedIn, async (req, res) => {
@@ -48,7 +49,7 @@ export function createRemarksRouter(ctx: AppContext): Router {
     const scope = await remarkRevisionAccess(ctx, user, remarkId, 'remark.reply');
     res.json({
       remark: await remarksService.editReply(ctx, user, scope, remarkId, replyId, text),
-    });
+    } satisfies RemarkResponse);
   });
 
   router.delete('/remarks/:remarkId/replies/:replyId', requireSignedIn, async (req, res) => {
@@ -57,7 +58,7 @@ export function createRemarksRouter(ctx: AppContext): Router {
     const scope = await remarkRevisionAccess(ctx, user, remarkId, 'remark.reply');
     res.json({
       remark: await remarksService.withdrawReply(ctx, user, scope, remarkId, replyId),
-    });
+    } satisfies RemarkResponse);
   });
 
   router.patch('/remarks/:remarkId', requireSignedIn, async (req, res) => {
@@ -65,7 +66,9 @@ export function createRemarksRouter(ctx: AppContext): Router {
     const { state } = parse(remarkStateBody, req.body);
     const user = currentUser(req);
     const scope = await remarkRevisionAccess(ctx, user, remarkId, 'remark.set_state');
-    res.json({ remark: await remarksService.setState(ctx, user, scope, remarkId, state) });
+    res.json({
+      remark: await remarksService.setState(ctx, user, scope, remarkId, state),
+    } satisfies RemarkResponse);
   });
 
   return router;

@@ -173,8 +173,8 @@ export const comparePrintService = {
         id: rev.id,
         number: rev.number,
         status: rev.status,
-        // what the checker signed it off for, when they said ("For construction")
-        purpose: rev.checkedPurpose ?? rev.purpose,
+        // what the principal sealed it or the checker signed it off for, when they said
+        purpose: rev.sealedPurpose ?? rev.checkedPurpose ?? rev.purpose,
         preparedBy: rev.issuedBy,
         preparedAt: rev.issuedAt,
         checkedBy: rev.checkedBy,
@@ -192,7 +192,7 @@ export const comparePrintService = {
       history: history.map((h) => ({
         number: h.number,
         status: h.status,
-        purpose: h.checkedPurpose ?? h.purpose,
+        purpose: h.sealedPurpose ?? h.checkedPurpose ?? h.purpose,
         issuedBy: h.issuedBy,
         issuedAt: h.issuedAt,
         checkedBy: h.checkedBy,

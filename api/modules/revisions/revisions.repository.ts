@@ -1,41 +1,11 @@
 import type { Knex } from 'knex';
 import { readJson, type DbOrTx } from '../../db/index';
+import type { PersonRef } from '../../../core/contract/common';
+import type { RevisionBlock, RevisionSummary } from '../../../core/contract/revisions';
+import type { RevisionStatus } from '../../../core/vocabulary';
 
-export type RevisionStatus = 'in_check' | 'returned' | 'checked' | 'sealed' | 'superseded';
-
-export interface PersonRef {
-  id: number;
-  name: string;
-}
-
-export interface RevisionBlock {
-  id: string;
-  kind: 'text' | 'calc' | 'matrix' | 'modes' | 'response' | 'criteria';
-  source: string;
-}
-
-/** A revision without its frozen content: what lists show. */
-export interface RevisionSummary {
-  id: number;
-  sheetId: number;
-  number: number;
-  status: RevisionStatus;
-  purpose: string;
-  issuedBy: PersonRef;
-  issuedAt: string;
-  returnedBy: PersonRef | null;
-  returnedAt: string | null;
-  checkedBy: PersonRef | null;
-  checkedAt: string | null;
-  sealedBy: PersonRef | null;
-  sealedAt: string | null;
-  supersededAt: string | null;
-  sealCode: string | null;
-  /** The checker's covering note on the return or the sign-off, if one was written. */
-  checkNote: string | null;
-  /** What the checker signed the revision off for ("For construction"); null: as issued. */
-  checkedPurpose: string | null;
-}
+// A revision as lists show it, and its frozen blocks: the shapes are the contract's.
+export type { PersonRef, RevisionBlock, RevisionStatus, RevisionSummary };
 
 /** A revision with everything that was frozen when it was issued, exactly as stored. */
 export interface RevisionRecord extends RevisionSummary {
@@ -85,6 +55,7 @@ interface RevisionRow {
   seal_code: string | null;
   check_note: string | null;
   checked_purpose: string | null;
+  sealed_purpose: string | null;
   blocks?: string;
   settings?: string;
   canonical_text?: string;
@@ -128,6 +99,7 @@ function summaryQuery(db: DbOrTx): Knex.QueryBuilder {
       's.code as seal_code',
       'r.check_note',
       'r.checked_purpose',
+      'r.sealed_purpose',
     );
 }
 
@@ -150,6 +122,7 @@ function toSummary(row: RevisionRow): RevisionSummary {
     sealCode: row.seal_code,
     checkNote: row.check_note,
     checkedPurpose: row.checked_purpose,
+    sealedPurpose: row.sealed_purpose,
   };
 }
 
@@ -288,8 +261,16 @@ export const revisionsRepository = {
     });
   },
 
-  async markSealed(db: DbOrTx, id: number, by: number, at: Date): Promise<void> {
-    await db('revisions').where({ id }).update({ status: 'sealed', sealed_by: by, sealed_at: at });
+  async markSealed(
+    db: DbOrTx,
+    id: number,
+    by: number,
+    at: Date,
+    purpose: string | null,
+  ): Promise<void> {
+    await db('revisions')
+      .where({ id })
+      .update({ status: 'sealed', sealed_by: by, sealed_at: at, sealed_purpose: purpose });
   },
 
   /** sealed -> superseded for the sheet's earlier sealed revisions (the one step the triggers allow). */

@@ -13,6 +13,12 @@ import {
   signOffBody,
 } from './revisions.schemas';
 import { revisionsService } from './revisions.service';
+import type { ActivityResponse } from '../../../core/contract/activity';
+import type {
+  RevisionDetailResponse,
+  RevisionResponse,
+  RevisionsResponse,
+} from '../../../core/contract/revisions';
 
 /**
  * Revisions of a sheet: issue, list, read, return, sign off, compare, print, and the sheet's
@@ -23,25 +29,31 @@ export function createRevisionsRouter(ctx: AppContext): Router {
 
   router.get('/sheets/:sheetId/revisions', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
-    res.json({ revisions: await revisionsService.list(ctx, currentUser(req), sheetId) });
+    res.json({
+      revisions: await revisionsService.list(ctx, currentUser(req), sheetId),
+    } satisfies RevisionsResponse);
   });
 
   router.post('/sheets/:sheetId/revisions', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const { purpose } = parse(issueBody, req.body);
     const revision = await revisionsService.issue(ctx, currentUser(req), sheetId, purpose);
-    res.status(201).json({ revision });
+    res.status(201).json({ revision } satisfies RevisionResponse);
   });
 
   router.get('/sheets/:sheetId/activity', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
-    res.json({ activity: await revisionsService.history(ctx, currentUser(req), sheetId) });
+    res.json({
+      activity: await revisionsService.history(ctx, currentUser(req), sheetId),
+    } satisfies ActivityResponse);
   });
 
   router.get('/revisions/:revisionId', requireSignedIn, async (req, res) => {
     const { revisionId } = parse(revisionParams, req.params, 'params');
     const revision = await revisionsService.get(ctx, currentUser(req), revisionId);
-    res.json({ revision: { ...revision, seal: await sealsService.viewOf(ctx.db, revisionId) } });
+    res.json({
+      revision: { ...revision, seal: await sealsService.viewOf(ctx.db, revisionId) },
+    } satisfies RevisionDetailResponse);
   });
 
   router.post('/revisions/:revisionId/return', requireSignedIn, async (req, res) => {
@@ -49,7 +61,7 @@ export function createRevisionsRouter(ctx: AppContext): Router {
     const { note } = parse(returnBody, req.body ?? {});
     res.json({
       revision: await revisionsService.returnRevision(ctx, currentUser(req), revisionId, note),
-    });
+    } satisfies RevisionResponse);
   });
 
   router.post('/revisions/:revisionId/sign-off', requireSignedIn, async (req, res) => {
@@ -57,7 +69,7 @@ export function createRevisionsRouter(ctx: AppContext): Router {
     const input = parse(signOffBody, req.body ?? {});
     res.json({
       revision: await revisionsService.signOff(ctx, currentUser(req), revisionId, input),
-    });
+    } satisfies RevisionResponse);
   });
 
   router.get('/sheets/:sheetId/compare', requireSignedIn, async (req, res) => {

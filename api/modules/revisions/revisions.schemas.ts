@@ -25,19 +25,16 @@ const note = z
 /** Return: an optional covering note to the author. */
 export const returnBody = z.strictObject({ note }, { error: unknownKeys });
 
+/** What a signed-off or sealed revision is for ("For construction"); empty or absent: null. */
+export const statedPurpose = z
+  .string({ error: 'The purpose is text, e.g. "For construction".' })
+  .trim()
+  .max(500, { error: 'The purpose can be at most 500 characters.' })
+  .optional()
+  .transform((v) => (v ? v : null));
+
 /** Sign off: an optional note, and what the checked revision is for ("For construction"). */
-export const signOffBody = z.strictObject(
-  {
-    note,
-    purpose: z
-      .string({ error: 'The purpose is text, e.g. "For construction".' })
-      .trim()
-      .max(500, { error: 'The purpose can be at most 500 characters.' })
-      .optional()
-      .transform((v) => (v ? v : null)),
-  },
-  { error: unknownKeys },
-);
+export const signOffBody = z.strictObject({ note, purpose: statedPurpose }, { error: unknownKeys });
 
 export const issueBody = z.strictObject(
   {

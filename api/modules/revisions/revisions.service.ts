@@ -1,6 +1,7 @@
 import type { Knex } from 'knex';
 import type { Sheet, SheetBlock } from '../../../core/index';
 import type { ProjectRole } from '../../../core/vocabulary';
+import type { RevisionDetail } from '../../../core/contract/revisions';
 import { dbNow, type DbOrTx } from '../../db/index';
 import { permits, type AccessAction } from '../../http/access';
 import type { AppContext } from '../../http/context';
@@ -17,22 +18,12 @@ import { failedCriteria, issuedMail, returnedMail, signedOffMail } from './revie
 import { checkerIsAuthor, wrongState, type RevisionInScope } from './revision-state';
 import {
   revisionsRepository,
-  type RevisionBlock,
   type RevisionRecord,
   type RevisionSummary,
 } from './revisions.repository';
 
-/** A revision as GET /api/revisions/:id sends it (the route adds its seal). */
-export interface RevisionDetail extends RevisionSummary {
-  blocks: RevisionBlock[];
-  settings: Record<string, unknown>;
-  canonicalText: string;
-  results: unknown;
-  digests: { canonicalText: string; results: string };
-  engineVersion: string;
-  sheet: { id: number; number: string; title: string; projectId: number };
-  myRoles: string[];
-}
+/** A revision as GET /api/revisions/:id sends it (the route adds its seal): the contract's shape. */
+export type { RevisionDetail };
 
 export function sheetOf(rev: Pick<RevisionRecord, 'blocks' | 'settings'>): Sheet {
   return { blocks: rev.blocks as SheetBlock[], settings: rev.settings };
@@ -394,9 +385,15 @@ export const revisionsService = {
   /** Seal: supersede the sheet's earlier sealed revision, inside the seal's transaction. */
   supersedeEarlier: revisionsRepository.supersedeEarlier,
 
-  /** Seal: the revision is sealed, inside the seal's transaction. */
-  markSealed(trx: Trx, revisionId: number, by: number, at: Date): Promise<void> {
-    return revisionsRepository.markSealed(trx, revisionId, by, at);
+  /** Seal: the revision is sealed (with the purpose stated at the seal), in the seal's transaction. */
+  markSealed(
+    trx: Trx,
+    revisionId: number,
+    by: number,
+    at: Date,
+    purpose: string | null,
+  ): Promise<void> {
+    return revisionsRepository.markSealed(trx, revisionId, by, at, purpose);
   },
 };
 

@@ -12,10 +12,10 @@ export function createSealsRouter(ctx: AppContext): Router {
   const router = Router();
   router.post('/revisions/:revisionId/seal', requireSignedIn, async (req, res) => {
     const { revisionId } = parse(revisionParams, req.params, 'params');
-    const { password } = parse(sealBody, req.body);
+    const { password, purpose } = parse(sealBody, req.body);
     const user = currentUser(req);
     const scope = await revisionAccess(ctx, user, revisionId, 'revision.seal');
-    res.json(await sealsService.seal(ctx, user, scope, password));
+    res.json(await sealsService.seal(ctx, user, scope, { password, purpose }));
   });
   return router;
 }

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { statedPurpose } from '../revisions/revisions.schemas';
 
 export const sealBody = z.strictObject(
   {
@@ -6,6 +7,7 @@ export const sealBody = z.strictObject(
       .string({ error: 'Type your password again to seal.' })
       .min(1, { error: 'Type your password again to seal.' })
       .max(256),
+    purpose: statedPurpose,
   },
   {
     error: (issue) =>

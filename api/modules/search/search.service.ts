@@ -1,3 +1,10 @@
+import type {
+  BlockPlace,
+  ProjectRef,
+  RemarkSearchResult as RemarkResult,
+  SearchAnswer,
+  SheetSearchResult as SheetResult,
+} from '../../../core/contract/search';
 import type { Db } from '../../db/index';
 import type { BlockKind } from '../../../core/index';
 import { permits } from '../../http/access';
@@ -6,61 +13,12 @@ import { revisionsRepository } from '../revisions/revisions.repository';
 import { remarksSearchRepository } from '../remarks/remarks-search.repository';
 import { sheetsSearchRepository } from '../sheets/sheets-search.repository';
 import type { User } from '../users/users.repository';
-import { holdsAnyWord, holdsWords, searchTerms, type SearchTerms } from './search-terms';
+import { holdsAnyWord, holdsWords, searchTerms } from './search-terms';
 
 const LIMIT = 50;
 
-interface ProjectRef {
-  id: number;
-  jobNumber: string;
-  name: string;
-}
-
-/**
- * Where in a sheet the words are: a block and its line (both 1-based), in the draft (`revision`
- * null) or, for a person who may not read the draft (a viewer), in the newest revision.
- */
-export interface BlockPlace {
-  revision: { id: number; number: number } | null;
-  blockId: string;
-  blockIndex: number;
-  blockKind: BlockKind;
-  line: number;
-  text: string;
-}
-
-export interface SheetResult {
-  kind: 'sheet';
-  project: ProjectRef;
-  sheet: { id: number; number: string; title: string; subject: string };
-  /** Which of number, title and subject hold a searched word. */
-  fields: ('number' | 'title' | 'subject')[];
-  /**
-   * The first line holding a searched word (text and calc blocks first), if any: of the draft,
-   * or of the newest revision for a person who may not read the draft.
-   */
-  place: BlockPlace | null;
-}
-
-export interface RemarkResult {
-  kind: 'remark' | 'reply';
-  project: ProjectRef;
-  sheet: { id: number; number: string; title: string };
-  revision: { id: number; number: number };
-  remarkId: number;
-  blockId: string;
-  line: number;
-  text: string;
-}
-
-export interface SearchAnswer {
-  query: string;
-  words: string[];
-  skipped: SearchTerms['skipped'];
-  results: (SheetResult | RemarkResult)[];
-  /** True when more matched than are listed. */
-  truncated: boolean;
-}
+// Where the words are and what holds them: the shapes are the contract's.
+export type { BlockPlace, RemarkResult, SearchAnswer, SheetResult };
 
 const READ_FIRST: readonly BlockKind[] = ['text', 'calc'];
 

@@ -4,6 +4,8 @@ import { readJson, type DbOrTx } from '../../db/index';
 import type { BlockKind } from '../../../core/index';
 import type { SheetStatus } from '../../../core/vocabulary';
 import type { UnitSystem } from '../../../core/display-units';
+import type { PersonRef } from '../../../core/contract/common';
+import type { SheetSummary } from '../../../core/contract/sheets';
 
 export type { BlockKind, SheetStatus };
 
@@ -24,25 +26,8 @@ export interface SheetDraft {
   settings: SheetSettings;
 }
 
-export interface PersonRef {
-  id: number;
-  name: string;
-}
-
-export interface SheetSummary {
-  id: number;
-  projectId: number;
-  number: string;
-  title: string;
-  subject: string;
-  status: SheetStatus;
-  latestRevision: { id: number; number: number; status: string } | null;
-  draftVersion: number;
-  createdAt: Date;
-  createdBy: PersonRef;
-  updatedAt: Date;
-  updatedBy: PersonRef;
-}
+// A sheet as lists show it: the contract's shape.
+export type { PersonRef, SheetSummary };
 
 export interface SheetRecord extends SheetSummary {
   draft: SheetDraft;
@@ -99,9 +84,9 @@ function toSummary(row: SheetRow): Omit<SheetSummary, 'latestRevision'> {
     subject: row.subject,
     status: row.status,
     draftVersion: row.draft_version,
-    createdAt: row.created_at,
+    createdAt: new Date(row.created_at).toISOString(),
     createdBy: { id: row.created_by, name: row.created_by_name },
-    updatedAt: row.updated_at,
+    updatedAt: new Date(row.updated_at).toISOString(),
     updatedBy: { id: row.updated_by, name: row.updated_by_name },
   };
 }

@@ -22,6 +22,13 @@ import {
   updateSheetBody,
 } from './sheets.schemas';
 import { missingIfMatch, sheetsService } from './sheets.service';
+import type {
+  DraftSaved,
+  EvaluationResponse,
+  SheetResponse,
+  SheetsResponse,
+  SheetTemplatesResponse,
+} from '../../../core/contract/sheets';
 
 /** A full evaluation queue (429) says when to try again. */
 function setRetryAfter(res: Response, err: unknown): void {
@@ -97,31 +104,38 @@ export function createSheetsRouter(ctx: AppContext): Router {
   const router = Router();
 
   router.get('/sheet-templates', requireSignedIn, (_req, res) => {
-    res.json({ templates: sheetsService.templates() });
+    res.json({ templates: sheetsService.templates() } satisfies SheetTemplatesResponse);
   });
 
   router.get('/projects/:projectId/sheets', requireSignedIn, async (req, res) => {
     const { projectId } = parse(projectParams, req.params, 'params');
-    res.json({ sheets: await sheetsService.list(ctx, currentUser(req), projectId) });
+    res.json({
+      sheets: await sheetsService.list(ctx, currentUser(req), projectId),
+    } satisfies SheetsResponse);
   });
 
   router.post('/projects/:projectId/sheets', requireSignedIn, async (req, res) => {
     const { projectId } = parse(projectParams, req.params, 'params');
     const input = parse(createSheetBody, req.body);
     const sheet = await sheetsService.create(ctx, currentUser(req), projectId, input);
-    res.status(201).location(`/api/sheets/${sheet.id}`).json({ sheet });
+    res
+      .status(201)
+      .location(`/api/sheets/${sheet.id}`)
+      .json({ sheet } satisfies SheetResponse);
   });
 
   router.get('/sheets/:sheetId', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const sheet = await sheetsService.get(ctx, currentUser(req), sheetId);
-    res.set('ETag', `"${sheet.draftVersion}"`).json({ sheet });
+    res.set('ETag', `"${sheet.draftVersion}"`).json({ sheet } satisfies SheetResponse);
   });
 
   router.patch('/sheets/:sheetId', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const input = parse(updateSheetBody, req.body);
-    res.json({ sheet: await sheetsService.update(ctx, currentUser(req), sheetId, input) });
+    res.json({
+      sheet: await sheetsService.update(ctx, currentUser(req), sheetId, input),
+    } satisfies SheetResponse);
   });
 
   router.put('/sheets/:sheetId/draft', requireSignedIn, async (req, res) => {
@@ -130,7 +144,7 @@ export function createSheetsRouter(ctx: AppContext): Router {
     if (version === null) throw missingIfMatch();
     const input = parse(draftBody, req.body);
     const saved = await sheetsService.saveDraft(ctx, currentUser(req), sheetId, version, input);
-    res.set('ETag', `"${saved.draftVersion}"`).json(saved);
+    res.set('ETag', `"${saved.draftVersion}"`).json(saved satisfies DraftSaved);
   });
 
   router.delete('/sheets/:sheetId', requireSignedIn, async (req, res) => {
@@ -146,7 +160,7 @@ export function createSheetsRouter(ctx: AppContext): Router {
       const out = await evaluateSheetDraft(ctx, currentUser(req), sheetId, input, {
         signal: disconnectSignal(res),
       });
-      res.json(out);
+      res.json(out satisfies EvaluationResponse);
     } catch (err) {
       setRetryAfter(res, err);
       throw err;

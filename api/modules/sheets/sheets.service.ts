@@ -1,4 +1,5 @@
 import type { Knex } from 'knex';
+import type { DraftSaved } from '../../../core/contract/sheets';
 import type { ProjectRole, SheetStatus } from '../../../core/vocabulary';
 import type { DbOrTx } from '../../db/index';
 import { isDuplicateKeyError } from '../../db/index';
@@ -182,7 +183,7 @@ export const sheetsService = {
     sheetId: number,
     expectedVersion: number,
     input: DraftBody,
-  ): Promise<{ draftVersion: number; updatedAt: Date }> {
+  ): Promise<DraftSaved> {
     const access = await policy.sheet(user, sheetId, 'sheet.edit');
     const draft: SheetDraft = { blocks: input.blocks, settings: input.settings };
     return db.transaction(async (trx) => {

@@ -1,27 +1,10 @@
 import type { Knex } from 'knex';
 import { readJson, type DbOrTx } from '../../db/index';
+import type { FirmTemplateSummary, TemplateOrigin } from '../../../core/contract/sheets';
 import type { SheetBlock, SheetSettings } from '../sheets/sheets.repository';
 
-/** Where a firm template came from, as it was when saved. */
-export interface TemplateOrigin {
-  projectId: number | null;
-  jobNumber: string;
-  sheetId: number | null;
-  sheetNumber: string;
-  revisionId: number | null;
-  /** Null when saved from the draft. */
-  revisionNumber: number | null;
-}
-
-export interface FirmTemplateSummary {
-  id: number;
-  name: string;
-  description: string;
-  origin: TemplateOrigin;
-  createdBy: { id: number; name: string };
-  createdAt: string;
-  updatedAt: string;
-}
+// A firm template as lists show it, with where it came from: the shapes are the contract's.
+export type { FirmTemplateSummary, TemplateOrigin };
 
 export interface FirmTemplate extends FirmTemplateSummary {
   blocks: SheetBlock[];

@@ -9,6 +9,7 @@ import {
   updateTemplateBody,
 } from './templates.schemas';
 import { templatesService } from './templates.service';
+import type { FirmTemplatesResponse } from '../../../core/contract/sheets';
 
 /**
  * The firm's template library (beside the built-in templates of /api/sheet-templates): list,
@@ -19,7 +20,9 @@ export function createTemplatesRouter(ctx: AppContext): Router {
   const router = Router();
 
   router.get('/firm-templates', requireSignedIn, async (req, res) => {
-    res.json({ templates: await templatesService.list(ctx, currentUser(req)) });
+    res.json({
+      templates: await templatesService.list(ctx, currentUser(req)),
+    } satisfies FirmTemplatesResponse);
   });
 
   router.post('/firm-templates', requireSignedIn, async (req, res) => {

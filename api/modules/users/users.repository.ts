@@ -1,19 +1,9 @@
 import type { DbOrTx } from '../../db/index';
+import type { ManagedUser, User } from '../../../core/contract/people';
 
-/** A person as the API shows them: never a password or hash. */
-export interface User {
-  id: number;
-  email: string;
-  name: string;
-  isAdmin: boolean;
-  licenceNumber: string | null;
-  jurisdiction: string | null;
-}
-
-/** A person as the admin screen lists them: with whether (and since when) they are deactivated. */
-export interface ManagedUser extends User {
-  deactivatedAt: string | null;
-}
+// A person as the API shows them (never a password or hash), and as the admin screen lists them:
+// the shapes are the contract's.
+export type { ManagedUser, User };
 
 interface UserRow {
   id: number;

@@ -5,6 +5,7 @@ import type { AppContext } from '../../http/context';
 import { idParam, parse } from '../../http/validate';
 import { createUserBody, updateUserBody } from './users.schemas';
 import { usersService } from './users.service';
+import type { UsersResponse } from '../../../core/contract/people';
 
 const userParams = z.object({ userId: idParam('person id') });
 
@@ -17,7 +18,7 @@ export function createUsersRouter({ db, mailer, log }: AppContext): Router {
   const router = Router();
 
   router.get('/', requireAdmin, async (_req, res) => {
-    res.json({ users: await usersService.list(db) });
+    res.json({ users: await usersService.list(db) } satisfies UsersResponse);
   });
 
   router.post('/', requireAdmin, async (req, res) => {

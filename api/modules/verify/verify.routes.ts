@@ -5,6 +5,7 @@ import { RateLimitedError } from '../../http/errors';
 import { parse } from '../../http/validate';
 import type { AppContext } from '../../http/context';
 import { verifyService } from './verify.service';
+import type { VerifyResult } from '../../../core/contract/verify';
 
 const verifyParams = z.object({
   code: z
@@ -39,7 +40,8 @@ export function createVerifyRouter(ctx: AppContext, options: VerifyRouterOptions
   });
   router.get('/verify/:code', limiter, async (req, res) => {
     const { code } = parse(verifyParams, req.params, 'params');
-    res.set('Cache-Control', 'no-store').json(await verifyService.verify(ctx.db, code));
+    const result: VerifyResult = await verifyService.verify(ctx.db, code);
+    res.set('Cache-Control', 'no-store').json(result);
   });
   return router;
 }

@@ -1,4 +1,5 @@
 import { canonicalJson, canonicalText, sha256Hex, type SheetBlock } from '../../../core/index';
+import type { NowNames, Verdict, VerifyResult } from '../../../core/contract/verify';
 import type { Db } from '../../db/index';
 import { revisionsService } from '../revisions/revisions.service';
 import { normalizeSealCode } from '../seals/seal-code';
@@ -9,36 +10,8 @@ import { verifyDigest } from '../seals/signing-keys';
 import type { SheetContext } from '../sheets/sheets.repository';
 import { sheetsService } from '../sheets/sheets.service';
 
-export type Verdict = 'genuine' | 'does-not-match' | 'unknown-code';
-
-export interface NowNames {
-  sheetNumber?: string;
-  sheetTitle?: string;
-  projectJobNumber?: string;
-  projectName?: string;
-}
-
-export interface VerifyResult {
-  verdict: Verdict;
-  code: string | null;
-  sheet: { number: string; title: string } | null;
-  project: { jobNumber: string; name: string } | null;
-  revision: { number: number; status: string; supersededAt: string | null } | null;
-  principal: { name: string; licenceNumber: string; jurisdiction: string } | null;
-  sealedAt: string | null;
-  digest: string | null;
-  /**
-   * 2: sheet, project and principal above are the values signed at sealing. 1 (older seals): the
-   * digest covers the revision, licence and time only; sheet, project, principal name and
-   * jurisdiction are shown as stored and are not part of the seal.
-   */
-  payloadVersion: number | null;
-  /** Today's names where they differ from the sealed ones: shown as "now titled …", not sealed. */
-  now: NowNames | null;
-  /** Why it does not match (empty when genuine); notes that do not change the verdict follow. */
-  reasons: string[];
-  notes: string[];
-}
+// The verdict and what /verify shows with it: the shapes are the contract's.
+export type { NowNames, Verdict, VerifyResult };
 
 const unknown = (code: string | null, reason: string): VerifyResult => ({
   verdict: 'unknown-code',

@@ -6,7 +6,7 @@ import { paths } from '../../config/paths';
 import { useSignOut } from '../../features/auth/api/sign-out';
 import { useProjects } from '../../features/projects/api/get-projects';
 import { SearchBox } from '../../features/search/components/search-box';
-import type { User } from '../../types/api';
+import type { User } from '../../../../core/contract/people';
 import { Caution } from './caution';
 import { DatabaseBanner } from './database-banner';
 import { Wordmark } from './wordmark';

@@ -39,7 +39,12 @@ export function RevisionRoute() {
         // only a principal of the project has a seal action; for everyone else the panel stays away
         sealAction={(rev) =>
           rev.myRoles.includes('principal') ? (
-            <SealDialog key={rev.id} revisionId={rev.id} revisionNumber={rev.number} />
+            <SealDialog
+              key={rev.id}
+              revisionId={rev.id}
+              revisionNumber={rev.number}
+              purpose={rev.checkedPurpose ?? rev.purpose}
+            />
           ) : null
         }
       />

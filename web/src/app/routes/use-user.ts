@@ -1,5 +1,5 @@
 import { useOutletContext } from 'react-router-dom';
-import type { User } from '../../types/api';
+import type { User } from '../../../../core/contract/people';
 
 /** The signed-in person, inside a page under ProtectedLayout. */
 export function useSignedInUser(): User {

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import type { ActivityEntry } from '../../../types/api';
+import type { ActivityEntry } from '../../../../../core/contract/activity';
 
 export async function getProjectActivity(projectId: number): Promise<ActivityEntry[]> {
   const body = await api.get<{ activity: ActivityEntry[] }>(`/api/projects/${projectId}/activity`);

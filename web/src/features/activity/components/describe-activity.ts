@@ -1,5 +1,5 @@
 import { isGeneratedBlockId } from '../../../lib/block-ids';
-import type { ActivityEntry } from '../../../types/api';
+import type { ActivityEntry } from '../../../../../core/contract/activity';
 
 // The activity log in sentences a checker can read aloud: "Tomasz Reyes made an error remark on
 // DYN-02 Rev 1, line 10", with the facts worth keeping (seal code, purpose, carried remarks) after
@@ -209,6 +209,7 @@ function sealed(e: ActivityEntry, d: Details): DescribedActivity {
   return {
     text: `sealed ${revisionName(e, d)}`,
     facts: [
+      str(d.purpose),
       str(d.sealCode) ? `seal code ${String(d.sealCode)}` : null,
       short(d.digest) ? `digest ${short(d.digest)}` : null,
       superseded.length > 0 ? `supersedes Rev ${superseded.join(', ')}` : null,

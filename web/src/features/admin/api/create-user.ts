@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import type { User } from '../../../types/api';
+import type { User } from '../../../../../core/contract/people';
 
 export type CreateUserInput = {
   email: string;

@@ -1,9 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import type { User } from '../../../types/api';
+import type { ManagedUser } from '../../../../../core/contract/people';
 
-/** A person as the admin screen sees them: with whether (and since when) they are deactivated. */
-export type ManagedUser = User & { deactivatedAt: string | null };
+export type { ManagedUser };
 
 export async function getUsers(): Promise<ManagedUser[]> {
   const body = await api.get<{ users: ManagedUser[] }>('/api/users');

@@ -1,12 +1,12 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api, setCsrfToken } from '../../../lib/api-client';
 import { ME_QUERY_KEY } from '../../../lib/query-client';
-import type { User } from '../../../types/api';
+import type { SignInResponse, User } from '../../../../../core/contract/people';
 
 export type SignInInput = { email: string; password: string };
 
 export async function signIn(input: SignInInput): Promise<User> {
-  const body = await api.post<{ user: User; csrfToken: string }>('/api/auth/sign-in', input);
+  const body = await api.post<SignInResponse>('/api/auth/sign-in', input);
   // The session was regenerated at sign-in; its token replaces the anonymous one.
   setCsrfToken(body.csrfToken);
   return body.user;

@@ -4,7 +4,7 @@ import { TextField } from '../../../components/ui/text-field';
 import { Alert } from '../../../components/ui/alert';
 import { splitFormError } from '../../../lib/form-errors';
 import { useSignIn } from '../api/sign-in';
-import type { User } from '../../../types/api';
+import type { User } from '../../../../../core/contract/people';
 
 const FIELDS = ['email', 'password'] as const;
 

@@ -1,3 +1,4 @@
+import type { DraftSaved } from '../../../../../core/contract/sheets';
 import { ApiError } from '../../../lib/api-client';
 import { writeRequest } from './request';
 import type { ConflictingDraft, Draft } from './types';
@@ -21,7 +22,7 @@ export async function saveDraft(
       body: JSON.stringify(draft),
       headers: { 'Content-Type': 'application/json', 'If-Match': `"${draftVersion}"` },
     });
-    const body = (await response.json()) as { draftVersion: number; updatedAt: string };
+    const body = (await response.json()) as DraftSaved;
     return { kind: 'saved', draftVersion: body.draftVersion, updatedAt: body.updatedAt };
   } catch (error) {
     if (error instanceof ApiError && error.status === 409 && error.code === 'DRAFT_CONFLICT') {

@@ -1,4 +1,6 @@
-// The shapes the sheets API sends (the sheets contract). Times are ISO-8601 UTC strings.
+// The editor's view of the sheets API: the sheet is the contract's (core/contract/sheets.ts), its
+// draft typed with the display units the editor offers. Times are ISO-8601 UTC strings.
+import type { SheetDetail as ContractSheetDetail } from '../../../../../core/contract/sheets';
 import type { UnitSystem } from '../../../../../core/display-units';
 
 import { BLOCK_KINDS, type BlockKind, type SheetStatus } from '../../../../../core/vocabulary';
@@ -9,24 +11,8 @@ export type Block = { id: string; kind: BlockKind; source: string };
 export type DraftSettings = { significantFigures: number; units?: UnitSystem };
 export type Draft = { blocks: Block[]; settings: DraftSettings };
 
-export type SheetDetail = {
-  id: number;
-  projectId: number;
-  number: string;
-  title: string;
-  subject: string | null;
-  status: SheetStatus;
-  latestRevision: { id: number; number: number; status: string } | null;
-  draftVersion: number;
-  updatedAt: string;
-  updatedBy: { id: number; name: string } | null;
-  draft: Draft;
-  projectJobNumber: string;
-  projectName: string;
-  myRoles: string[];
-  /** True for a viewer: the unissued draft is withheld; the issued revisions are below it. */
-  draftHidden?: boolean;
-};
+/** A sheet as GET /api/sheets/:id sends it (the contract's shape), its draft read as the editor's. */
+export type SheetDetail = Omit<ContractSheetDetail, 'draft'> & { draft: Draft };
 
 export type Upload = {
   id: number;

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { ProjectRole } from '../../../config/words';
-import type { Member } from '../../../types/api';
+import type { Member } from '../../../../../core/contract/projects';
 import { invalidateAfterMembershipChange } from './invalidate';
 
 export async function changeMemberRoles(

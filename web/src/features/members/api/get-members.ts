@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import type { Member } from '../../../types/api';
+import type { Member } from '../../../../../core/contract/projects';
 
 export async function getMembers(projectId: number): Promise<Member[]> {
   const body = await api.get<{ members: Member[] }>(`/api/projects/${projectId}/members`);

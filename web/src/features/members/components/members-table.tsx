@@ -12,7 +12,7 @@ import { useMembers } from '../api/get-members';
 import { useChangeMemberRoles } from '../api/change-member-roles';
 import { useRemoveMember } from '../api/remove-member';
 import { ROLE_OPTIONS } from './role-options';
-import type { Member } from '../../../types/api';
+import type { Member } from '../../../../../core/contract/projects';
 
 export function MembersTable({ projectId, canManage }: { projectId: number; canManage: boolean }) {
   const members = useMembers(projectId);

@@ -1,21 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 
-export type OutboxMessage = {
-  id: number;
-  to: string[] | string;
-  subject: string;
-  text: string;
-  createdAt: string;
-  relatedSheetId: number | null;
-  relatedProjectId: number | null;
-};
+import type { OutboxMessage, OutboxResponse as Outbox } from '../../../../../core/contract/outbox';
 
-export type Outbox = {
-  /** `all` for an administrator; `mine` for everyone else (the mail addressed to them). */
-  scope: 'all' | 'mine';
-  messages: OutboxMessage[];
-};
+export type { Outbox, OutboxMessage };
 
 export async function getOutbox(): Promise<Outbox> {
   return api.get<Outbox>('/api/outbox');

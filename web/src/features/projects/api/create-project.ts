@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import type { Project } from '../../../types/api';
+import type { Project } from '../../../../../core/contract/projects';
 
 export type CreateProjectInput = { jobNumber: string; name: string; client: string; site: string };
 

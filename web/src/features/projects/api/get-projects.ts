@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import type { Project } from '../../../types/api';
+import type { Project } from '../../../../../core/contract/projects';
 
 export async function getProjects(): Promise<Project[]> {
   const body = await api.get<{ projects: Project[] }>('/api/projects');

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { Button } from '../../../components/ui/button';
 import { useCreateProject } from '../api/create-project';
 import { ProjectForm } from './project-form';
-import type { Project } from '../../../types/api';
+import type { Project } from '../../../../../core/contract/projects';
 
 /** Admins start a project here; the form folds away when not in use. */
 export function NewProject({ onCreated }: { onCreated?: (project: Project) => void }) {

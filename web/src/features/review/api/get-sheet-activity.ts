@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import type { ActivityEntry } from '../../../types/api';
+import type { ActivityEntry } from '../../../../../core/contract/activity';
 
 export async function getSheetActivity(sheetId: number): Promise<ActivityEntry[]> {
   return (await api.get<{ activity: ActivityEntry[] }>(`/api/sheets/${sheetId}/activity`)).activity;

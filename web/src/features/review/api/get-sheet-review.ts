@@ -2,22 +2,23 @@
 // it never overwrites the editor's copy of the draft.
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import type { SheetStatus } from '../../../../../core/vocabulary';
+import type { SheetDetail, SheetResponse } from '../../../../../core/contract/sheets';
 
-export type SheetReviewInfo = {
-  id: number;
-  projectId: number;
-  number: string;
-  title: string;
-  status: SheetStatus;
-  latestRevision: { id: number; number: number; status: string } | null;
-  projectJobNumber: string;
-  projectName: string;
-  myRoles: string[];
-};
+export type SheetReviewInfo = Pick<
+  SheetDetail,
+  | 'id'
+  | 'projectId'
+  | 'number'
+  | 'title'
+  | 'status'
+  | 'latestRevision'
+  | 'projectJobNumber'
+  | 'projectName'
+  | 'myRoles'
+>;
 
 export async function getSheetReview(sheetId: number): Promise<SheetReviewInfo> {
-  return (await api.get<{ sheet: SheetReviewInfo }>(`/api/sheets/${sheetId}`)).sheet;
+  return (await api.get<SheetResponse>(`/api/sheets/${sheetId}`)).sheet;
 }
 
 export const getSheetReviewQueryOptions = (sheetId: number) =>

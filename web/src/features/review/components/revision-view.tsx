@@ -4,11 +4,12 @@ import { BlockResultView, UnitSystemProvider } from '../../../components/results
 import { unitSystemOf } from '../../../../../core/display-units';
 import { Alert, QueryError } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
+import { PurposeField } from '../../../components/ui/purpose-field';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { Spinner } from '../../../components/ui/spinner';
 import { DIGEST_WORDS } from '../../../config/digests';
 import { formatUtc } from '../../../lib/format';
-import type { User } from '../../../types/api';
+import type { User } from '../../../../../core/contract/people';
 import { useRemarks } from '../api/get-remarks';
 import { useRevision } from '../api/get-revision';
 import { useRevisions } from '../api/get-revisions';
@@ -27,6 +28,7 @@ import { RemarkForm } from './remark-form';
 import { SpreadsheetButton } from './spreadsheet-button';
 import { useDocumentTitle } from '../../../lib/use-document-title';
 import { revisionBlockId, revisionLineId } from '../../../lib/use-go-to-place';
+import { statedPurpose } from './stated-purpose';
 
 const countRemarks = (n: number) => `${n} remark${n === 1 ? '' : 's'}`;
 
@@ -142,6 +144,7 @@ function CompareLink({ rev, links }: { rev: RevisionDetail; links: RevisionLinks
 }
 
 function RevisionHeader({ rev, links }: { rev: RevisionDetail; links: RevisionLinks }) {
+  const purpose = statedPurpose(rev);
   return (
     <header className="rounded-sm border border-rule bg-paper-sheet px-5 py-4 shadow-sheet">
       <p className="text-xs tracking-wide text-ink-soft uppercase">
@@ -160,14 +163,13 @@ function RevisionHeader({ rev, links }: { rev: RevisionDetail; links: RevisionLi
         <div className="flex gap-2">
           <dt className="text-ink-soft">Purpose</dt>
           <dd data-testid="revision-purpose">
-            {rev.checkedPurpose ? (
+            {purpose.text}
+            {purpose.note ? (
               <>
-                {rev.checkedPurpose}{' '}
-                <span className="text-ink-soft">(set at sign-off; issued “{rev.purpose}”)</span>
+                {' '}
+                <span className="text-ink-soft">({purpose.note})</span>
               </>
-            ) : (
-              rev.purpose
-            )}
+            ) : null}
           </dd>
         </div>
         <div className="flex gap-2">
@@ -397,19 +399,12 @@ function ConfirmCheck({
           : `The principal is told it awaits the seal. A signed-off revision cannot be returned.`}
       </p>
       {returning ? null : (
-        <div className="flex flex-col gap-1">
-          <label htmlFor={`${id}-purpose`} className="text-xs font-medium">
-            Checked for (leave empty to keep “{rev.purpose}”)
-          </label>
-          <input
-            id={`${id}-purpose`}
-            value={purpose}
-            onChange={(e) => setPurpose(e.target.value)}
-            placeholder="For construction"
-            maxLength={500}
-            className="rounded-sm border border-rule-strong bg-paper-sheet px-2 py-1 text-sm"
-          />
-        </div>
+        <PurposeField
+          label="Checked for"
+          current={rev.purpose}
+          value={purpose}
+          onChange={setPurpose}
+        />
       )}
       <div className="flex flex-col gap-1">
         <label htmlFor={`${id}-note`} className="text-xs font-medium">

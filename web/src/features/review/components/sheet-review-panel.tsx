@@ -13,6 +13,13 @@ import { useSheetReview } from '../api/get-sheet-review';
 import { useIssueRevision } from '../api/revision-mutations';
 import { REVISION_STATUS_LABELS } from '../api/types';
 import { DraftRemarks } from './draft-remarks';
+import { statedPurpose } from './stated-purpose';
+
+/** "For construction (set at sign-off; issued “For check”)", or the purpose as issued. */
+function purposeLine(r: Parameters<typeof statedPurpose>[0]): string {
+  const { text, note } = statedPurpose(r);
+  return note ? `${text} (${note})` : text;
+}
 
 const ISSUABLE = new Set(['draft', 'returned', 'sealed']);
 
@@ -141,11 +148,7 @@ export function RevisionList({
               </Link>
             </td>
             <td className="py-1 pr-3 whitespace-nowrap">{REVISION_STATUS_LABELS[r.status]}</td>
-            <td className="py-1 pr-3">
-              {r.checkedPurpose
-                ? `${r.checkedPurpose} (set at sign-off; issued “${r.purpose}”)`
-                : r.purpose}
-            </td>
+            <td className="py-1 pr-3">{purposeLine(r)}</td>
             <td className="py-1 pr-3">
               {r.issuedBy.name}, {formatUtc(r.issuedAt)}
             </td>

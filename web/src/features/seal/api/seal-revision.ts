@@ -1,26 +1,20 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 
-export type SealResponse = {
-  revision: {
-    id: number;
-    sheetId: number;
-    number: number;
-    status: string;
-    sealCode: string | null;
-  };
-  seal: { code: string; digest: string; sealedAt: string };
-};
+import type { SealResponse } from '../../../../../core/contract/revisions';
 
-export async function sealRevision(revisionId: number, password: string): Promise<SealResponse> {
-  return api.post<SealResponse>(`/api/revisions/${revisionId}/seal`, { password });
+/** The password typed again, and optionally what the revision is sealed for. */
+export type SealInput = { password: string; purpose?: string };
+
+export async function sealRevision(revisionId: number, input: SealInput): Promise<SealResponse> {
+  return api.post<SealResponse>(`/api/revisions/${revisionId}/seal`, input);
 }
 
 /** Sealing changes the revision, the sheet's revisions and status, and its history. */
 export function useSealRevision(revisionId: number) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (password: string) => sealRevision(revisionId, password),
+    mutationFn: (input: SealInput) => sealRevision(revisionId, input),
     onSuccess: (body) =>
       Promise.all([
         queryClient.invalidateQueries({ queryKey: ['revisions'] }),

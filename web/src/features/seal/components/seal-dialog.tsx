@@ -1,6 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
+import { PurposeField } from '../../../components/ui/purpose-field';
 import { TextField } from '../../../components/ui/text-field';
 import { isApiError } from '../../../lib/api-client';
 import { splitFormError } from '../../../lib/form-errors';
@@ -24,12 +25,16 @@ const REASONS: Record<string, string> = {
 export function SealDialog({
   revisionId,
   revisionNumber,
+  purpose: currentPurpose,
 }: {
   revisionId: number;
   revisionNumber: number;
+  /** What the revision is for now (signed off for, or issued for). */
+  purpose: string;
 }) {
   const [open, setOpen] = useState(false);
   const [password, setPassword] = useState('');
+  const [purpose, setPurpose] = useState('');
   const seal = useSealRevision(revisionId);
   const { fieldErrors, formError } = splitFormError(seal.error, ['password']);
 
@@ -51,7 +56,10 @@ export function SealDialog({
 
   function submit(event: FormEvent) {
     event.preventDefault();
-    seal.mutate(password, { onSettled: () => setPassword('') });
+    seal.mutate(
+      { password, ...(purpose.trim() ? { purpose } : {}) },
+      { onSettled: () => setPassword('') },
+    );
   }
 
   const error = seal.error;
@@ -74,6 +82,12 @@ export function SealDialog({
         your password again: it unlocks your signing key. The server first evaluates the revision
         afresh and seals only if the stored results are reproduced.
       </p>
+      <PurposeField
+        label="Sealed for"
+        current={currentPurpose}
+        value={purpose}
+        onChange={setPurpose}
+      />
       <TextField
         label="Your password"
         name="password"

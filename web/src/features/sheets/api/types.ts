@@ -1,21 +1,13 @@
+import type {
+  FirmTemplateSummary as FirmTemplate,
+  SheetSummary,
+  SheetTemplate,
+} from '../../../../../core/contract/sheets';
 import type { SheetStatus } from '../../../../../core/vocabulary';
 
-export type { SheetStatus };
-
-export type SheetSummary = {
-  id: number;
-  projectId: number;
-  number: string;
-  title: string;
-  subject: string | null;
-  status: SheetStatus;
-  latestRevision: { id: number; number: number; status: string } | null;
-  draftVersion: number;
-  updatedAt: string;
-  updatedBy: { id: number; name: string } | null;
-};
-
-export type SheetTemplate = { key: string; title: string; description: string };
+// The shapes the sheets routes send are the contract's; the labels and helpers below are the
+// client's.
+export type { FirmTemplate, SheetStatus, SheetSummary, SheetTemplate };
 
 export const STATUS_LABELS: Record<SheetStatus, string> = {
   draft: 'Draft',
@@ -23,25 +15,6 @@ export const STATUS_LABELS: Record<SheetStatus, string> = {
   returned: 'Returned',
   checked: 'Checked',
   sealed: 'Sealed',
-};
-
-/** A template of the firm's library (GET /api/firm-templates), with where it came from. */
-export type FirmTemplate = {
-  id: number;
-  name: string;
-  description: string;
-  origin: {
-    projectId: number | null;
-    jobNumber: string;
-    sheetId: number | null;
-    sheetNumber: string;
-    revisionId: number | null;
-    /** Null when saved from the draft. */
-    revisionNumber: number | null;
-  };
-  createdBy: { id: number; name: string };
-  createdAt: string;
-  updatedAt: string;
 };
 
 /** "BW-2611 · DYN-02 Rev 1", or "… draft" when saved from the draft. */

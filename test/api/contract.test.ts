@@ -1,0 +1,267 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { z } from 'zod';
+import { activityResponse } from '../../core/contract/activity';
+import { outboxResponse } from '../../core/contract/outbox';
+import { meResponse, signInResponse, usersResponse } from '../../core/contract/people';
+import { membersResponse, projectResponse, projectsResponse } from '../../core/contract/projects';
+import { remarkResponse, remarksResponse } from '../../core/contract/remarks';
+import {
+  revisionDetailResponse,
+  revisionResponse,
+  revisionsResponse,
+  sealResponse,
+} from '../../core/contract/revisions';
+import { searchAnswer } from '../../core/contract/search';
+import {
+  draftSaved,
+  evaluationResponse,
+  firmTemplatesResponse,
+  sheetResponse,
+  sheetResults,
+  sheetsResponse,
+  sheetTemplatesResponse,
+} from '../../core/contract/sheets';
+import { verifyResult } from '../../core/contract/verify';
+import { anonymous, createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
+import { createProjectTeam, unique } from '../support/factories';
+
+// The response contract (core/contract/) against the real server: every GET the client makes and
+// the main writes, on a fresh team, each answer parsed with its schema. The schemas are strict, so
+// a field renamed, added or dropped on the server fails here as well as in tsc. The sheet is a
+// single-degree-of-freedom oscillator, f = √(k/m) / 2π (closed form, any dynamics text).
+
+let t: TestApp;
+let team: Awaited<ReturnType<typeof createProjectTeam>>;
+let admin: ApiClient;
+let author: ApiClient;
+let checker: ApiClient;
+let principal: ApiClient;
+
+const WORD = `contract${unique().replace(/[^a-z0-9]/gi, '')}`;
+const blocks = [
+  { id: 'intro', kind: 'text', source: `Pump plinth, ${WORD} check.` },
+  { id: 'calc', kind: 'calc', source: 'k = 2000 kN/m\nm_s = 5 t\nf = sqrt(k / m_s) / (2 * pi)' },
+  { id: 'crit', kind: 'criteria', source: 'f >= 3 Hz  # walking comfort (common practice)' },
+];
+
+/** The body of a response with the status expected, parsed with its schema. */
+function answer<S extends z.ZodType>(
+  res: { status: number; body: unknown },
+  status: number,
+  schema: S,
+): z.output<S> {
+  expect(res.status, JSON.stringify(res.body)).toBe(status);
+  const parsed = schema.safeParse(res.body);
+  if (!parsed.success) {
+    throw new Error(`The response does not keep the contract: ${parsed.error.message}`);
+  }
+  return parsed.data;
+}
+
+let sheetId = 0;
+let revisionId = 0;
+let sealCode = '';
+
+beforeAll(async () => {
+  ({
+    t,
+    team,
+    clients: { admin, author, checker, principal },
+  } = await createTeamApp(['admin', 'author', 'checker', 'principal']));
+});
+
+afterAll(async () => {
+  await t?.close();
+});
+
+describe('the response contract, on the real server', () => {
+  it('the person: sign-in and me; the administrator: people and the outbox', async () => {
+    const fresh = await anonymous(t.app);
+    const signIn = answer(
+      await fresh.post('/api/auth/sign-in', {
+        email: team.author.email,
+        password: team.author.password,
+      }),
+      200,
+      signInResponse,
+    );
+    expect(signIn.user.id).toBe(team.author.id);
+    expect(answer(await author.get('/api/auth/me'), 200, meResponse).user.email).toBe(
+      team.author.email,
+    );
+    const users = answer(await admin.get('/api/users'), 200, usersResponse).users;
+    expect(users.map((u) => u.id)).toContain(team.principal.id);
+  });
+
+  it('projects, one project, its members; the sheet templates and the firm library', async () => {
+    const projects = answer(await author.get('/api/projects'), 200, projectsResponse).projects;
+    expect(projects.map((p) => p.id)).toContain(team.project.id);
+    const one = answer(await author.get(`/api/projects/${team.project.id}`), 200, projectResponse);
+    expect(one.project.myRoles).toEqual(['author']);
+    const members = answer(
+      await author.get(`/api/projects/${team.project.id}/members`),
+      200,
+      membersResponse,
+    ).members;
+    expect(members).toHaveLength(4);
+    const templates = answer(
+      await author.get('/api/sheet-templates'),
+      200,
+      sheetTemplatesResponse,
+    ).templates;
+    expect(templates.length).toBeGreaterThan(0);
+    answer(await author.get('/api/firm-templates'), 200, firmTemplatesResponse);
+  });
+
+  it('a sheet: created, its draft saved, listed, read with its draft, evaluated', async () => {
+    const created = answer(
+      await author.post(`/api/projects/${team.project.id}/sheets`, {
+        number: `CT-${unique()}`,
+        title: 'Pump plinth frequency',
+      }),
+      201,
+      sheetResponse,
+    );
+    sheetId = created.sheet.id;
+    const saved = answer(
+      await author.agent
+        .put(`/api/sheets/${sheetId}/draft`)
+        .set('X-CSRF-Token', author.csrfToken)
+        .set('If-Match', `"${created.sheet.draftVersion}"`)
+        .send({ blocks, settings: { significantFigures: 4 } }),
+      200,
+      draftSaved,
+    );
+    expect(saved.draftVersion).toBe(created.sheet.draftVersion + 1);
+    const list = answer(
+      await author.get(`/api/projects/${team.project.id}/sheets`),
+      200,
+      sheetsResponse,
+    ).sheets;
+    expect(list.map((s) => s.id)).toContain(sheetId);
+    const sheet = answer(await author.get(`/api/sheets/${sheetId}`), 200, sheetResponse).sheet;
+    expect(sheet.draft.blocks.map((b) => b.id)).toEqual(['intro', 'calc', 'crit']);
+    const evaluated = answer(
+      await author.post(`/api/sheets/${sheetId}/evaluate`, {
+        blocks,
+        settings: { significantFigures: 4 },
+      }),
+      200,
+      evaluationResponse,
+    );
+    expect(evaluated.results.summary).toEqual({ passed: 1, failed: 0, errors: 0 });
+  });
+
+  it('a revision: issued, listed, read; remarks made, answered, listed, closed; signed off', async () => {
+    const issued = answer(
+      await author.post(`/api/sheets/${sheetId}/revisions`, { purpose: 'For check' }),
+      201,
+      revisionResponse,
+    );
+    revisionId = issued.revision.id;
+    const revisions = answer(
+      await author.get(`/api/sheets/${sheetId}/revisions`),
+      200,
+      revisionsResponse,
+    ).revisions;
+    expect(revisions.map((r) => r.id)).toEqual([revisionId]);
+    const detail = answer(
+      await checker.get(`/api/revisions/${revisionId}`),
+      200,
+      revisionDetailResponse,
+    ).revision;
+    expect(detail.seal).toBeNull();
+    // The stored results keep the evaluation's shape.
+    expect(sheetResults.parse(detail.results).summary.passed).toBe(1);
+
+    const made = answer(
+      await checker.post(`/api/revisions/${revisionId}/remarks`, {
+        blockId: 'calc',
+        line: 3,
+        type: 'query',
+        text: `Is the ${WORD} mass with the pump running?`,
+      }),
+      201,
+      remarkResponse,
+    ).remark;
+    answer(
+      await author.post(`/api/remarks/${made.id}/replies`, { text: 'Yes, operating mass.' }),
+      201,
+      remarkResponse,
+    );
+    const remarks = answer(
+      await checker.get(`/api/revisions/${revisionId}/remarks`),
+      200,
+      remarksResponse,
+    ).remarks;
+    expect(remarks[0]?.replies).toHaveLength(1);
+    answer(
+      await checker.patch(`/api/remarks/${made.id}`, { state: 'closed' }),
+      200,
+      remarkResponse,
+    );
+    const off = answer(
+      await checker.post(`/api/revisions/${revisionId}/sign-off`, { purpose: 'For construction' }),
+      200,
+      revisionResponse,
+    );
+    expect(off.revision.status).toBe('checked');
+  });
+
+  it('the seal, and its public verification', async () => {
+    const sealed = answer(
+      await principal.post(`/api/revisions/${revisionId}/seal`, {
+        password: team.principal.password,
+      }),
+      200,
+      sealResponse,
+    );
+    sealCode = sealed.seal.code;
+    const detail = answer(
+      await principal.get(`/api/revisions/${revisionId}`),
+      200,
+      revisionDetailResponse,
+    ).revision;
+    expect(detail.seal?.code).toBe(sealCode);
+    const visitor = await anonymous(t.app);
+    const verdict = answer(await visitor.get(`/api/verify/${sealCode}`), 200, verifyResult);
+    expect(verdict.verdict).toBe('genuine');
+    const unknown = answer(await visitor.get('/api/verify/AAAAA-AAAAA'), 200, verifyResult);
+    expect(unknown.verdict).toBe('unknown-code');
+  });
+
+  it('the activity of the project and of the sheet, search, and the outbox of a member', async () => {
+    const project = answer(
+      await author.get(`/api/projects/${team.project.id}/activity`),
+      200,
+      activityResponse,
+    ).activity;
+    expect(project.map((e) => e.action)).toContain('revision.sealed');
+    const sheet = answer(
+      await author.get(`/api/sheets/${sheetId}/activity`),
+      200,
+      activityResponse,
+    ).activity;
+    expect(sheet.map((e) => e.action)).toContain('revision.signed_off');
+    const found = answer(
+      await author.get(`/api/search?q=${encodeURIComponent(WORD)}`),
+      200,
+      searchAnswer,
+    );
+    // The sheet (its text block) and the remark both hold the word.
+    expect(new Set(found.results.map((r) => r.kind))).toEqual(new Set(['sheet', 'remark']));
+    const mine = answer(await author.get('/api/outbox'), 200, outboxResponse);
+    expect(mine.scope).toBe('mine');
+    expect(mine.messages.length).toBeGreaterThan(0);
+    const all = answer(await admin.get('/api/outbox'), 200, outboxResponse);
+    expect(all.scope).toBe('all');
+  });
+
+  it('a strict schema refuses a response with a field added or one missing', () => {
+    const person = { id: 1, email: 'a@b.example', name: 'A', isAdmin: false };
+    const full = { ...person, licenceNumber: null, jurisdiction: null };
+    expect(meResponse.safeParse({ user: full }).success).toBe(true);
+    expect(meResponse.safeParse({ user: person }).success).toBe(false);
+    expect(meResponse.safeParse({ user: { ...full, passwordHash: 'x' } }).success).toBe(false);
+  });
+});
