@@ -87,6 +87,19 @@ describe('triggers on revisions and seals', () => {
     expect(e2.errno).toBe(1644);
   });
 
+  it('holds the covering note and the purposes set at sign-off and seal, to the byte', async () => {
+    // Written by the review's later steps, not at issue: the note, 'For construction' set by the
+    // checker, and what the principal sealed it for. A change of case alone is refused too.
+    for (const change of [
+      { check_note: 'Checked against the frame sheet.' },
+      { checked_purpose: 'For tender' },
+      { sealed_purpose: 'FOR CONSTRUCTION' },
+    ]) {
+      const e = await refusal(t.db('revisions').where({ id: revId }).update(change));
+      expect(e.message, JSON.stringify(change)).toMatch(/A sealed revision cannot be changed/);
+    }
+  });
+
   it('refuses a DELETE of a sealed revision', async () => {
     const e = await refusal(t.db('revisions').where({ id: revId }).delete());
     expect(e.message).toMatch(/A sealed revision cannot be deleted/);

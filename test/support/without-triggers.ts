@@ -2,14 +2,14 @@
 // puts them back whatever happens: how a test plays someone who edits the database by hand.
 import type { Knex } from 'knex';
 import * as contentTrigger from '../../migrations/20261203000700_revisions_content_immutable';
-import * as sealedUpdateTrigger from '../../migrations/20261203000710_sealed_revisions_refuse_update';
+import * as sealedUpdateTrigger from '../../migrations/20261204130000_sealed_revisions_refuse_update_notes';
 import * as sealedDeleteTrigger from '../../migrations/20261203000720_sealed_revisions_refuse_delete';
 import * as sealsUpdateTrigger from '../../migrations/20261203000800_seals_refuse_update';
 import * as sealsDeleteTrigger from '../../migrations/20261203000810_seals_refuse_delete';
 
-const triggers = [
+const triggers: { up(db: Knex): Promise<void>; down(db: Knex): Promise<void> }[] = [
   contentTrigger,
-  sealedUpdateTrigger,
+  { up: sealedUpdateTrigger.up, down: sealedUpdateTrigger.dropTrigger },
   sealedDeleteTrigger,
   sealsUpdateTrigger,
   sealsDeleteTrigger,
