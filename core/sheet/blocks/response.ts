@@ -32,7 +32,13 @@ import {
   type Spectrum,
   type SpectrumAnalysisResult,
 } from '../../response/index';
-import { evaluateNode, parseExpression, report, type EvalContext } from '../context';
+import {
+  evaluateNode,
+  markFailed as markNameFailed,
+  parseExpression,
+  report,
+  type EvalContext,
+} from '../context';
 import { blockName } from '../messages';
 import { MODAL_RESULTS, type RegisteredModes } from '../modal-registry';
 import type {
@@ -52,7 +58,21 @@ import {
   RESPONSE_KEYS,
   type ResponseKey,
 } from '../../vocabulary';
-import { checkBlockName, readKeyLines, type KeyLine } from './key-lines';
+import { checkBlockName, readKeyLines, reportDependency, type KeyLine } from './key-lines';
+
+/** Keys whose values are words or names of things (not expressions a failed name could be in). */
+const WORD_KEYS: ReadonlySet<ResponseKey> = new Set<ResponseKey>([
+  'analysis',
+  'spectrum',
+  'ground',
+  'table unit',
+  'record unit',
+  'combine',
+  'direction',
+  'directional',
+  'method',
+  'name',
+]);
 
 const COMMON = RESPONSE_COMMON_KEYS;
 
@@ -960,13 +980,16 @@ export function evaluateResponseBlock(
   );
   const name = keys.name?.value ?? 'response';
   result.name = name;
+  const errorsBefore = ctx.errors.length;
   const markFailed = () => {
-    ctx.failed.set(name, at(keys.name?.line ?? 0));
-    ctx.scope.delete(name);
+    const mine = ctx.errors.slice(errorsBefore).filter((e) => e.blockId === block.id);
+    markNameFailed(ctx, name, at(keys.name?.line ?? 0), mine);
     return result;
   };
   if (!checkBlockName(ctx, keys.name, at)) return result;
   if (bad) return markFailed();
+  const expressionKeys = RESPONSE_KEYS.filter((k) => !WORD_KEYS.has(k));
+  if (reportDependency(ctx, keys, expressionKeys, at)) return markFailed();
   for (const req of ['modes', 'analysis'] as const) {
     if (!keys[req]) {
       report(
