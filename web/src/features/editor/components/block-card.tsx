@@ -94,6 +94,8 @@ const iconButton =
 export function BlockCard(props: BlockCardProps) {
   const { block, index, count, readOnly, result, issues, stale } = props;
   const label = `Block ${index + 1}, ${KIND_LABELS[block.kind].toLowerCase()}`;
+  const errors = issues.filter((i) => i.severity !== 'note');
+  const notes = issues.filter((i) => i.severity === 'note');
   const markdown = useMemo(
     () => (block.kind === 'text' ? renderMarkdown(block.source) : ''),
     [block.kind, block.source],
@@ -136,10 +138,12 @@ export function BlockCard(props: BlockCardProps) {
           {KIND_LABELS[block.kind]}
         </span>
         <span className="num text-xs text-ink-faint">#{index + 1}</span>
-        {issues.length > 0 ? (
+        {errors.length > 0 ? (
           <span className="text-xs font-medium text-fail">
-            {issues.length} error{issues.length === 1 ? '' : 's'}
+            {errors.length} error{errors.length === 1 ? '' : 's'}
           </span>
+        ) : notes.length > 0 ? (
+          <span className="text-xs font-medium text-ink-soft">not evaluated</span>
         ) : null}
         {!readOnly ? (
           <div className="ml-auto flex items-center gap-0.5 opacity-70 group-focus-within:opacity-100 group-hover:opacity-100">
@@ -196,12 +200,26 @@ export function BlockCard(props: BlockCardProps) {
             label={`Source of ${label.toLowerCase()}`}
           />
         ) : null}
-        {issues.length > 0 ? (
+        {errors.length > 0 ? (
           <ul
             className="flex flex-col gap-0.5 text-sm text-fail"
             aria-label={`Errors in ${label.toLowerCase()}`}
           >
-            {issues.map((issue, i) => (
+            {errors.map((issue, i) => (
+              <li key={i}>
+                {issue.line > 0 ? <span className="font-medium">Line {issue.line}: </span> : null}
+                {issue.message}
+              </li>
+            ))}
+          </ul>
+        ) : null}
+        {notes.length > 0 ? (
+          // Lines an error above left unevaluated: said once each, quietly, so the error stands out.
+          <ul
+            className="flex flex-col gap-0.5 text-sm text-ink-soft"
+            aria-label={`Not evaluated in ${label.toLowerCase()}`}
+          >
+            {notes.map((issue, i) => (
               <li key={i}>
                 {issue.line > 0 ? <span className="font-medium">Line {issue.line}: </span> : null}
                 {issue.message}
