@@ -224,3 +224,21 @@ export function checkSize(ctx: EvalContext, v: unknown): void {
     }
   }
 }
+
+/**
+ * For a block about to be read: a function that marks its name failed with the issues the block
+ * reported from now on (so a block that only has notes fails through the name they depend on).
+ */
+export function nameFailure(
+  ctx: EvalContext,
+  blockId: string,
+): (name: string, at: SheetLocation) => void {
+  const before = ctx.errors.length;
+  return (name, at) =>
+    markFailed(
+      ctx,
+      name,
+      at,
+      ctx.errors.slice(before).filter((e) => e.blockId === blockId),
+    );
+}

@@ -28,13 +28,7 @@ import type {
 } from '../../eigen/types';
 import { denseFromRows } from '../../linalg/sparse';
 import type { SymmetricMatrix } from '../../linalg/types';
-import {
-  evaluateNode,
-  markFailed as markNameFailed,
-  parseExpression,
-  report,
-  type EvalContext,
-} from '../context';
+import { evaluateNode, nameFailure, parseExpression, report, type EvalContext } from '../context';
 import { RESULT_MATRIX_LIMIT } from '../format';
 import { ENGINE_MATRICES, MATRIX_DOFS } from '../generators';
 import { LargeMatrix } from '../large-matrix';
@@ -748,10 +742,9 @@ export function evaluateModesBlock(
   const name = keys.name?.value ?? 'modes';
   result.name = name;
   const run: ModesRun = { ctx, block, blockIndex, keys, name, at };
-  const errorsBefore = ctx.errors.length;
+  const failName = nameFailure(ctx, block.id);
   const markFailed = () => {
-    const mine = ctx.errors.slice(errorsBefore).filter((e) => e.blockId === block.id);
-    markNameFailed(ctx, name, at(keys.name?.line ?? 0), mine);
+    failName(name, at(keys.name?.line ?? 0));
     return result;
   };
   if (!checkBlockName(ctx, keys.name, at)) return result;

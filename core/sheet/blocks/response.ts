@@ -32,13 +32,7 @@ import {
   type Spectrum,
   type SpectrumAnalysisResult,
 } from '../../response/index';
-import {
-  evaluateNode,
-  markFailed as markNameFailed,
-  parseExpression,
-  report,
-  type EvalContext,
-} from '../context';
+import { evaluateNode, nameFailure, parseExpression, report, type EvalContext } from '../context';
 import { blockName } from '../messages';
 import { MODAL_RESULTS, type RegisteredModes } from '../modal-registry';
 import type {
@@ -980,10 +974,9 @@ export function evaluateResponseBlock(
   );
   const name = keys.name?.value ?? 'response';
   result.name = name;
-  const errorsBefore = ctx.errors.length;
+  const failName = nameFailure(ctx, block.id);
   const markFailed = () => {
-    const mine = ctx.errors.slice(errorsBefore).filter((e) => e.blockId === block.id);
-    markNameFailed(ctx, name, at(keys.name?.line ?? 0), mine);
+    failName(name, at(keys.name?.line ?? 0));
     return result;
   };
   if (!checkBlockName(ctx, keys.name, at)) return result;

@@ -90,6 +90,29 @@ const MARKDOWN_CLASSES = [
 const iconButton =
   'rounded-sm px-1.5 py-0.5 text-xs text-ink-soft hover:bg-paper-deep hover:text-ink disabled:opacity-40 disabled:hover:bg-transparent';
 
+/** A block's errors, or its notes, each with its line. */
+function IssueList({
+  issues,
+  label,
+  tone,
+}: {
+  issues: readonly SheetIssue[];
+  label: string;
+  tone: string;
+}) {
+  if (issues.length === 0) return null;
+  return (
+    <ul className={`flex flex-col gap-0.5 text-sm ${tone}`} aria-label={label}>
+      {issues.map((issue, i) => (
+        <li key={i}>
+          {issue.line > 0 ? <span className="font-medium">Line {issue.line}: </span> : null}
+          {issue.message}
+        </li>
+      ))}
+    </ul>
+  );
+}
+
 /** One block: its toolbar, its source in CodeMirror, its errors and its results underneath. */
 export function BlockCard(props: BlockCardProps) {
   const { block, index, count, readOnly, result, issues, stale } = props;
@@ -200,33 +223,13 @@ export function BlockCard(props: BlockCardProps) {
             label={`Source of ${label.toLowerCase()}`}
           />
         ) : null}
-        {errors.length > 0 ? (
-          <ul
-            className="flex flex-col gap-0.5 text-sm text-fail"
-            aria-label={`Errors in ${label.toLowerCase()}`}
-          >
-            {errors.map((issue, i) => (
-              <li key={i}>
-                {issue.line > 0 ? <span className="font-medium">Line {issue.line}: </span> : null}
-                {issue.message}
-              </li>
-            ))}
-          </ul>
-        ) : null}
-        {notes.length > 0 ? (
-          // Lines an error above left unevaluated: said once each, quietly, so the error stands out.
-          <ul
-            className="flex flex-col gap-0.5 text-sm text-ink-soft"
-            aria-label={`Not evaluated in ${label.toLowerCase()}`}
-          >
-            {notes.map((issue, i) => (
-              <li key={i}>
-                {issue.line > 0 ? <span className="font-medium">Line {issue.line}: </span> : null}
-                {issue.message}
-              </li>
-            ))}
-          </ul>
-        ) : null}
+        <IssueList issues={errors} label={`Errors in ${label.toLowerCase()}`} tone="text-fail" />
+        {/* Lines an error above left unevaluated: said once each, quietly, so the error stands out. */}
+        <IssueList
+          issues={notes}
+          label={`Not evaluated in ${label.toLowerCase()}`}
+          tone="text-ink-soft"
+        />
         {block.kind === 'text' ? (
           <div className={MARKDOWN_CLASSES} dangerouslySetInnerHTML={{ __html: markdown }} />
         ) : result ? (
