@@ -60,7 +60,7 @@ describe('sheet reference, starters, hover and completion (browser)', () => {
     await waitForResults(page);
     const reason = block(page, plain, 'modes').getByTestId('participation-reason');
     expect(await reason.innerText()).toMatch(
-      /no influence direction\. Give direction: .*ones\(2\)/,
+      /empty \(—\): no direction given: write "direction:" with an influence vector, one entry per DOF \(ones\(2\)/,
     );
 
     // Completion and hover name a generator's signature.

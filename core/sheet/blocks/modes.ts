@@ -377,6 +377,7 @@ function readDirections(
   base: Record<string, unknown> | null,
   labels: readonly string[] | null,
   evalAt: (key: ModesKey) => unknown,
+  n: number,
 ): Directions {
   const { ctx, keys } = run;
   const inf = base?.influence as Record<string, unknown> | undefined;
@@ -424,7 +425,9 @@ function readDirections(
   return {
     influence: [],
     reason:
-      'no direction given: write "direction:" with an influence vector (one entry per DOF), or label the DOFs ("dofs:" of the matrix block) and write "direction: x".',
+      `no direction given: write "direction:" with an influence vector, one entry per DOF ` +
+      `(ones(${n}) when every DOF moves with the ground), or label the DOFs ("dofs:" of the ` +
+      `matrix block) and write "direction: x".`,
   };
 }
 
@@ -502,7 +505,7 @@ function readSolveSetup(run: ModesRun): SolveSetup | null {
   // second error.
   const directions =
     labels !== undefined
-      ? step('direction', () => readDirections(run, base, labels, evalAt))
+      ? step('direction', () => readDirections(run, base, labels, evalAt, K!.n))
       : undefined;
   if (bad || !K || !M || !directions) return null;
 
