@@ -24,7 +24,8 @@ export type EngineErrorCode =
   | 'INVALID_MODEL'
   | 'SHEET_PARSE'
   | 'SHEET_EVAL'
-  | 'SHEET_LIMIT';
+  | 'SHEET_LIMIT'
+  | 'NOT_EVALUATED';
 
 export class EngineError extends Error {
   readonly code: EngineErrorCode;

@@ -6,15 +6,23 @@ import type { MathNode } from 'mathjs';
 import { EngineError, isEngineError } from '../errors';
 import { prefixName, type FormatContext } from './format';
 import { FORBIDDEN_NAMES, type SheetMath } from './math';
-import { rewriteError, syntaxMessage, type MessageContext } from './messages';
+import { blockName, checkKeys, rewriteError, syntaxMessage, type MessageContext } from './messages';
 import type { EvaluateOptions, SheetIssue, SheetLocation, SheetUpload } from './types';
 
 export const DEFAULT_MAX_MATRIX_ENTRIES = 4_000_000;
 
+/**
+ * Where a name's defining line or block failed. `via` is set when it failed only because it used
+ * another failed name (it was not evaluated): following `via` leads to the first error.
+ */
+export interface FailedName extends SheetLocation {
+  via?: string;
+}
+
 export interface EvalContext {
   sm: SheetMath;
   scope: Map<string, unknown>;
-  failed: Map<string, SheetLocation>;
+  failed: Map<string, FailedName>;
   errors: SheetIssue[];
   significantFigures: number;
   uploads: readonly SheetUpload[];
@@ -37,7 +45,7 @@ export function formatContext(
   return { math: ctx.sm.math, significantFigures: ctx.significantFigures, writtenUnits, name };
 }
 
-/** Records an error at a location. */
+/** Records an error at a location; a NOT_EVALUATED error is recorded as a note. */
 export function report(
   ctx: EvalContext,
   at: SheetLocation,
@@ -45,7 +53,84 @@ export function report(
   node: MathNode | null = null,
 ): void {
   const e = rewriteError(err, node, messageContext(ctx));
+  if (e.code === NOT_EVALUATED) {
+    const dependsOn = String(e.details?.dependsOn ?? '');
+    ctx.errors.push({ ...at, message: e.message, code: e.code, severity: 'note', dependsOn });
+    return;
+  }
   ctx.errors.push({ ...at, message: e.message, code: e.code });
+}
+
+/** The code of a line or block left unevaluated because a name it uses failed above. */
+export const NOT_EVALUATED = 'NOT_EVALUATED' as const;
+
+/** The first failure a failed name goes back to (following `via`), with its name. */
+function firstFailure(ctx: EvalContext, name: string): { name: string; at: FailedName } | null {
+  let at = ctx.failed.get(name);
+  const seen = new Set<string>();
+  while (at?.via && !seen.has(at.via)) {
+    seen.add(name);
+    const next = ctx.failed.get(at.via);
+    if (!next) break;
+    name = at.via;
+    at = next;
+  }
+  return at ? { name, at } : null;
+}
+
+/**
+ * The note for an expression that uses a name whose line failed above (and is not defined since),
+ * or null. The note names the failed name and where the first error is, so the author fixes that
+ * one line instead of reading a second wave of "unknown name" errors.
+ */
+export function dependencyNote(ctx: EvalContext, node: MathNode): EngineError | null {
+  let used: string | null = null;
+  node.traverse((n, _path, parent) => {
+    if (used || n.type !== 'SymbolNode') return;
+    const name = (n as unknown as { name: string }).name;
+    if (ctx.scope.has(name) || !ctx.failed.has(name)) return;
+    if (
+      parent &&
+      parent.type === 'AssignmentNode' &&
+      (parent as unknown as { object: MathNode }).object === n
+    )
+      return;
+    used = name;
+  });
+  if (used === null) return null;
+  return notEvaluated(ctx, used);
+}
+
+/** The NOT_EVALUATED note for something that uses the failed name `name`. */
+export function notEvaluated(ctx: EvalContext, name: string): EngineError {
+  const direct = ctx.failed.get(name)!;
+  const first = firstFailure(ctx, name) ?? { name, at: direct };
+  const where = (at: SheetLocation) =>
+    at.line > 0 ? `line ${at.line} of ${blockName(at)}` : blockName(at);
+  const message =
+    first.name === name
+      ? `Not evaluated: depends on "${name}", which failed on ${where(direct)}.`
+      : `Not evaluated: depends on "${name}", which was not evaluated either; the first error is ` +
+        `"${first.name}" on ${where(first.at)}.`;
+  return new EngineError(NOT_EVALUATED, message, { dependsOn: name, root: first.name });
+}
+
+/**
+ * Marks `name` as failed at `at`. When every issue the failure left (`issues`) is a note, the
+ * name failed only through the name those notes depend on, which `via` records.
+ */
+export function markFailed(
+  ctx: EvalContext,
+  name: string,
+  at: SheetLocation,
+  issues: readonly SheetIssue[],
+): void {
+  const via =
+    issues.length > 0 && issues.every((i) => i.severity === 'note')
+      ? issues[0]!.dependsOn
+      : undefined;
+  ctx.failed.set(name, via ? { ...at, via } : { ...at });
+  ctx.scope.delete(name);
 }
 
 /** Parses one expression; throws SHEET_PARSE with an engineer's message. */
@@ -99,6 +184,7 @@ export function evaluateNode(
   if (ctx.options.isCancelled?.()) {
     throw new EngineError('CANCELLED', 'The evaluation was cancelled.');
   }
+  checkKeys(node, scope);
   return node.compile().evaluate(scope);
 }
 
@@ -137,4 +223,22 @@ export function checkSize(ctx: EvalContext, v: unknown): void {
       );
     }
   }
+}
+
+/**
+ * For a block about to be read: a function that marks its name failed with the issues the block
+ * reported from now on (so a block that only has notes fails through the name they depend on).
+ */
+export function nameFailure(
+  ctx: EvalContext,
+  blockId: string,
+): (name: string, at: SheetLocation) => void {
+  const before = ctx.errors.length;
+  return (name, at) =>
+    markFailed(
+      ctx,
+      name,
+      at,
+      ctx.errors.slice(before).filter((e) => e.blockId === blockId),
+    );
 }

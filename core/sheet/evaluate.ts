@@ -105,6 +105,6 @@ export function evaluateSheet(sheet: Sheet, options: EvaluateOptions = {}): Shee
     significantFigures: sig,
     blocks,
     errors: ctx.errors,
-    summary: { passed, failed, errors: ctx.errors.length },
+    summary: { passed, failed, errors: ctx.errors.filter((e) => e.severity !== 'note').length },
   };
 }

@@ -347,8 +347,41 @@ function math2d(v: unknown): unknown {
   return v;
 }
 
-registerSheetFunctions({
-  storey_chain: sheetStoreyChain,
-  beam: sheetBeam,
-  plane_frame: sheetPlaneFrame,
-});
+/** Each generator with its signature: a call with another number of arguments is refused by it. */
+const GENERATOR_SIGNATURES: Record<string, [(...args: unknown[]) => unknown, string]> = {
+  storey_chain: [
+    sheetStoreyChain as (...args: unknown[]) => unknown,
+    'storey_chain(masses, stiffnesses)',
+  ],
+  beam: [
+    sheetBeam as (...args: unknown[]) => unknown,
+    'beam({E, I, mass, length, elements, ends})',
+  ],
+  plane_frame: [
+    sheetPlaneFrame as (...args: unknown[]) => unknown,
+    'plane_frame({nodes, members, E, A, I, mass, fixed})',
+  ],
+};
+
+/** A generator that names its signature when given the wrong number of arguments. */
+function withArity(name: string, fn: (...args: unknown[]) => unknown, signature: string) {
+  return (...args: unknown[]) => {
+    if (args.length !== fn.length) {
+      throw new EngineError(
+        'SHEET_EVAL',
+        `${name} takes ${fn.length} argument${fn.length === 1 ? '' : 's'}, ${signature}; this line gives ${args.length}.`,
+        { function: name },
+      );
+    }
+    return fn(...args);
+  };
+}
+
+registerSheetFunctions(
+  Object.fromEntries(
+    Object.entries(GENERATOR_SIGNATURES).map(([name, [fn, sig]]) => [
+      name,
+      withArity(name, fn, sig),
+    ]),
+  ),
+);

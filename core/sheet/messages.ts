@@ -128,6 +128,137 @@ function findUnitMismatch(node: MathNode, ctx: MessageContext): string | null {
   return null;
 }
 
+/**
+ * The value of a pure look-up (`plant_x`, `plant_x.directions.x`), or undefined for anything that
+ * would have to be computed: a look-up has no cost and no effect, so it can be read for a message.
+ */
+function lookUp(node: MathNode, scope: Map<string, unknown>): unknown {
+  if (node.type === 'SymbolNode') return scope.get((node as unknown as { name: string }).name);
+  const key = dotKey(node);
+  if (key === null) return undefined;
+  const obj = lookUp((node as unknown as { object: MathNode }).object, scope);
+  return isRecord(obj) && Object.hasOwn(obj, key) ? obj[key] : undefined;
+}
+
+/** The key of `a.key` (an accessor in dot notation), else null. */
+function dotKey(node: MathNode): string | null {
+  if (node.type !== 'AccessorNode') return null;
+  const index = (
+    node as unknown as { index: { dotNotation?: boolean; getObjectProperty(): string | null } }
+  ).index;
+  return index.dotNotation ? index.getObjectProperty() : null;
+}
+
+/** A result object of the sheet (a generator's model, a modes or response result). */
+function isRecord(v: unknown): v is Record<string, unknown> {
+  return typeof v === 'object' && v !== null && Object.getPrototypeOf(v) === Object.prototype;
+}
+
+/**
+ * Refuses `plant_x.cumulativ` before mathjs gives "Cannot apply index: unsupported type of object"
+ * (or no value at all): the key is named with the object's keys and the nearest of them.
+ * @throws EngineError SHEET_EVAL "No key "cumulativ" on "plant_x"; its keys are …".
+ */
+export function checkKeys(node: MathNode, scope: Map<string, unknown>): void {
+  node.traverse((n) => {
+    const key = dotKey(n);
+    if (key === null) return;
+    const objectNode = (n as unknown as { object: MathNode }).object;
+    const obj = lookUp(objectNode, scope);
+    if (!isRecord(obj) || Object.hasOwn(obj, key)) return;
+    const keys = Object.keys(obj);
+    const near = key.length > 1 ? suggestName(key, keys) : null;
+    throw new EngineError(
+      'SHEET_EVAL',
+      `No key "${key}" on "${objectNode.toString()}"; its keys are ${keys.join(', ')}` +
+        `${near ? ` — did you mean "${near}"?` : '.'}`,
+      { key },
+    );
+  });
+}
+
+/** The innermost `a[i]` of the expression whose look-up fails, with what `a` is. */
+function failingIndex(
+  node: MathNode | null,
+  ctx: MessageContext,
+): { text: string; value: unknown } | null {
+  if (!node) return null;
+  const accessors = node.filter((n) => n.type === 'AccessorNode' && dotKey(n) === null).reverse();
+  for (const n of accessors) {
+    const object = (n as unknown as { object: MathNode }).object;
+    try {
+      n.compile().evaluate(new Map(ctx.scope));
+    } catch {
+      let value: unknown;
+      try {
+        value = object.compile().evaluate(new Map(ctx.scope));
+      } catch {
+        continue;
+      }
+      return { text: object.toString(), value };
+    }
+  }
+  return null;
+}
+
+function sizeWords(ctx: MessageContext, v: unknown): string | null {
+  const { math } = ctx.sm;
+  if (!math.isMatrix(v)) return null;
+  const size = (v as { size(): number[] }).size();
+  return size.length === 1 ? `${size[0]} entr${size[0] === 1 ? 'y' : 'ies'}` : size.join('×');
+}
+
+/** "plant_x.f has 3 entries: " or "", for the start of an index message. */
+function indexedWords(node: MathNode | null, ctx: MessageContext): string {
+  const f = failingIndex(node, ctx);
+  const size = f ? sizeWords(ctx, f.value) : null;
+  return f && size ? `${f.text} has ${size}: ` : '';
+}
+
+/** An index past either end, with what was indexed and its size; indices start at 1. */
+function indexMessage(
+  node: MathNode | null,
+  ctx: MessageContext,
+  asked: number,
+  max: number | null,
+): string {
+  const f = failingIndex(node, ctx);
+  const size = f ? sizeWords(ctx, f.value) : null;
+  const what = f ? `${f.text}${size ? ` (${size})` : ''}` : 'the value';
+  return max === null
+    ? `Index out of range: ${what} has no entry ${asked}; indices start at 1.`
+    : `Index out of range: ${what} has no entry ${asked}; its indices run from 1 to ${max}.`;
+}
+
+/** What a call `x(…)` / `a.x(…)` called, when it is a value in scope rather than a function. */
+function calledValue(
+  node: MathNode | null,
+  ctx: MessageContext,
+  name: string,
+): { text: string; what: string; args: string } | null {
+  if (!node) return null;
+  for (const n of node.filter((x) => x.type === 'FunctionNode')) {
+    const fn = (n as unknown as { fn: MathNode; args: MathNode[] }).fn;
+    const text = fn.toString();
+    if (!(text === name || text.endsWith(`.${name}`))) continue;
+    const value = lookUp(fn, ctx.scope);
+    if (value === undefined || typeof value === 'function') continue;
+    const size = sizeWords(ctx, value);
+    const args = (n as unknown as { args: MathNode[] }).args.map((a) => a.toString()).join(', ');
+    return { text, what: size ? `a list of ${size}` : 'a value', args };
+  }
+  return null;
+}
+
+/** How many arguments the line gives the function `name`, or null when it cannot tell. */
+function calledArgs(node: MathNode | null, name: string): number | null {
+  if (!node) return null;
+  const calls = node.filter(
+    (x) => x.type === 'FunctionNode' && (x as unknown as { fn: MathNode }).fn.toString() === name,
+  );
+  return calls.length === 1 ? (calls[0] as unknown as { args: MathNode[] }).args.length : null;
+}
+
 /** Rewrites an evaluation error for the engineer. Keeps the code of typed engine errors. */
 export function rewriteError(
   err: unknown,
@@ -153,15 +284,37 @@ export function rewriteError(
       `Matrix sizes do not match: ${msg.replace(/^Dimension mismatch\.?\s*/, '')}`,
     );
   }
-  m = /Index out of range \((\d+) > (\d+)\)/.exec(msg);
+  m = /Index out of range \((-?\d+) ([<>]) (\d+)\)/.exec(msg);
   if (m) {
+    const max = m[2] === '>' ? Number(m[3]) : null;
+    return new EngineError('SHEET_EVAL', indexMessage(node, ctx, Number(m[1]), max));
+  }
+  if (/Index must be an integer/.test(msg)) {
     return new EngineError(
       'SHEET_EVAL',
-      `Index out of range: asked for entry ${Number(m[1]) + 1}, but there are only ${Number(m[2]) + 1}. Indices start at 1.`,
+      `${indexedWords(node, ctx)}an index must be a whole number from 1 (entry 1, 2, 3…).`,
     );
   }
-  if (/Index out of range \((-?\d+) < 0\)|Index.*must be.*positive/i.test(msg)) {
-    return new EngineError('SHEET_EVAL', 'Index out of range: indices start at 1.');
+  m = /^'(\w+)' is not a function/.exec(msg) ?? /^No access to method "(\w+)"/.exec(msg);
+  if (m) {
+    const called = calledValue(node, ctx, m[1]!);
+    if (called) {
+      return new EngineError(
+        'SHEET_EVAL',
+        `"${called.text}" is ${called.what}, not a function: write ${called.text}[${called.args}] ` +
+          `(square brackets) to take an entry.`,
+      );
+    }
+  }
+  m = /^Too (many|few) arguments in function (\w+) \(expected: ([^,)]+)/.exec(msg);
+  if (m) {
+    const given = calledArgs(node, m[2]!);
+    const expected = /^\d+$/.test(m[3]!) ? Number(m[3]) : null;
+    return new EngineError(
+      'SHEET_EVAL',
+      `${m[2]} was given ${given === null ? (m[1] === 'many' ? 'too many' : 'too few') : given} ` +
+        `argument${given === 1 ? '' : 's'}${expected !== null ? `; it takes ${expected}` : m[1] === 'few' ? '; it needs more' : ''}.`,
+    );
   }
   if (/No access to property|No access to method/.test(msg)) {
     return new EngineError('SHEET_EVAL', `${msg.replace(/"/g, '"')}: not available in a sheet.`);

@@ -51,8 +51,16 @@ export interface SheetLocation {
 /** An error found while parsing or evaluating a sheet. Evaluation continues where it can. */
 export interface SheetIssue extends SheetLocation {
   message: string;
-  /** UPPER_SNAKE code: SHEET_PARSE, SHEET_EVAL, SHEET_LIMIT or an engine code. */
+  /** UPPER_SNAKE code: SHEET_PARSE, SHEET_EVAL, SHEET_LIMIT, NOT_EVALUATED or an engine code. */
   code: string;
+  /**
+   * 'note' for a line or block left unevaluated because a name it uses failed above (code
+   * NOT_EVALUATED): the error that caused it is reported once where it happened, and the note
+   * names it, so one slip does not read as a wave of errors. Absent for an error.
+   */
+  severity?: 'note';
+  /** With a note: the failed name the line uses. */
+  dependsOn?: string;
 }
 
 /**
@@ -243,6 +251,11 @@ export interface ModesBlockResult extends BlockResultBase {
    * name; absent without a direction (and on results before engine 0.4.3).
    */
   participation?: { direction: string; mass: number } | null;
+  /**
+   * Why Γ, effective mass and cumulative are empty when `participation` is null ("no direction
+   * given", "direction x has no DOFs in this model …"); absent on older results.
+   */
+  participationReason?: string | null;
   criticalTimeStep: number | null;
   /**
    * What the reader should know about the solve, each with an UPPER_SNAKE code: the engine's
@@ -369,6 +382,7 @@ export interface SheetResults {
   significantFigures: number;
   blocks: BlockResult[];
   errors: SheetIssue[];
+  /** `errors` counts errors only; the notes of lines they left unevaluated are not counted. */
   summary: { passed: number; failed: number; errors: number };
 }
 

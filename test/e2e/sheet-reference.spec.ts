@@ -11,6 +11,7 @@ import {
   blockCount,
   column,
   newSheet,
+  shotPath,
   source,
   useAuthorBrowser,
   waitForResults,
@@ -60,7 +61,7 @@ describe('sheet reference, starters, hover and completion (browser)', () => {
     await waitForResults(page);
     const reason = block(page, plain, 'modes').getByTestId('participation-reason');
     expect(await reason.innerText()).toMatch(
-      /no influence direction\. Give direction: .*ones\(2\)/,
+      /empty \(—\): no direction given: write "direction:" with an influence vector, one entry per DOF \(ones\(2\)/,
     );
 
     // Completion and hover name a generator's signature.
@@ -110,6 +111,12 @@ describe('sheet reference, starters, hover and completion (browser)', () => {
       .poll(() => reference.evaluate(() => document.documentElement.scrollWidth))
       .toBeLessThanOrEqual(390);
     await saveScreenshot(reference, 'sheet-reference-390');
+    // How an uploaded model gets its directions, with the files and blocks of its example.
+    const topic = reference.getByRole('region', { name: 'DOF labels of an uploaded model' });
+    expect(await topic.innerText()).toContain('dofs: per node ux uy rz');
+    await topic.screenshot({ path: await shotPath('sheet-reference-dof-labels-390') });
+    await reference.setViewportSize({ width: 1366, height: 900 });
+    await topic.screenshot({ path: await shotPath('sheet-reference-dof-labels-1366') });
     await reference.close();
   });
 });

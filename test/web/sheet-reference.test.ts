@@ -9,6 +9,7 @@ import {
   MATRIX_KEY_REFERENCE,
   MODES_KEY_REFERENCE,
   RESPONSE_KEY_REFERENCE,
+  TOPIC_REFERENCE,
   type ExampleBlock,
 } from '../../web/src/config/sheet-reference';
 import { BLOCK_KINDS } from '../../web/src/features/editor/api/types';
@@ -52,6 +53,27 @@ describe('the sheet reference', () => {
       expect(entry.example.at(-1)?.kind).toBe(kind);
     },
   );
+
+  it.each(TOPIC_REFERENCE.map((t) => [t.title, t] as const))(
+    'evaluates the example of “%s” with its uploads',
+    (_title, topic) => {
+      const sheet: Sheet = { blocks: topic.example.map((b, i) => ({ id: `ex${i}`, ...b })) };
+      const results = evaluateSheet(sheet, { uploads: topic.uploads });
+      expect(results.errors).toEqual([]);
+      expect(results.summary.failed).toBe(0);
+    },
+  );
+
+  it('gives the labelled example the two-storey frame’s effective masses, 8/9 and 1/9', () => {
+    const topic = TOPIC_REFERENCE.find((t) => t.id === 'dof-labels')!;
+    const sheet: Sheet = { blocks: topic.example.map((b, i) => ({ id: `ex${i}`, ...b })) };
+    const modes = evaluateSheet(sheet, { uploads: topic.uploads }).blocks[2];
+    if (modes?.kind !== 'modes') throw new Error('no modes result');
+    // REFERENCES.md item 3 (Chopra, chapter 10, from memory): 8/9 and 1/9 of the x mass; the y
+    // and twist modes (2, 3, 5, 6) have none along x. Absolute 1e-10 on a dense 6 × 6 solve.
+    const expected = [8 / 9, 0, 0, 1 / 9, 0, 0];
+    modes.modes.forEach((m, i) => expect(Math.abs(m.ratio! - expected[i]!)).toBeLessThan(1e-10));
+  });
 
   it('solves the new modes block’s starting point: two modes with participation', () => {
     const starter = BLOCK_REFERENCE.find((b) => b.kind === 'modes')!.starter;

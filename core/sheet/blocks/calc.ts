@@ -191,6 +191,10 @@ export function evaluateCalcBlock(
         throw err;
       }
     },
+    skipped(node, line, dependsOn) {
+      const name = assignedName(node);
+      if (name) ctx.failed.set(name, { blockId: block.id, blockIndex, line, via: dependsOn });
+    },
     unparsed(code, line) {
       // Unparsable: a line that looks like `name = …` still defines (a failed) name.
       const m = /^\s*([A-Za-z_][A-Za-z0-9_]*)\s*=[^=]/.exec(code);

@@ -3,7 +3,7 @@
  * lines allowed; each key once. Parse errors are reported at their line and reading goes on.
  */
 import { EngineError } from '../../errors';
-import { report, type EvalContext } from '../context';
+import { dependencyNote, parseExpression, report, type EvalContext } from '../context';
 import { blockLines, splitComment } from '../source';
 import type { SheetBlock, SheetLocation } from '../types';
 
@@ -85,5 +85,33 @@ export function checkBlockName(
       `"${nameLine.value}" is not a valid name: use letters, digits and _, starting with a letter.`,
     ),
   );
+  return false;
+}
+
+/**
+ * Reports one note, at the first of `expressionKeys` whose value uses a name that failed above,
+ * and returns true: such a block is not evaluated (its other keys would only repeat the note).
+ * A value that does not parse is left for the key's own reading to report.
+ */
+export function reportDependency<K extends string>(
+  ctx: EvalContext,
+  keys: Partial<Record<K, KeyLine>>,
+  expressionKeys: readonly K[],
+  at: (line: number) => SheetLocation,
+): boolean {
+  for (const k of expressionKeys) {
+    const kl = keys[k];
+    if (!kl) continue;
+    let note: EngineError | null;
+    try {
+      note = dependencyNote(ctx, parseExpression(ctx, kl.value));
+    } catch {
+      continue;
+    }
+    if (note) {
+      report(ctx, at(kl.line), note);
+      return true;
+    }
+  }
   return false;
 }

@@ -10,6 +10,8 @@
  * 0, -24, 24
  * ```
  * or `from: <upload name>` instead of rows (Matrix Market or CSV, read by the engine's readers).
+ * `dofs:` labels the rows of a square matrix (../dof-labels.ts): `per node ux uy uz rx ry rz`,
+ * `from <DOF map upload>` or `n1.ux, n2.ux`; a modes block builds `direction: x` from them.
  * A single column is bound as a vector. Symmetry is checked with the location and size of the
  * worst asymmetry: |a_ij − a_ji| ≤ 1e-9 · max |a| counts as symmetric (typed and exported values
  * round at about that level).
@@ -24,11 +26,51 @@ import { toSymmetricMatrix, type ParsedMatrix } from '../../linalg/matrix-io';
 import type { SparseSymmetricMatrix } from '../../linalg/types';
 import { fullNonzeros, LARGE_UPLOAD_MIN_ROWS, LargeMatrix } from '../large-matrix';
 import { readUpload, uploadRows } from './upload';
+import {
+  checkDistinct,
+  dofLabelsFromList,
+  dofLabelsFromMap,
+  dofLabelsFromRule,
+  ruleComponents,
+} from '../dof-labels';
+import { MATRIX_DOFS } from '../generators';
+
+/**
+ * The labels `dofs:` gives the rows of a square matrix of size n.
+ * @throws EngineError MATRIX_SIZE_MISMATCH when their number is not n; SHEET_PARSE for a bad label.
+ */
+function readDofLabels(ctx: EvalContext, text: string, n: number, name: string): string[] {
+  const what = `${name} (${n}×${n})`;
+  const rule = ruleComponents(text);
+  let labels: string[];
+  let source = '"dofs:"';
+  if (rule) {
+    labels = dofLabelsFromRule(rule, n, what);
+  } else {
+    const m = /^from\s+(.+)$/i.exec(text.trim());
+    if (m) {
+      const { file, parsed } = readUpload(ctx, m[1]!.trim());
+      labels = dofLabelsFromMap(uploadRows(ctx, file, parsed), file);
+      source = `The DOF map ${file}`;
+    } else {
+      labels = dofLabelsFromList(text);
+    }
+  }
+  if (labels.length !== n) {
+    throw new EngineError(
+      'MATRIX_SIZE_MISMATCH',
+      `${source} gives ${labels.length} DOF label${labels.length === 1 ? '' : 's'} but ${what} has ${n} rows: one label per row of the matrix, in its order.`,
+      { labels: labels.length, n },
+    );
+  }
+  checkDistinct(labels);
+  return labels;
+}
 
 /** Relative asymmetry below which a matrix counts as symmetric. */
 export const SYMMETRY_TOLERANCE = 1e-9;
 
-const HEADER_KEYS = ['name', 'unit', 'symmetric', 'from'] as const;
+const HEADER_KEYS = ['name', 'unit', 'symmetric', 'from', 'dofs'] as const;
 type HeaderKey = (typeof HEADER_KEYS)[number];
 
 const NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
@@ -204,6 +246,14 @@ export function evaluateMatrixBlock(
     return result;
   };
   if (failed) return fail();
+  // Reported at the `dofs:` line: the labels and the matrix size must agree.
+  const dofsAt = (n: number): string[] => {
+    try {
+      return readDofLabels(ctx, header.dofs!.value, n, name!);
+    } catch (err) {
+      throw new ReportedAt(header.dofs!.line, err);
+    }
+  };
 
   let unit: Unit | null = null;
   if (header.unit && header.unit.value !== '' && header.unit.value !== '1') {
@@ -261,6 +311,7 @@ export function evaluateMatrixBlock(
           engine,
           unit ? unit.formatUnits() : null,
           fullNonzeros(A),
+          header.dofs ? dofsAt(A.n) : null,
         );
         result.rows = large.n;
         result.cols = large.n;
@@ -275,7 +326,8 @@ export function evaluateMatrixBlock(
       }
       data = uploadRows(ctx, file, parsed);
     } catch (err) {
-      report(ctx, at(header.from.line), err);
+      if (err instanceof ReportedAt) report(ctx, at(err.line), err.cause);
+      else report(ctx, at(header.from.line), err);
       return fail();
     }
   } else if (rows.length === 0) {
@@ -351,6 +403,25 @@ export function evaluateMatrixBlock(
     result.mustBeSymmetric = false;
   }
 
+  let labels: string[] | null = null;
+  if (header.dofs) {
+    try {
+      if (nr !== nc) {
+        throw new ReportedAt(
+          header.dofs.line,
+          new EngineError(
+            'MATRIX_NOT_SQUARE',
+            `${name} is ${nr}×${nc}; only a square matrix has DOF labels.`,
+          ),
+        );
+      }
+      labels = dofsAt(nr);
+    } catch (err) {
+      const e = err as ReportedAt;
+      report(ctx, at(e.line), e.cause);
+      return fail();
+    }
+  }
   const { math } = ctx.sm;
   const plain: Matrix = nc === 1 ? math.matrix(data.map((r) => r[0]!)) : math.matrix(data);
   const value = unit ? (math.multiply(plain, math.unit(1, unit.formatUnits())) as Matrix) : plain;
@@ -361,8 +432,19 @@ export function evaluateMatrixBlock(
     report(ctx, at(header.name.line), err);
     return fail();
   }
+  if (labels) MATRIX_DOFS.set(value, labels);
   ctx.scope.set(name!, value);
   ctx.failed.delete(name!);
   result.ok = true;
   return result;
+}
+
+/** An error to report at a given line of the block rather than the line being read. */
+class ReportedAt extends Error {
+  constructor(
+    readonly line: number,
+    override readonly cause: unknown,
+  ) {
+    super('reported at a line');
+  }
 }

@@ -28,14 +28,15 @@ import type {
 } from '../../eigen/types';
 import { denseFromRows } from '../../linalg/sparse';
 import type { SymmetricMatrix } from '../../linalg/types';
-import { evaluateNode, parseExpression, report, type EvalContext } from '../context';
+import { evaluateNode, nameFailure, parseExpression, report, type EvalContext } from '../context';
 import { RESULT_MATRIX_LIMIT } from '../format';
 import { ENGINE_MATRICES, MATRIX_DOFS } from '../generators';
 import { LargeMatrix } from '../large-matrix';
+import { labelledComponents, labelledDirections, labelledInfluence } from '../dof-labels';
 import { MODAL_RESULTS } from '../modal-registry';
 import { shapePreview } from '../shape-preview';
 import type { ModeRow, ModesBlockResult, ModesWarning, SheetBlock, SheetLocation } from '../types';
-import { checkBlockName, readKeyLines, type KeyLine } from './key-lines';
+import { checkBlockName, readKeyLines, reportDependency, type KeyLine } from './key-lines';
 
 export const MODES_KEYS = [
   'stiffness',
@@ -288,6 +289,8 @@ interface SolveSetup {
   M: SideMatrix;
   options: SolveOptions;
   influence: InfluenceVector[];
+  /** Why participation is empty, when it is. */
+  participationReason: string | null;
   warnings: ModesWarning[];
 }
 
@@ -331,38 +334,114 @@ function generatorBase(ctx: EvalContext, keys: ModesKeys): Record<string, unknow
     : null;
 }
 
-/** The influence directions: `direction:` or, without it, every direction of the generator. */
+/** A name in a `direction:` line is a word (`x`), never evaluated, unless it names a value. */
+const DIRECTION_WORD = /^[A-Za-z][A-Za-z0-9_]*$/;
+
+/** The influence directions, and why participation is empty when there are none. */
+interface Directions {
+  influence: InfluenceVector[];
+  /** Why Γ, effective mass and cumulative are empty; null when a direction is there. */
+  reason: string | null;
+}
+
+function vectorOf(ctx: EvalContext, v: unknown): Float64Array | null {
+  const { math } = ctx.sm;
+  const arr = math.isMatrix(v) ? ((v as Matrix).toArray() as unknown[]).flat(2) : null;
+  return arr && arr.every((x) => typeof x === 'number') ? Float64Array.from(arr as number[]) : null;
+}
+
+/** The directions of labelled DOFs (`dofs:` of the matrix blocks of K and M). */
+function labelledDirectionsOf(labels: readonly string[], asked: string | null): Directions {
+  const names = asked ? [asked] : labelledDirections(labels);
+  const influence: InfluenceVector[] = [];
+  for (const d of names) {
+    const vector = labelledInfluence(labels, d);
+    if (vector.some((x) => x !== 0)) influence.push({ name: d, vector });
+  }
+  if (influence.length > 0) return { influence, reason: null };
+  const comps = labelledComponents(labels).join(', ');
+  return {
+    influence,
+    reason: asked
+      ? `direction ${asked} has no DOFs in this model (its DOF labels have the components ${comps}).`
+      : `no direction given, and the DOF labels have no translation (ux, uy, uz) to take one from (their components are ${comps}).`,
+  };
+}
+
+/**
+ * The influence directions: `direction:` (a vector, or a direction name of the generator or of
+ * the DOF labels) or, without it, every direction of the generator or of the labels.
+ */
 function readDirections(
   run: ModesRun,
   base: Record<string, unknown> | null,
+  labels: readonly string[] | null,
   evalAt: (key: ModesKey) => unknown,
-): InfluenceVector[] {
+  n: number,
+): Directions {
   const { ctx, keys } = run;
-  const { math } = ctx.sm;
-  const influence: InfluenceVector[] = [];
-  if (keys.direction) {
-    const d = keys.direction.value;
-    const inf = base?.influence as Record<string, unknown> | undefined;
-    let v: unknown;
-    if (/^[A-Za-z][A-Za-z0-9_]*$/.test(d) && inf && d in inf && !ctx.scope.has(d)) v = inf[d];
-    else v = evalAt('direction');
-    const arr = math.isMatrix(v) ? ((v as Matrix).toArray() as unknown[]).flat(2) : null;
-    if (!arr || !arr.every((x) => typeof x === 'number')) {
+  const inf = base?.influence as Record<string, unknown> | undefined;
+  const d = keys.direction?.value ?? null;
+  if (d !== null && DIRECTION_WORD.test(d) && !ctx.scope.has(d)) {
+    if (inf) {
+      if (!(d in inf)) {
+        fail(
+          `"${d}" is not a direction of this model; its directions are ${Object.keys(inf).join(', ')}.`,
+        );
+      }
+      return { influence: [{ name: d, vector: vectorOf(ctx, inf[d])! }], reason: null };
+    }
+    if (labels) return labelledDirectionsOf(labels, d);
+    fail(
+      `"${d}" is not a direction of this model: K and M have no DOF labels to build it from. ` +
+        `Label the DOFs of K's matrix block (for example "dofs: per node ux uy uz rx ry rz"), or ` +
+        `give "direction:" an influence vector with one entry per DOF (for example [1, 1, 1]).`,
+    );
+  }
+  if (d !== null) {
+    const vector = vectorOf(ctx, evalAt('direction'));
+    if (!vector) {
       fail(
         `"direction:" must be an influence vector of plain numbers (for example [1, 1, 1]) or the name of one of the model's directions.`,
       );
     }
-    influence.push({ name: d, vector: Float64Array.from(arr as number[]) });
-  } else if (base?.influence && typeof base.influence === 'object') {
-    for (const [nm, v] of Object.entries(base.influence as Record<string, unknown>)) {
-      if (math.isMatrix(v))
-        influence.push({
-          name: nm,
-          vector: Float64Array.from(((v as Matrix).toArray() as number[]).flat()),
-        });
+    if (vector.every((x) => x === 0)) {
+      return {
+        influence: [],
+        reason: `direction ${d} is all zeros: no DOF moves with the ground.`,
+      };
+    }
+    return { influence: [{ name: d, vector }], reason: null };
+  }
+  if (inf) {
+    const influence: InfluenceVector[] = [];
+    for (const [nm, v] of Object.entries(inf)) {
+      const vector = vectorOf(ctx, v);
+      if (vector) influence.push({ name: nm, vector });
+    }
+    return { influence, reason: influence.length > 0 ? null : 'the model has no directions.' };
+  }
+  if (labels) return labelledDirectionsOf(labels, null);
+  return {
+    influence: [],
+    reason:
+      `no direction given: write "direction:" with an influence vector, one entry per DOF ` +
+      `(ones(${n}) when every DOF moves with the ground), or label the DOFs ("dofs:" of the ` +
+      `matrix block) and write "direction: x".`,
+  };
+}
+
+/** The DOF labels of K and M (the same when both have them); refuses two that differ. */
+function pencilLabels(K: SideMatrix, M: SideMatrix): readonly string[] | null {
+  if (K.dofs && M.dofs && K.dofs.length === M.dofs.length) {
+    const i = K.dofs.findIndex((l, j) => l !== M.dofs![j]);
+    if (i >= 0) {
+      fail(
+        `K and M label their DOFs differently: DOF ${i + 1} is ${K.dofs[i]} in K but ${M.dofs[i]} in M. Give both matrix blocks the same "dofs:".`,
+      );
     }
   }
-  return influence;
+  return K.dofs ?? M.dofs;
 }
 
 /** Step 3: each key read at its own line (errors point there); null after reporting. */
@@ -421,17 +500,27 @@ function readSolveSetup(run: ModesRun): SolveSetup | null {
   if (keys.normalize)
     step('normalize', () => (options.normalize = parseNormalize(keys.normalize!.value)));
   if (keys.shift) step('shift', () => (options.shift = readShift(ctx, evalAt('shift'))));
-  const influence =
-    (keys.direction
-      ? step('direction', () => readDirections(run, base, evalAt))
-      : readDirections(run, base, evalAt)) ?? [];
-  if (bad || !K || !M) return null;
+  const labels = K && M ? step('mass', () => pencilLabels(K, M)) : undefined;
+  // Without K, M and their labels there is nothing a direction could be checked against: no
+  // second error.
+  const directions =
+    labels !== undefined
+      ? step('direction', () => readDirections(run, base, labels, evalAt, K!.n))
+      : undefined;
+  if (bad || !K || !M || !directions) return null;
 
   const warnings: ModesWarning[] = [];
   const unitsOk = step(K.unit ? 'mass' : 'stiffness', () => checkPencilUnits(ctx, K, M));
   if (unitsOk === undefined && bad) return null;
   if (unitsOk) warnings.push({ code: 'UNITS_ASSUMED_SI', message: unitsOk });
-  return { K, M, options, influence, warnings };
+  return {
+    K,
+    M,
+    options,
+    influence: directions.influence,
+    participationReason: directions.reason,
+    warnings,
+  };
 }
 
 /** λ = (2πf)² from `shift:` in Hz, rpm or rad/s. */
@@ -456,6 +545,21 @@ function checkSizes(run: ModesRun, setup: SolveSetup): boolean {
       new EngineError(
         'MATRIX_SIZE_MISMATCH',
         `K is ${K.n}×${K.n} but M is ${M.n}×${M.n}; they must be the same size.`,
+      ),
+    );
+    return false;
+  }
+  const count = setup.options.count;
+  if (count !== undefined && count > K.n) {
+    // Refused rather than clamped: the count is part of what the sheet states it computed, and a
+    // checker reading "count: 12" beside a table of 8 modes cannot tell a typo from a limit.
+    report(
+      ctx,
+      at(keys.count!.line),
+      new EngineError(
+        'INVALID_OPTION',
+        `"count: ${count}" asks for more modes than the model has: K is ${K.n}×${K.n}, so it has ${K.n} modes. Write "count: ${K.n}" for all of them, or fewer.`,
+        { count, dofs: K.n },
       ),
     );
     return false;
@@ -607,6 +711,7 @@ function fillResult(result: ModesBlockResult, setup: SolveSetup, r: ModalResult)
     ? { shift: r.sturm.shift, count: r.sturm.countBelow, found: r.sturm.found, missed: !r.sturm.ok }
     : null;
   result.participation = p ? { direction: p.name, mass: p.totalMass } : null;
+  result.participationReason = p ? null : setup.participationReason;
   result.criticalTimeStep = r.criticalTimeStep?.dtCr ?? null;
   result.warnings = [
     ...setup.warnings,
@@ -640,13 +745,16 @@ export function evaluateModesBlock(
   const name = keys.name?.value ?? 'modes';
   result.name = name;
   const run: ModesRun = { ctx, block, blockIndex, keys, name, at };
+  const failName = nameFailure(ctx, block.id);
   const markFailed = () => {
-    ctx.failed.set(name, at(keys.name?.line ?? 0));
-    ctx.scope.delete(name);
+    failName(name, at(keys.name?.line ?? 0));
     return result;
   };
   if (!checkBlockName(ctx, keys.name, at)) return result;
   if (bad || !checkRequired(run)) return markFailed();
+  if (reportDependency(ctx, keys, ['stiffness', 'mass', 'shift', 'direction'], at)) {
+    return markFailed();
+  }
   const setup = readSolveSetup(run);
   if (!setup || !checkSizes(run, setup)) return markFailed();
   attachRunOptions(run, setup);

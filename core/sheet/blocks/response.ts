@@ -32,7 +32,7 @@ import {
   type Spectrum,
   type SpectrumAnalysisResult,
 } from '../../response/index';
-import { evaluateNode, parseExpression, report, type EvalContext } from '../context';
+import { evaluateNode, nameFailure, parseExpression, report, type EvalContext } from '../context';
 import { blockName } from '../messages';
 import { MODAL_RESULTS, type RegisteredModes } from '../modal-registry';
 import type {
@@ -52,7 +52,21 @@ import {
   RESPONSE_KEYS,
   type ResponseKey,
 } from '../../vocabulary';
-import { checkBlockName, readKeyLines, type KeyLine } from './key-lines';
+import { checkBlockName, readKeyLines, reportDependency, type KeyLine } from './key-lines';
+
+/** Keys whose values are words or names of things (not expressions a failed name could be in). */
+const WORD_KEYS: ReadonlySet<ResponseKey> = new Set<ResponseKey>([
+  'analysis',
+  'spectrum',
+  'ground',
+  'table unit',
+  'record unit',
+  'combine',
+  'direction',
+  'directional',
+  'method',
+  'name',
+]);
 
 const COMMON = RESPONSE_COMMON_KEYS;
 
@@ -960,13 +974,15 @@ export function evaluateResponseBlock(
   );
   const name = keys.name?.value ?? 'response';
   result.name = name;
+  const failName = nameFailure(ctx, block.id);
   const markFailed = () => {
-    ctx.failed.set(name, at(keys.name?.line ?? 0));
-    ctx.scope.delete(name);
+    failName(name, at(keys.name?.line ?? 0));
     return result;
   };
   if (!checkBlockName(ctx, keys.name, at)) return result;
   if (bad) return markFailed();
+  const expressionKeys = RESPONSE_KEYS.filter((k) => !WORD_KEYS.has(k));
+  if (reportDependency(ctx, keys, expressionKeys, at)) return markFailed();
   for (const req of ['modes', 'analysis'] as const) {
     if (!keys[req]) {
       report(

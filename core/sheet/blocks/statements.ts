@@ -1,11 +1,12 @@
 /**
  * The line loop shared by calc and criteria blocks: each non-blank line (comments split off) is
  * parsed and handed to the block's evaluator; a failure is reported at its line and the loop
- * goes on, except a cancellation, which stops the sheet.
+ * goes on, except a cancellation, which stops the sheet. A line that uses a name whose line failed
+ * above is not evaluated: it gets a note naming that name, not a second error.
  */
 import type { MathNode } from 'mathjs';
 import { EngineError } from '../../errors';
-import { parseExpression, report, type EvalContext } from '../context';
+import { dependencyNote, parseExpression, report, type EvalContext } from '../context';
 import { blockLines, splitComment } from '../source';
 import type { SheetBlock } from '../types';
 
@@ -14,6 +15,8 @@ export interface StatementHandlers {
   evaluate(node: MathNode, code: string, line: number, comment: string | null): void;
   /** Called for a line that does not parse, before the error is reported. */
   unparsed?(code: string, line: number): void;
+  /** Called for a line not evaluated because it uses `dependsOn`, a name that failed above. */
+  skipped?(node: MathNode, line: number, dependsOn: string): void;
 }
 
 /**
@@ -35,6 +38,11 @@ export function evaluateStatements(
     let node: MathNode | null = null;
     try {
       node = parseExpression(ctx, code);
+      const note = dependencyNote(ctx, node);
+      if (note) {
+        handlers.skipped?.(node, line, String(note.details?.dependsOn));
+        throw note;
+      }
       handlers.evaluate(node, code, line, comment);
     } catch (err) {
       if (err instanceof EngineError && err.code === 'CANCELLED') throw err;

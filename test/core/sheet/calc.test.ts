@@ -292,8 +292,9 @@ describe('calc blocks: errors at the right line', () => {
     expect(r.errors.map((e) => e.line)).toEqual([1, 2]);
     expect(r.errors[0]!.code).toBe('SHEET_PARSE');
     expect(r.errors[1]!.message).toBe(
-      'Unknown name "a": line 1 of block 1 ("c1") would define it but has an error.',
+      'Not evaluated: depends on "a", which failed on line 1 of block 1 ("c1").',
     );
+    expect(r.errors[1]).toMatchObject({ severity: 'note', dependsOn: 'a' });
     // Evaluation goes on after errors.
     expect(block.lines.map((l) => l.name)).toEqual(['c']);
   });
@@ -306,7 +307,7 @@ describe('calc blocks: errors at the right line', () => {
       ],
     });
     expect(r.errors[1]!.message).toBe(
-      'Unknown name "a": line 1 of block 1 would define it but has an error.',
+      'Not evaluated: depends on "a", which failed on line 1 of block 1.',
     );
   });
 

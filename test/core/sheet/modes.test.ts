@@ -237,8 +237,12 @@ describe('modes blocks: refusals', () => {
     expect(r.errors[0]!.message).toBe(
       'M is in kN; a mass matrix must be in mass units — did you enter weights instead of masses? Divide by g = 9.81 m/s².',
     );
-    // Names a failed block would define are reported as such below.
-    expect(r.errors[1]!.message).toMatch(/Unknown name "bad": line 3 of block 3 \("m"\)/);
+    // A line that uses the failed block's name is not evaluated: a note names the first error.
+    expect(r.errors[1]).toMatchObject({ blockId: 'u', severity: 'note', code: 'NOT_EVALUATED' });
+    expect(r.errors[1]!.message).toBe(
+      'Not evaluated: depends on "bad", which failed on line 3 of block 3 ("m").',
+    );
+    expect(r.summary.errors).toBe(1);
   });
 
   it('refuses K and M whose units do not reduce to 1/s²', () => {

@@ -187,7 +187,8 @@ export const MODES_KEY_REFERENCE: KeyReference[] = [
     key: 'count',
     value: 'a whole number',
     default: '3',
-    summary: 'How many modes; no more than the model’s degrees of freedom.',
+    summary:
+      'How many modes; at most the model’s degrees of freedom (a larger count is refused, naming both: write the number of DOFs for every mode).',
   },
   {
     key: 'shift',
@@ -216,10 +217,10 @@ export const MODES_KEY_REFERENCE: KeyReference[] = [
   {
     key: 'direction',
     value:
-      'an influence vector ([1, 1, 1], frame.r, ones(200)) or a generator’s direction name (x, transverse)',
-    default: 'the generator’s first direction',
+      'a direction name (x; a generator’s transverse) or an influence vector ([1, 1, 1], frame.r)',
+    default: 'every direction of the generator or of the DOF labels',
     summary:
-      'The ground-motion direction for participation factors and effective masses. An uploaded model has no named directions: give a vector with one entry per DOF.',
+      'The ground-motion direction for participation factors and effective masses. An uploaded model gets its directions from DOF labels (`dofs:` of its matrix blocks): `direction: x` is 1 at every ux DOF. Without a direction the Γ and mass columns are empty and the table says why.',
   },
   {
     key: 'name',
@@ -253,6 +254,66 @@ export const MATRIX_KEY_REFERENCE: KeyReference[] = [
     value: 'the name of an uploaded file',
     default: 'rows typed below the header',
     summary: 'Matrix Market (coordinate or array) or CSV (rows or i,j,value triplets).',
+  },
+  {
+    key: 'dofs',
+    value: 'per node ux uy uz rx ry rz | from <DOF map upload> | n1.ux, n2.ux',
+    default: 'none (no named directions)',
+    summary:
+      'Labels the rows of a square matrix, one per DOF, so a modes block can build `direction: x`. See “DOF labels of an uploaded model” below.',
+  },
+];
+
+/** A topic that spans blocks, with an example that evaluates with the uploads it names. */
+export type TopicReference = {
+  id: string;
+  title: string;
+  /** Paragraphs; `code` is set as code. */
+  paragraphs: string[];
+  /** The files the example reads, as a person would upload them. */
+  uploads: { name: string; text: string }[];
+  example: ExampleBlock[];
+};
+
+/**
+ * How an uploaded model gets its directions. The example is REFERENCES.md item 3, the two-storey
+ * frame (masses 2m, m; stiffnesses 2k, k), with three DOFs per floor: its x sway has effective
+ * masses 8/9 and 1/9 of the 300 t.
+ */
+export const TOPIC_REFERENCE: TopicReference[] = [
+  {
+    id: 'dof-labels',
+    title: 'DOF labels of an uploaded model',
+    paragraphs: [
+      'Participation needs an influence vector: which DOFs move with the ground along a direction. A generator knows its DOFs; an uploaded K and M are only numbers. Label their rows with `dofs:` in the matrix block, one label `node.component` per DOF, in one of three ways:',
+      '`dofs: per node ux uy rz` — a rule: DOFs 1–3 are node 1’s (n1.ux, n1.uy, n1.rz), 4–6 node 2’s, and so on. The matrix size must be a whole number of nodes.',
+      '`dofs: from tower-dofs.csv` — a DOF map uploaded beside the matrix: one row per DOF, in the matrix’s order, giving the node number and the component number 1–6 (1 ux, 2 uy, 3 uz, 4 rx, 5 ry, 6 rz), as analysis programs number a node’s DOFs.',
+      '`dofs: n1.ux, n2.ux` — the labels written out, for a typed matrix.',
+      'Then `direction: x` in the modes block is 1 at every ux DOF and 0 elsewhere (rotations included): the model translating rigidly with the ground. Without `direction:`, every translation the labels have (x, y, z) is used. K and M must carry the same labels; labels that do not match the matrix size are refused at the `dofs:` line, with both numbers.',
+    ],
+    uploads: [
+      {
+        name: 'tower-k.mtx',
+        text: '%%MatrixMarket matrix coordinate real symmetric\n% kN/mm; DOFs n1.ux n1.uy n1.rz n2.ux n2.uy n2.rz\n6 6 9\n1 1 150\n4 1 -50\n4 4 50\n2 2 240\n5 2 -80\n5 5 80\n3 3 600\n6 3 -200\n6 6 200\n',
+      },
+      {
+        name: 'tower-m.mtx',
+        text: '%%MatrixMarket matrix coordinate real symmetric\n% t (and t m² for the twist)\n6 6 6\n1 1 200\n2 2 200\n3 3 400\n4 4 100\n5 5 100\n6 6 200\n',
+      },
+      { name: 'tower-dofs.csv', text: '1, 1\n1, 2\n1, 6\n2, 1\n2, 2\n2, 6\n' },
+    ],
+    example: [
+      {
+        kind: 'matrix',
+        source: 'name: K\nunit: kN/mm\nfrom: tower-k.mtx\ndofs: per node ux uy rz',
+      },
+      { kind: 'matrix', source: 'name: M\nunit: t\nfrom: tower-m.mtx\ndofs: from tower-dofs.csv' },
+      {
+        kind: 'modes',
+        source: 'name: tower\nstiffness: K\nmass: M\nmethod: dense\ncount: 6\ndirection: x',
+      },
+      { kind: 'criteria', source: 'tower.cumulative[4] >= 0.9  # 90 % of the x mass' },
+    ],
   },
 ];
 

@@ -5,6 +5,7 @@ import {
   BLOCK_REFERENCE,
   FUNCTION_REFERENCE,
   KEY_REFERENCE,
+  TOPIC_REFERENCE,
   type ExampleBlock,
   type FunctionReference,
 } from '../../config/sheet-reference';
@@ -74,6 +75,11 @@ export function ReferenceRoute() {
           <a className="text-accent-strong hover:underline" href="#functions">
             Functions and generators
           </a>
+          {TOPIC_REFERENCE.map((t) => (
+            <a key={t.id} className="text-accent-strong hover:underline" href={`#${t.id}`}>
+              {t.title}
+            </a>
+          ))}
         </nav>
       </header>
 
@@ -143,6 +149,23 @@ export function ReferenceRoute() {
           </div>
         ))}
       </section>
+
+      {TOPIC_REFERENCE.map((t) => (
+        <section key={t.id} id={t.id} aria-label={t.title} className="flex flex-col gap-2">
+          <h2 className="text-lg font-semibold">{t.title}</h2>
+          {t.paragraphs.map((text, i) => (
+            <p key={i} className="max-w-3xl text-sm">
+              <Words text={text} />
+            </p>
+          ))}
+          <p className="text-xs text-ink-soft">The uploaded files of the example:</p>
+          <pre className="overflow-x-auto rounded-sm bg-paper-deep px-2 py-1 font-mono text-xs whitespace-pre">
+            {t.uploads.map((u) => `# ${u.name}\n${u.text.trimEnd()}`).join('\n\n')}
+          </pre>
+          <p className="text-xs text-ink-soft">The blocks that read them:</p>
+          <Example blocks={t.example} />
+        </section>
+      ))}
     </div>
   );
 }

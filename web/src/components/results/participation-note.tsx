@@ -11,13 +11,18 @@ export function ParticipationNote({ result }: { result: ModesBlockResult }) {
   const units = useUnits();
   const p = result.participation;
   if (!p) {
-    // The Γ, effective-mass and cumulative columns show "—": say why and what to write.
+    // The Γ, effective-mass and cumulative columns show "—": say why (the engine's reason, or
+    // for results before it gave one, the usual one) and what to write.
     return (
       <p className="text-xs text-ink-soft" data-testid="participation-reason">
-        Γ, effective mass and cumulative are empty (—): no influence direction. Give{' '}
-        <code>direction:</code> a vector with one entry per DOF (
-        <code>ones({result.size ?? 'n'})</code> when every DOF moves with the ground) or a
-        generator’s direction name (<code>x</code>, <code>transverse</code>).
+        Γ, effective mass and cumulative are empty (—):{' '}
+        {result.participationReason ?? (
+          <>
+            no influence direction. Give <code>direction:</code> a vector with one entry per DOF (
+            <code>ones({result.size ?? 'n'})</code> when every DOF moves with the ground) or a
+            direction name (<code>x</code>, <code>transverse</code>).
+          </>
+        )}
       </p>
     );
   }

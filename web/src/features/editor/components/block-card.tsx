@@ -90,10 +90,35 @@ const MARKDOWN_CLASSES = [
 const iconButton =
   'rounded-sm px-1.5 py-0.5 text-xs text-ink-soft hover:bg-paper-deep hover:text-ink disabled:opacity-40 disabled:hover:bg-transparent';
 
+/** A block's errors, or its notes, each with its line. */
+function IssueList({
+  issues,
+  label,
+  tone,
+}: {
+  issues: readonly SheetIssue[];
+  label: string;
+  tone: string;
+}) {
+  if (issues.length === 0) return null;
+  return (
+    <ul className={`flex flex-col gap-0.5 text-sm ${tone}`} aria-label={label}>
+      {issues.map((issue, i) => (
+        <li key={i}>
+          {issue.line > 0 ? <span className="font-medium">Line {issue.line}: </span> : null}
+          {issue.message}
+        </li>
+      ))}
+    </ul>
+  );
+}
+
 /** One block: its toolbar, its source in CodeMirror, its errors and its results underneath. */
 export function BlockCard(props: BlockCardProps) {
   const { block, index, count, readOnly, result, issues, stale } = props;
   const label = `Block ${index + 1}, ${KIND_LABELS[block.kind].toLowerCase()}`;
+  const errors = issues.filter((i) => i.severity !== 'note');
+  const notes = issues.filter((i) => i.severity === 'note');
   const markdown = useMemo(
     () => (block.kind === 'text' ? renderMarkdown(block.source) : ''),
     [block.kind, block.source],
@@ -136,10 +161,12 @@ export function BlockCard(props: BlockCardProps) {
           {KIND_LABELS[block.kind]}
         </span>
         <span className="num text-xs text-ink-faint">#{index + 1}</span>
-        {issues.length > 0 ? (
+        {errors.length > 0 ? (
           <span className="text-xs font-medium text-fail">
-            {issues.length} error{issues.length === 1 ? '' : 's'}
+            {errors.length} error{errors.length === 1 ? '' : 's'}
           </span>
+        ) : notes.length > 0 ? (
+          <span className="text-xs font-medium text-ink-soft">not evaluated</span>
         ) : null}
         {!readOnly ? (
           <div className="ml-auto flex items-center gap-0.5 opacity-70 group-focus-within:opacity-100 group-hover:opacity-100">
@@ -196,19 +223,13 @@ export function BlockCard(props: BlockCardProps) {
             label={`Source of ${label.toLowerCase()}`}
           />
         ) : null}
-        {issues.length > 0 ? (
-          <ul
-            className="flex flex-col gap-0.5 text-sm text-fail"
-            aria-label={`Errors in ${label.toLowerCase()}`}
-          >
-            {issues.map((issue, i) => (
-              <li key={i}>
-                {issue.line > 0 ? <span className="font-medium">Line {issue.line}: </span> : null}
-                {issue.message}
-              </li>
-            ))}
-          </ul>
-        ) : null}
+        <IssueList issues={errors} label={`Errors in ${label.toLowerCase()}`} tone="text-fail" />
+        {/* Lines an error above left unevaluated: said once each, quietly, so the error stands out. */}
+        <IssueList
+          issues={notes}
+          label={`Not evaluated in ${label.toLowerCase()}`}
+          tone="text-ink-soft"
+        />
         {block.kind === 'text' ? (
           <div className={MARKDOWN_CLASSES} dangerouslySetInnerHTML={{ __html: markdown }} />
         ) : result ? (

@@ -134,7 +134,7 @@ export function BlockSource({
     [kind, label],
   );
 
-  // Errors from the last evaluation, underlined at their line; the message shows on hover.
+  // Errors (and notes) from the last evaluation, marked at their line; the message shows on hover.
   useEffect(() => {
     if (view === null) return;
     const doc = view.state.doc;
@@ -147,7 +147,8 @@ export function BlockSource({
       return {
         from,
         to: Math.max(to, from),
-        severity: 'error',
+        // A line left unevaluated by an error above is marked as information, not as an error.
+        severity: issue.severity === 'note' ? 'info' : 'error',
         message: issue.line > 0 ? `Line ${issue.line}: ${issue.message}` : issue.message,
         source: issue.code,
       };

@@ -158,7 +158,13 @@ function EditorSurface({
     return map;
   }, [evaluation.results]);
   const errorCounts = useMemo(
-    () => new Map([...issuesByBlock].map(([id, list]) => [id, list.length])),
+    () =>
+      new Map(
+        [...issuesByBlock].map(([id, list]) => [
+          id,
+          list.filter((i) => i.severity !== 'note').length,
+        ]),
+      ),
     [issuesByBlock],
   );
 

@@ -25,7 +25,7 @@ export const MODES_KEYS = [
   'name',
 ] as const;
 
-export const MATRIX_KEYS = ['name', 'unit', 'symmetric', 'from'] as const;
+export const MATRIX_KEYS = ['name', 'unit', 'symmetric', 'from', 'dofs'] as const;
 
 /** The keys of a response block, lower case: the engine's own list (core/vocabulary.ts). */
 export { RESPONSE_KEYS };
