@@ -22,7 +22,14 @@ export function denseEntries(
   values: readonly (readonly number[])[],
   limit = ENTRY_LIST_LIMIT,
 ): MatrixEntries {
-  const out: MatrixEntries = { rows: [], cols: [], values: [], total: 0, lowerTriangle: false };
+  const out: MatrixEntries = {
+    rows: [],
+    cols: [],
+    values: [],
+    total: 0,
+    nonzeros: 0,
+    lowerTriangle: false,
+  };
   const nr = values.length;
   const nc = values[0]?.length ?? 0;
   for (let j = 0; j < nc; j++) {
@@ -37,6 +44,7 @@ export function denseEntries(
       out.total++;
     }
   }
+  out.nonzeros = out.total;
   return out;
 }
 
@@ -50,7 +58,15 @@ export function sparseEntries(
   unitInSi = 1,
   limit = ENTRY_LIST_LIMIT,
 ): MatrixEntries {
-  const out: MatrixEntries = { rows: [], cols: [], values: [], total: 0, lowerTriangle: true };
+  const out: MatrixEntries = {
+    rows: [],
+    cols: [],
+    values: [],
+    total: 0,
+    nonzeros: 0,
+    lowerTriangle: true,
+  };
+  let diagonal = 0;
   for (let j = 0; j < A.n; j++) {
     for (let p = A.colPtr[j]!; p < A.colPtr[j + 1]!; p++) {
       const x = A.values[p]!;
@@ -61,7 +77,9 @@ export function sparseEntries(
         out.values.push(x / unitInSi);
       }
       out.total++;
+      if (A.rowIdx[p] === j) diagonal++;
     }
   }
+  out.nonzeros = 2 * out.total - diagonal;
   return out;
 }

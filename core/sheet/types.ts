@@ -103,6 +103,8 @@ export interface MatrixEntries {
   values: number[];
   /** The nonzeros there are (of the lower triangle when `lowerTriangle`). */
   total: number;
+  /** Nonzeros of the whole matrix (both triangles); explicit zeros of a sparse matrix not counted. */
+  nonzeros: number;
   lowerTriangle: boolean;
 }
 

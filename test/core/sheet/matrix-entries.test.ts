@@ -66,7 +66,11 @@ describe('the nonzero entries of a large matrix', () => {
       expect(before).toBe(true);
       expect(e.rows[k]!).toBeGreaterThanOrEqual(e.cols[k]!);
     }
-    expect(e.total).toBe(e.rows.length);
+    // Listed nonzeros of the lower triangle: per free node w–w and θ–θ (120), θ–w at the tip only
+    // (1), 4 couplings to the next node (59 · 4): 357; the whole matrix 2 · 357 − 120 = 594.
+    expect(e.total).toBe(357);
+    expect(e.rows.length).toBe(357);
+    expect(e.nonzeros).toBe(594);
   });
 
   it("lists an uploaded model's K in the block's unit, the file's own numbers", () => {
@@ -86,6 +90,7 @@ describe('the nonzero entries of a large matrix', () => {
     const e = entriesOf(block.value);
     expect(e.total).toBe(2 * n - 1);
     expect(e.rows.length).toBe(2 * n - 1);
+    expect(e.nonzeros).toBe(3 * n - 2);
     // Exact to the last bit: kN/m → N/m → kN/m is × 1000 then ÷ 1000 of integers.
     expect(at(e, 1, 1)).toBe(10_000);
     expect(at(e, 2, 1)).toBe(-5000);
@@ -111,6 +116,7 @@ describe('the nonzero entries of a large matrix', () => {
     const e = entriesOf(d);
     expect(e.lowerTriangle).toBe(false);
     expect(e.total).toBe(120);
+    expect(e.nonzeros).toBe(120);
     expect(e.values.every((x) => x === 2)).toBe(true);
     expect(e.rows).toEqual(e.cols);
     const f = entriesOf(lines[1]!.value);

@@ -32,12 +32,11 @@ export function MatrixEntriesTable({
   const listed = e.rows.length;
   const b = pageBounds(listed, page, ENTRY_PAGE_ROWS);
   const unit = value.unit ? ` (${value.unit})` : '';
-  const nonzeros = value.sparse?.nonzeros ?? e.total;
   return (
-    <section aria-label={`Entries of ${name}`} className="flex min-w-0 flex-col gap-1">
+    <section aria-label={`Entries of ${name}`} className="flex min-w-0 max-w-xl flex-col gap-1">
       <div className="flex flex-wrap items-center justify-between gap-2 text-xs text-ink-soft">
         <span>
-          {name}: {count(value.rows)} × {count(value.cols)}, {count(nonzeros)} nonzeros
+          {name}: {count(value.rows)} × {count(value.cols)}, {count(e.nonzeros)} nonzeros
           {e.lowerTriangle ? ' (symmetric: the lower triangle is listed)' : ''}.{' '}
           {listed > 0
             ? `Entries ${count(b.from + 1)}–${count(b.to)} of ${count(e.total)}`
