@@ -324,7 +324,7 @@ export async function benchSheets(
         lambdas = modes.modes.map((m) => m.lambda);
         method = modes.methodUsed ?? '';
         ours.push(r.seconds);
-        console.log(`  through the worker ${fmt(r.seconds)} s`);
+        console.log(`  through the worker ${fmt(r.seconds)} s; λ ${JSON.stringify(lambdas)}`);
       };
       const runScipy = (): void => {
         if (!options.scipy) return;
@@ -357,7 +357,8 @@ export async function benchSheets(
         `| ${c.name} | ${c.what} | ${p.n} | ${MODES} | ${error && ours.length === 0 ? 'failed' : fmt(a)} | ${fmt(b)} | ${fmt(a / b)} | ${Number.isFinite(diff) ? diff.toExponential(1) : '—'} | ${fmt(workerPeak, 0)} | ${fmt(Math.max(...refPeak), 0)} |`,
       );
       console.log(rows.at(-1));
-      const d = [`through the worker ${ours.map((t) => fmt(t)).join(', ')} s`];
+      const d: string[] = [];
+      if (ours.length > 0) d.push(`through the worker ${ours.map((t) => fmt(t)).join(', ')} s`);
       if (ref.length > 0) d.push(`scipy ${ref.map((t) => fmt(t)).join(', ')} s`);
       if (uploadMB > 0) d.push(`uploads ${fmt(uploadMB, 1)} MB of text`);
       if (method) d.push(`method ${method}`);
