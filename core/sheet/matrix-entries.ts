@@ -13,6 +13,10 @@ import type { MatrixEntries } from './types';
  */
 export const ENTRY_LIST_LIMIT = 10_000;
 
+function noEntries(lowerTriangle: boolean): MatrixEntries {
+  return { rows: [], cols: [], values: [], total: 0, nonzeros: 0, lowerTriangle };
+}
+
 /**
  * The nonzeros of a dense matrix of numbers, column by column (compressed-column order, the order
  * of a Matrix Market coordinate file), the first `limit` listed.
@@ -22,14 +26,7 @@ export function denseEntries(
   values: readonly (readonly number[])[],
   limit = ENTRY_LIST_LIMIT,
 ): MatrixEntries {
-  const out: MatrixEntries = {
-    rows: [],
-    cols: [],
-    values: [],
-    total: 0,
-    nonzeros: 0,
-    lowerTriangle: false,
-  };
+  const out = noEntries(false);
   const nr = values.length;
   const nc = values[0]?.length ?? 0;
   for (let j = 0; j < nc; j++) {
@@ -58,14 +55,7 @@ export function sparseEntries(
   unitInSi = 1,
   limit = ENTRY_LIST_LIMIT,
 ): MatrixEntries {
-  const out: MatrixEntries = {
-    rows: [],
-    cols: [],
-    values: [],
-    total: 0,
-    nonzeros: 0,
-    lowerTriangle: true,
-  };
+  const out = noEntries(true);
   let diagonal = 0;
   for (let j = 0; j < A.n; j++) {
     for (let p = A.colPtr[j]!; p < A.colPtr[j + 1]!; p++) {

@@ -23,6 +23,7 @@ import { join } from 'node:path';
 import { PROBLEMS } from './problems';
 import { benchQueue } from './queue';
 import { benchSheets } from './sheets';
+import { spawnCase } from './spawn-case';
 import { benchUsersPath, type UsersPathResult } from './users-path';
 
 const args = process.argv.slice(2);
@@ -107,19 +108,7 @@ for (const p of selected) {
   console.log(
     `… ${p.name} (${usersOnly ? 'files' : `kernel, ${runs} run${runs === 1 ? '' : 's'}`})`,
   );
-  const child = spawnSync(
-    process.execPath,
-    [
-      '--import',
-      'tsx',
-      '--max-old-space-size=8192',
-      join('scripts', 'bench', 'case.ts'),
-      p.name,
-      String(runs),
-      outDir,
-    ],
-    { encoding: 'utf8', maxBuffer: 1 << 30 },
-  );
+  const child = spawnCase(p.name, runs, outDir);
   if (child.status !== 0) {
     console.log(`  our engine failed: ${child.stderr.split('\n').slice(0, 8).join('\n')}`);
     rows.push(`| ${p.name} | — | — | failed | — | — | — | — | — | — |`);

@@ -8,7 +8,7 @@
 // Generated models are written out for scipy with the generators the sheet functions call
 // (core/models), with the same inputs in SI units, so both solve the same matrices; uploaded ones
 // are the bench's own problem files (./problems.ts, written by ./case.ts).
-import { spawnSync, type ChildProcess } from 'node:child_process';
+import type { ChildProcess } from 'node:child_process';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { basename, join } from 'node:path';
 import { loadQueueConfig } from '../../api/config/index';
@@ -25,6 +25,7 @@ import {
 } from '../../core/index';
 import { writeMatrixMarket } from './matrix-market';
 import { startWorker } from './queue';
+import { spawnCase } from './spawn-case';
 import { scipyProcessArgv, timed } from './users-path';
 
 const MODES = 10;
@@ -179,19 +180,7 @@ function uploadCase(problem: string, what: string, large = false): SheetCase {
     background: true,
     ...(large ? { large } : {}),
     prepare: async (outDir) => {
-      const child = spawnSync(
-        process.execPath,
-        [
-          '--import',
-          'tsx',
-          '--max-old-space-size=8192',
-          join('scripts', 'bench', 'case.ts'),
-          problem,
-          '0',
-          outDir,
-        ],
-        { encoding: 'utf8', maxBuffer: 1 << 26 },
-      );
+      const child = spawnCase(problem, 0, outDir);
       if (child.status !== 0) throw new Error(`writing ${problem} failed: ${child.stderr}`);
       const files = JSON.parse(child.stdout.trim().split('\n').pop()!) as {
         n: number;
