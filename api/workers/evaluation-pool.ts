@@ -11,7 +11,7 @@
  * - A bounded queue: when `maxQueue` evaluations wait, `run` rejects with a 429 carrying a retry
  *   hint in seconds.
  * - A memory budget for the engine: `solveMemoryShare` (default 60 %) of the worker's memory
- *   limit is handed to each evaluation, so a modes block whose solve would not fit is refused
+ *   limit, or `solveMemory` when given, is handed to each evaluation, so a modes block whose solve would not fit is refused
  *   with MODEL_TOO_LARGE at its line (estimate and limit in MB) and the worker lives on, instead
  *   of being killed for running out of memory.
  * - A second task kind: `describeMatrixFile` reads an uploaded matrix file in a worker, so a
@@ -59,6 +59,13 @@ export interface EvaluationPoolOptions {
    * the sheet's own values (matrices with units), the results and the engine's code.
    */
   solveMemoryShare?: number;
+  /**
+   * The budget of one solve's arrays, MB, instead of `solveMemoryShare` of the heap limit, with
+   * the setting that bounds it named in the refusal's advice. A solve's factor and vectors are
+   * typed arrays, whose memory lies outside the thread's heap and its limit: a worker process
+   * bounds them by its resident memory instead (./job-worker.ts, solveBudgetMb).
+   */
+  solveMemory?: { mb: number; advice: string };
 }
 
 export interface RunOptions {
@@ -121,10 +128,11 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
   if (!(share > 0 && share <= 1)) {
     throw new Error(`solveMemoryShare must lie in (0, 1], got ${share}.`);
   }
-  const solveMemoryBytes = Math.floor(share * memoryLimitMb * 2 ** 20);
+  const solveMemoryBytes = Math.floor((options.solveMemory?.mb ?? share * memoryLimitMb) * 2 ** 20);
   const memoryAdvice =
+    options.solveMemory?.advice ??
     `raise MW_EVAL_MEMORY_MB (each evaluation worker has ${memoryLimitMb} MB, of which a ` +
-    `solve may use ${Number((share * 100).toPrecision(3))} %)`;
+      `solve may use ${Number((share * 100).toPrecision(3))} %)`;
   const piscina = new Piscina({
     filename: WORKER_FILE,
     minThreads: options.warm === false ? 0 : 1,

@@ -69,6 +69,28 @@ function refusalOf(err: unknown): JobRefusal {
   throw err;
 }
 
+/**
+ * Resident memory a worker process holds besides one solve's arrays and its evaluation thread's
+ * heap: Node, the engine loaded in two isolates, the job's uploads as text (385–440 MB measured
+ * after the first evaluation, `npm run bench -- --sheets`), rounded up.
+ */
+export const WORKER_BASE_MB = 512;
+
+/**
+ * The budget of one solve's arrays in a worker process, MB. The factor of K − σM and the
+ * iteration vectors are typed arrays, outside the evaluation thread's heap limit
+ * (MW_EVAL_MEMORY_MB bounds JavaScript objects only); what bounds them is the process's resident
+ * memory (MW_WORKER_RSS_MB). So a solve may use what the resident limit leaves after the thread's
+ * full heap and the process's own base, and never less than the 60 % of the heap it had before.
+ * @example solveBudgetMb({ rssLimitMb: 1536, memoryLimitMb: 512 }) // 512
+ */
+export function solveBudgetMb(config: Pick<QueueConfig, 'rssLimitMb' | 'memoryLimitMb'>): number {
+  return Math.max(
+    0.6 * config.memoryLimitMb,
+    config.rssLimitMb - config.memoryLimitMb - WORKER_BASE_MB,
+  );
+}
+
 /** Starts taking jobs. `config` defaults to the environment's (MW_REDIS_URL, MW_EVAL_*). */
 export async function startJobWorker(
   config: QueueConfig = loadQueueConfig(),
@@ -79,6 +101,13 @@ export async function startJobWorker(
     timeLimitMs: config.timeLimitMs,
     memoryLimitMb: config.memoryLimitMb,
     maxQueue: 4,
+    solveMemory: {
+      mb: solveBudgetMb(config),
+      advice:
+        `raise MW_WORKER_RSS_MB (a worker process may hold ${config.rssLimitMb} MB; a solve's ` +
+        `arrays may use ${Math.round(solveBudgetMb(config))} MB of it, after the ` +
+        `${config.memoryLimitMb} MB heap of its evaluation thread and ${WORKER_BASE_MB} MB for the process)`,
+    },
   });
   const active = new Map<string, Active>();
 

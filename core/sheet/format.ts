@@ -15,6 +15,7 @@ import type { MathJsInstance, Matrix, Unit } from 'mathjs';
 import { beyond } from './not-finite';
 import { EngineError } from '../errors';
 import { LargeMatrix } from './large-matrix';
+import { denseEntries, sparseEntries } from './matrix-entries';
 import type { SheetValue } from './types';
 
 /** Entries above which a matrix value is summarized instead of listed in the results. */
@@ -312,7 +313,14 @@ function formatMatrix(m: Matrix, ctx: FormatContext): Formatted {
   const keep = count <= RESULT_MATRIX_LIMIT;
   const value: SheetValue = vector
     ? { type: 'vector', length: nr, values: keep ? values.map((r) => r[0]!) : null, unit }
-    : { type: 'matrix', rows: nr, cols: nc, values: keep ? values : null, unit };
+    : {
+        type: 'matrix',
+        rows: nr,
+        cols: nc,
+        values: keep ? values : null,
+        unit,
+        ...(keep ? {} : { entries: denseEntries(values) }),
+      };
   return { value, display, latex };
 }
 
@@ -383,6 +391,7 @@ export function formatValue(v: unknown, ctx: FormatContext, depth = 0): Formatte
         values: null,
         unit: v.unit,
         sparse: { nonzeros: v.nonzeros, bytes: v.bytes },
+        entries: sparseEntries(v.engine, v.unit ? (math.unit(1, v.unit).value as number) : 1),
       },
       display: `${v.n}×${v.n} sparse matrix, ${v.nonzeros} nonzeros${v.unit ? ` in ${compactUnit(v.unit)}` : ''}`,
       latex: `\\left[${v.n}\\times${v.n},\\ \\text{sparse, ${v.nonzeros} nonzeros}\\right]`,

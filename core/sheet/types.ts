@@ -91,9 +91,30 @@ export type SheetValue =
        * and the bytes its representation stores. Absent for matrices of entries.
        */
       sparse?: { nonzeros: number; bytes: number };
+      /**
+       * The nonzero entries, for a matrix whose `values` are not listed (too large): a page at a
+       * time in the editor. Absent for matrices listed in full, and before 0.5.3.
+       */
+      entries?: MatrixEntries;
     }
   | { type: 'object'; fields: Record<string, SheetValue> }
   | { type: 'function'; signature: string };
+
+/**
+ * Nonzero entries of a large matrix, column by column: 1-based `rows` and `cols` and `values` in
+ * the matrix's unit, at most a fixed number of them (ENTRY_LIST_LIMIT) out of `total`. For a
+ * symmetric sparse matrix, its lower triangle (`lowerTriangle`).
+ */
+export interface MatrixEntries {
+  rows: number[];
+  cols: number[];
+  values: number[];
+  /** The nonzeros there are (of the lower triangle when `lowerTriangle`). */
+  total: number;
+  /** Nonzeros of the whole matrix (both triangles); explicit zeros of a sparse matrix not counted. */
+  nonzeros: number;
+  lowerTriangle: boolean;
+}
 
 /** LaTeX of one calc line, as an engineer writes it by hand. */
 export interface CalcLatex {

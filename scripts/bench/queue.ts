@@ -18,7 +18,8 @@ function quantile(sorted: number[], q: number): number {
   return sorted[Math.max(0, i)]!;
 }
 
-function startWorker(env: NodeJS.ProcessEnv): Promise<ChildProcess> {
+/** Starts one worker process (the entry of `npm run worker`) and answers it once it takes jobs. */
+export function startWorker(env: NodeJS.ProcessEnv): Promise<ChildProcess> {
   const child = spawn(process.execPath, ['--import', 'tsx', 'api/workers/job-worker.ts'], {
     env: { ...process.env, ...env },
     stdio: ['ignore', 'pipe', 'pipe'],

@@ -13,14 +13,17 @@
 //    dense n ≤ 1000.
 // --baseline times the command line of another checkout (with its own node_modules) in the same
 // alternation, as a before/after column of the first table. --queue adds the evaluation queue's
-// table (./queue.ts; needs Redis: `npm run redis:start`), --queue-only prints it alone. Not part
-// of npm test.
+// table (./queue.ts; needs Redis: `npm run redis:start`), --queue-only prints it alone. --sheets
+// adds sheets evaluated through a worker against scipy on the same K and M (./sheets.ts; Redis
+// too; --large adds the 3D frame), --sheets-only prints that table alone. Not part of npm test.
 import { execFileSync, spawnSync } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { loadavg, cpus } from 'node:os';
 import { join } from 'node:path';
 import { PROBLEMS } from './problems';
 import { benchQueue } from './queue';
+import { benchSheets } from './sheets';
+import { spawnCase } from './spawn-case';
 import { benchUsersPath, type UsersPathResult } from './users-path';
 
 const args = process.argv.slice(2);
@@ -36,6 +39,9 @@ const baselineAt = args.indexOf('--baseline');
 const baselineRoot = baselineAt >= 0 ? (args[baselineAt + 1] ?? null) : null;
 const queueOnly = args.includes('--queue-only');
 const withQueue = queueOnly || args.includes('--queue');
+const sheetsOnly = args.includes('--sheets-only');
+const withSheets = sheetsOnly || args.includes('--sheets');
+const tableOnly = queueOnly || sheetsOnly;
 const outDir = 'bench-results';
 mkdirSync(outDir, { recursive: true });
 
@@ -81,7 +87,7 @@ function median(xs: number[]): number {
   return s[Math.floor(s.length / 2)]!;
 }
 
-const selected = queueOnly
+const selected = tableOnly
   ? []
   : PROBLEMS.filter((p) =>
       only ? only.includes(p.name) : quick ? p.quick : large ? true : !p.large,
@@ -102,19 +108,7 @@ for (const p of selected) {
   console.log(
     `… ${p.name} (${usersOnly ? 'files' : `kernel, ${runs} run${runs === 1 ? '' : 's'}`})`,
   );
-  const child = spawnSync(
-    process.execPath,
-    [
-      '--import',
-      'tsx',
-      '--max-old-space-size=8192',
-      join('scripts', 'bench', 'case.ts'),
-      p.name,
-      String(runs),
-      outDir,
-    ],
-    { encoding: 'utf8', maxBuffer: 1 << 30 },
-  );
+  const child = spawnCase(p.name, runs, outDir);
   if (child.status !== 0) {
     console.log(`  our engine failed: ${child.stderr.split('\n').slice(0, 8).join('\n')}`);
     rows.push(`| ${p.name} | — | — | failed | — | — | — | — | — | — |`);
@@ -214,11 +208,14 @@ for (const p of selected) {
   console.log(rows[rows.length - 1]);
 }
 const queueLines = withQueue ? await benchQueue(runsOverride ?? 20) : [];
+const sheetLines = withSheets
+  ? await benchSheets(Math.max(3, runsOverride ?? 3), { outDir, scipy: scipyOk, large, only })
+  : [];
 const load1 = loadavg();
 const table = [
   `Machine: ${cpus().length} × ${cpus()[0]?.model ?? 'cpu'}, Node ${process.version}; load average at start ${load0.map((l) => l.toFixed(2)).join(' ')}, at end ${load1.map((l) => l.toFixed(2)).join(' ')}.`,
   '',
-  ...(kernelOnly || queueOnly
+  ...(kernelOnly || tableOnly
     ? []
     : [
         "## The users' path: whole processes",
@@ -238,7 +235,7 @@ const table = [
         ...userDetails,
         '',
       ]),
-  ...(usersOnly || queueOnly
+  ...(usersOnly || tableOnly
     ? []
     : [
         '## Kernels inside one process',
@@ -254,9 +251,10 @@ const table = [
         ...details,
         '',
       ]),
+  ...sheetLines,
   ...queueLines,
 ].join('\n');
-writeFileSync(join(outDir, queueOnly ? 'queue.md' : 'bench.md'), table);
+writeFileSync(join(outDir, sheetsOnly ? 'sheets.md' : queueOnly ? 'queue.md' : 'bench.md'), table);
 console.log('\n' + table);
 
 function userRow(name: string, n: number, kind: 'sparse' | 'dense', u: UsersPathResult): string {

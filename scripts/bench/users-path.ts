@@ -37,7 +37,8 @@ function solveCommand(root: string): string {
   return cmd;
 }
 
-function timed(
+/** Runs one whole process under GNU time: wall seconds, peak resident MB, its output. */
+export function timed(
   argv: string[],
   env: NodeJS.ProcessEnv,
 ): { seconds: number; peakMB: number; stdout: string; stderr: string; status: number | null } {
@@ -57,6 +58,24 @@ function timed(
 
 function emptyRuns(): ProcessRuns {
   return { times: [], peakMB: [], lambdas: [], warnings: [], error: null };
+}
+
+/** scipy's whole process on two Matrix Market files (./reference.py `process`). */
+export function scipyProcessArgv(
+  kind: 'sparse' | 'dense',
+  kPath: string,
+  mPath: string,
+  modes: number,
+): string[] {
+  return [
+    'python3',
+    join('scripts', 'bench', 'reference.py'),
+    'process',
+    kind,
+    kPath,
+    mPath,
+    String(modes),
+  ];
 }
 
 /**
@@ -91,15 +110,7 @@ export function benchUsersPath(
     },
   });
   const env = process.env;
-  const refArgv = [
-    'python3',
-    join('scripts', 'bench', 'reference.py'),
-    'process',
-    kind,
-    kPath,
-    mPath,
-    String(modes),
-  ];
+  const refArgv = scipyProcessArgv(kind, kPath, mPath, modes);
   const ours = emptyRuns();
   const scipy = withScipy ? emptyRuns() : null;
   const baseline = baselineRoot ? emptyRuns() : null;

@@ -15,6 +15,7 @@ import { ParticipationNote } from './participation-note';
 import { ResponseResults } from './response-results';
 import { CalcLineTex } from './calc-line';
 import { CriterionValues } from './criterion-values';
+import { MatrixEntriesTable } from './matrix-entries-table';
 import { useUnits } from './units';
 import { shapeRows } from './shape-rows';
 
@@ -66,20 +67,26 @@ function Criteria({ result, digits }: { result: CriteriaBlockResult; digits: num
   );
 }
 
-function Matrix({ result }: { result: MatrixBlockResult }) {
+function Matrix({ result, digits }: { result: MatrixBlockResult; digits: number }) {
+  const value = result.value?.type === 'matrix' ? result.value : null;
   return (
-    <p className="text-sm text-ink-soft">
-      {result.name ?? 'Matrix'}: {result.rows} × {result.cols}
-      {result.unit ? ` in ${result.unit}` : ''},{' '}
-      {result.origin === 'upload' ? 'from a file' : 'typed'},{' '}
-      {result.storage === 'sparse' && result.nonzeros !== undefined
-        ? `sparse (${result.nonzeros.toLocaleString('en-GB')} nonzeros), `
-        : ''}
-      {result.symmetric ? 'symmetric' : 'not symmetric'}
-      {result.asymmetry
-        ? ` (worst at row ${result.asymmetry.row}, column ${result.asymmetry.col}, relative ${result.asymmetry.relative.toExponential(2)})`
-        : ''}
-    </p>
+    <>
+      <p className="text-sm text-ink-soft">
+        {result.name ?? 'Matrix'}: {result.rows} × {result.cols}
+        {result.unit ? ` in ${result.unit}` : ''},{' '}
+        {result.origin === 'upload' ? 'from a file' : 'typed'},{' '}
+        {result.storage === 'sparse' && result.nonzeros !== undefined
+          ? `sparse (${result.nonzeros.toLocaleString('en-GB')} nonzeros), `
+          : ''}
+        {result.symmetric ? 'symmetric' : 'not symmetric'}
+        {result.asymmetry
+          ? ` (worst at row ${result.asymmetry.row}, column ${result.asymmetry.col}, relative ${result.asymmetry.relative.toExponential(2)})`
+          : ''}
+      </p>
+      {value && !value.values ? (
+        <MatrixEntriesTable name={result.name ?? 'matrix'} value={value} digits={digits} />
+      ) : null}
+    </>
   );
 }
 
@@ -181,7 +188,7 @@ export function BlockResultView({
     case 'criteria':
       return <Criteria result={result} digits={digits} />;
     case 'matrix':
-      return <Matrix result={result} />;
+      return <Matrix result={result} digits={digits} />;
     case 'modes':
       return (
         <Modes

@@ -8,3 +8,4 @@ export { ResponseResults } from './response-results';
 export { UnitSystemProvider, useUnits, unitsFor, type Units } from './units';
 export { ModeShapesTable } from './mode-shapes-table';
 export { shapeRows } from './shape-rows';
+export { MatrixEntriesTable, largeMatrices } from './matrix-entries-table';

@@ -1,8 +1,8 @@
 import { useState } from 'react';
 import type { ModesBlockResult } from '../../../../core/index';
 import { sig } from '../../lib/format';
-import { Button } from '../ui/button';
 import { Table, Td, Th } from '../ui/table';
+import { PageControls } from './page-controls';
 import { pageBounds, shapeRows } from './shape-rows';
 
 /** Rows per page: a page renders at once however large the model. */
@@ -37,29 +37,12 @@ export function ModeShapesTable({
             ? ` (the DOFs of evenly spaced nodes: ${rows.shapes.length.toLocaleString('en-GB')} of ${rows.size.toLocaleString('en-GB')})`
             : ''}
         </span>
-        {b.pages > 1 ? (
-          <span className="flex items-center gap-2 print:hidden">
-            <Button
-              variant="secondary"
-              className="px-2 py-0.5 text-xs"
-              disabled={b.page === 0}
-              onClick={() => setPage(b.page - 1)}
-            >
-              Previous rows
-            </Button>
-            <span>
-              Page {b.page + 1} of {b.pages}
-            </span>
-            <Button
-              variant="secondary"
-              className="px-2 py-0.5 text-xs"
-              disabled={b.page === b.pages - 1}
-              onClick={() => setPage(b.page + 1)}
-            >
-              Next rows
-            </Button>
-          </span>
-        ) : null}
+        <PageControls
+          page={b.page}
+          pages={b.pages}
+          onPage={setPage}
+          label={`mode shapes of ${name}`}
+        />
       </div>
       <Table caption={`Mode shapes of ${name}, page ${b.page + 1} of ${b.pages}`}>
         <thead>

@@ -1,5 +1,6 @@
 import type { MatrixBlockResult } from '../api/results';
 import { sig } from '../../../lib/format';
+import { MatrixEntriesTable } from '../../../components/results/matrix-entries-table';
 
 const PREVIEW = 6;
 
@@ -68,7 +69,13 @@ export function MatrixResult({ result, digits }: { result: MatrixBlockResult; di
           </tbody>
         </table>
       ) : result.value?.type === 'matrix' && !values ? (
-        <p className="text-xs text-ink-faint">Too large to preview.</p>
+        result.value.entries ? (
+          <MatrixEntriesTable name={result.name ?? 'matrix'} value={result.value} digits={digits} />
+        ) : (
+          <p className="text-xs text-ink-faint">
+            Too large to preview; evaluate the sheet again to list its nonzero entries.
+          </p>
+        )
       ) : null}
     </div>
   );
