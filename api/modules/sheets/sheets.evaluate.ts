@@ -137,7 +137,7 @@ export async function evaluateSheetDraft(
   input: DraftBody,
   options: RunOptions = {},
 ): Promise<Pick<SheetEvaluation, 'results' | 'digests' | 'engineVersion'>> {
-  const { projectId } = await ctx.access.sheet(user, sheetId, 'sheet.read');
+  const { projectId } = await ctx.access.sheet(user, sheetId, 'sheet.evaluate');
   const sheet: Sheet = { blocks: input.blocks, settings: input.settings };
   // The editor's evaluations are the person's own: the queue's fair shares apply to them.
   const { results, digests, engineVersion } = await evaluateStored(ctx, sheetId, sheet, {
@@ -190,7 +190,7 @@ export async function startDetachedEvaluation(
   sheetId: number,
   input: DraftBody,
 ): Promise<string> {
-  const { projectId } = await ctx.access.sheet(user, sheetId, 'sheet.read');
+  const { projectId } = await ctx.access.sheet(user, sheetId, 'sheet.evaluate');
   const evaluations = detached(ctx);
   const uploads = await uploadsService.textsForSheet(ctx.db, sheetId);
   const sheet: Sheet = { blocks: input.blocks, settings: input.settings };
@@ -203,14 +203,14 @@ export async function latestDetachedEvaluation(
   user: User,
   sheetId: number,
 ): Promise<EvaluationJob | null> {
-  const { projectId } = await ctx.access.sheet(user, sheetId, 'sheet.read');
+  const { projectId } = await ctx.access.sheet(user, sheetId, 'sheet.evaluate');
   const view = await detached(ctx).latest({ userId: user.id, projectId, sheetId });
   return view ? jobOf(view) : null;
 }
 
 /** The person's own detached evaluation `jobId` of the sheet, else 404. */
 async function ownJob(ctx: AppContext, user: User, sheetId: number, jobId: string) {
-  const { projectId } = await ctx.access.sheet(user, sheetId, 'sheet.read');
+  const { projectId } = await ctx.access.sheet(user, sheetId, 'sheet.evaluate');
   const evaluations = detached(ctx);
   if (!(await evaluations.ownedBy(jobId, { userId: user.id, projectId, sheetId }))) {
     throw new AppError(404, 'NOT_FOUND', `There is no evaluation ${jobId} of yours on this sheet.`);

@@ -160,7 +160,7 @@ export function createSheetsRouter(ctx: AppContext): Router {
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const input = parse(draftBody, req.body);
     const user = currentUser(req);
-    await ctx.access.sheet(user, sheetId, 'sheet.read');
+    await ctx.access.sheet(user, sheetId, 'sheet.evaluate');
 
     const signal = disconnectSignal(res);
     const stream = eventStream(res);
