@@ -11,8 +11,13 @@
  *   is stopped the same way, and the process exits if the memory does not come back (the
  *   supervisor of `npm start`, or any other, starts a new one).
  * A worker that dies mid-job (kill -9, a machine lost) leaves the job to BullMQ's stalled-job
- * check: another worker takes it again. Nothing here reads the database: a job carries its sheet
- * and uploads.
+ * check: another worker takes it again.
+ *
+ * A job carries the sheet's text and names its uploads by id, size and SHA-256 (no file travels
+ * through Redis): the worker reads the bytes from MariaDB through its `JobStore`, inflates no
+ * more than the size named, and refuses bytes whose digest differs. The engine's own limits on a
+ * file (its size line against the entries actually in it) then apply in the evaluation thread.
+ * A background evaluation's results are kept in the results store by the worker that made them.
  */
 import { hostname } from 'node:os';
 import { Worker, type Job } from 'bullmq';
@@ -20,12 +25,17 @@ import {
   EngineError,
   isEngineError,
   type MatrixAnalysis,
+  type Sheet,
   type SheetProgress,
+  type SheetResults,
 } from '../../core/index';
-import { loadQueueConfig, type QueueConfig } from '../config/index';
+import { loadDbConfig, loadQueueConfig, type QueueConfig } from '../config/index';
+// The worker process's composition root (as server.ts is the API's): its MariaDB access.
+import { createWorkerStore } from '../worker-context';
 import { AppError } from '../http/errors';
 import { createLogger, type Logger } from '../http/logger';
 import { createEvaluationPool, inBlock } from './evaluation-pool';
+import type { UploadReader } from './sheet-runner';
 import {
   cancelChannel,
   QUEUE_NAME,
@@ -36,6 +46,15 @@ import {
 } from './queue';
 
 export interface JobWorker {
+  close(): Promise<void>;
+}
+
+/** What a worker reads and writes in MariaDB (composed in api/worker-context.ts). */
+export interface JobStore {
+  /** An upload's text, read by id and checked against the size and digest the job names. */
+  readUpload: UploadReader;
+  /** Keeps a sheet's results in the results store under `digest` (when the store takes them). */
+  keepResults(digest: string, sheet: Sheet, results: SheetResults): Promise<void>;
   close(): Promise<void>;
 }
 
@@ -69,10 +88,11 @@ function refusalOf(err: unknown): JobRefusal {
   throw err;
 }
 
-/** Starts taking jobs. `config` defaults to the environment's (MW_REDIS_URL, MW_EVAL_*). */
+/** Starts taking jobs, reading uploads and keeping results through `store`. */
 export async function startJobWorker(
-  config: QueueConfig = loadQueueConfig(),
-  log: Logger = createLogger(true),
+  config: QueueConfig,
+  log: Logger,
+  store: JobStore,
 ): Promise<JobWorker> {
   const pool = createEvaluationPool({
     threads: 1,
@@ -130,7 +150,8 @@ export async function startJobWorker(
     const state: Active = { controller: new AbortController(), stoppedBy: null, last: null };
     active.set(job.id!, state);
     try {
-      const results = await pool.run(data.sheet, data.uploads, {
+      const uploads = await Promise.all(data.uploads.map((ref) => store.readUpload(ref)));
+      const results = await pool.run(data.sheet, uploads, {
         signal: state.controller.signal,
         timeLimitMs: data.timeLimitMs,
         onProgress: (progress) => {
@@ -138,6 +159,12 @@ export async function startJobWorker(
           void job.updateProgress(progress as unknown as object).catch(() => {});
         },
       });
+      if (data.storeAs) {
+        // The results are the job's reply whatever becomes of the store.
+        await store
+          .keepResults(data.storeAs, data.sheet, results)
+          .catch((e: unknown) => log.error(`keeping the results of job ${job.id}`, e));
+      }
       return { ok: true, results };
     } catch (err) {
       if (state.stoppedBy === 'memory') {
@@ -181,7 +208,8 @@ export async function startJobWorker(
 async function main(): Promise<void> {
   const log = createLogger(true);
   const config = loadQueueConfig();
-  const worker = await startJobWorker(config, log);
+  const store = createWorkerStore(loadDbConfig());
+  const worker = await startJobWorker(config, log, store);
   process.stdout.write(
     `Modewright worker ${process.pid} taking jobs from ${config.redisUrl} (queue ${config.prefix})\n`,
   );
@@ -189,10 +217,13 @@ async function main(): Promise<void> {
   const stop = () => {
     if (stopping) return;
     stopping = true;
-    worker.close().then(
-      () => process.exit(0),
-      () => process.exit(1),
-    );
+    worker
+      .close()
+      .then(() => store.close())
+      .then(
+        () => process.exit(0),
+        () => process.exit(1),
+      );
   };
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);

@@ -124,9 +124,9 @@ export function useEvaluation(sheetId: number | string, draft: Draft, enabled = 
     const draftNow = latest.current;
     const text = JSON.stringify(draftNow);
     setState({ phase: 'running', progress: null, startedAt: Date.now() });
-    let jobId: string;
+    let started: Awaited<ReturnType<typeof startEvaluation>>;
     try {
-      jobId = await startEvaluation(sheetId, draftNow);
+      started = await startEvaluation(sheetId, draftNow);
     } catch (error) {
       if (controller.current !== mine) return;
       setState({
@@ -136,9 +136,23 @@ export function useEvaluation(sheetId: number | string, draft: Draft, enabled = 
       });
       return;
     }
+    const jobId = started.id;
     if (controller.current !== mine) {
       // A newer text or a cancel came while it was being queued.
-      void cancelEvaluation(sheetId, jobId).catch(() => {});
+      if (jobId) void cancelEvaluation(sheetId, jobId).catch(() => {});
+      return;
+    }
+    // An unchanged text: the server answered from its results store, no job to follow.
+    if (started.state === 'done' || !jobId) {
+      const read = readResults(started);
+      controller.current = null;
+      if (read) {
+        setResults(read);
+        setEvaluatedText(text);
+        setState({ phase: 'idle' });
+      } else {
+        setState({ phase: 'failed', message: 'The server sent results this editor cannot read.' });
+      }
       return;
     }
     job.current = jobId;
@@ -160,7 +174,7 @@ export function useEvaluation(sheetId: number | string, draft: Draft, enabled = 
             setResults(read);
             setEvaluatedText(text);
           }
-        } else if (found.state === 'waiting' || found.state === 'running') {
+        } else if ((found.state === 'waiting' || found.state === 'running') && found.id) {
           const mine = new AbortController();
           controller.current = mine;
           job.current = found.id;
