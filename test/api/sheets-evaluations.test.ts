@@ -90,6 +90,12 @@ async function startAndFollow(sheet: number, blocks: unknown[]) {
   return { jobId, last: parseEvents(res.body as string).at(-1)! };
 }
 
+/** A new sheet of the project with an empty draft, numbered `<prefix>-<run>`. */
+async function emptySheet(prefix: string, title: string): Promise<number> {
+  const sheet = { number: `${prefix}-${run}`, title };
+  return (await createSheetWithDraft(clients.author, team.project.id, sheet, [])).id;
+}
+
 async function upload(sheet: number, name: string, bytes: Buffer) {
   const res = await clients.author.agent
     .post(`/api/sheets/${sheet}/uploads`)
@@ -215,14 +221,7 @@ describe('background evaluations and the results store', () => {
   });
 
   it('evaluates again when the sheet gains an upload, and keys on the engine version', async () => {
-    const sheet = (
-      await createSheetWithDraft(
-        clients.author,
-        team.project.id,
-        { number: `BG-U-${run}`, title: 'Uploads' },
-        [],
-      )
-    ).id;
+    const sheet = await emptySheet('BG-U', 'Uploads');
     await upload(sheet, 'chain3-k.mtx', readFileSync(path.join(fixtures, 'chain3-k.mtx')));
     const blocks = fresh([
       { id: 'k', kind: 'matrix', source: 'name: K\nunit: N/m\nfrom: chain3-k.mtx' },
@@ -254,14 +253,7 @@ describe('background evaluations and the results store', () => {
   });
 
   it('names the uploads in the job by id and digest, never their text, with the same results', async () => {
-    const sheet = (
-      await createSheetWithDraft(
-        clients.author,
-        team.project.id,
-        { number: `BG-F-${run}`, title: 'Files' },
-        [],
-      )
-    ).id;
+    const sheet = await emptySheet('BG-F', 'Files');
     const texts = ['chain3-k.mtx', 'chain3-m.mtx'].map((name) => ({
       name,
       text: readFileSync(path.join(fixtures, name), 'utf8'),
@@ -305,14 +297,7 @@ describe('background evaluations and the results store', () => {
   });
 
   it('refuses stored bytes that are not the size and digest the job names', async () => {
-    const sheet = (
-      await createSheetWithDraft(
-        clients.author,
-        team.project.id,
-        { number: `BG-D-${run}`, title: 'Digest' },
-        [],
-      )
-    ).id;
+    const sheet = await emptySheet('BG-D', 'Digest');
     await upload(sheet, 'chain3-k.mtx', readFileSync(path.join(fixtures, 'chain3-k.mtx')));
     const [ref] = await uploadsService.refsForSheet(t.db, sheet);
     await expect(uploadsService.readUpload(t.db, ref!)).resolves.toMatchObject({
