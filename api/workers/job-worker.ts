@@ -30,8 +30,6 @@ import {
   type SheetResults,
 } from '../../core/index';
 import { loadDbConfig, loadQueueConfig, type QueueConfig } from '../config/index';
-// The worker process's composition root (as server.ts is the API's): its MariaDB access.
-import { createWorkerStore } from '../worker-context';
 import { AppError } from '../http/errors';
 import { createLogger, type Logger } from '../http/logger';
 import { createEvaluationPool, inBlock } from './evaluation-pool';
@@ -204,11 +202,31 @@ export async function startJobWorker(
   };
 }
 
+/**
+ * A store loaded on the first job that needs it (a job naming an upload, a background result):
+ * the database driver and the resources it reads through cost a worker nothing until then.
+ */
+function lazyStore(load: () => Promise<JobStore>): JobStore {
+  let loaded: Promise<JobStore> | null = null;
+  const get = () => (loaded ??= load());
+  return {
+    readUpload: async (ref) => (await get()).readUpload(ref),
+    keepResults: async (digest, sheet, results) =>
+      (await get()).keepResults(digest, sheet, results),
+    close: async () => {
+      if (loaded) await (await loaded).close();
+    },
+  };
+}
+
 /** `npm run worker`: one worker process until SIGINT/SIGTERM (or its supervisor goes away). */
 async function main(): Promise<void> {
   const log = createLogger(true);
   const config = loadQueueConfig();
-  const store = createWorkerStore(loadDbConfig());
+  // The worker process's composition root (as server.ts is the API's): its MariaDB access.
+  const store = lazyStore(async () =>
+    (await import('../worker-context')).createWorkerStore(loadDbConfig()),
+  );
   const worker = await startJobWorker(config, log, store);
   process.stdout.write(
     `Modewright worker ${process.pid} taking jobs from ${config.redisUrl} (queue ${config.prefix})\n`,
