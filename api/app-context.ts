@@ -10,6 +10,7 @@ import { projectsService } from './modules/projects/projects.service';
 import { remarksService } from './modules/remarks/remarks.service';
 import { revisionsService } from './modules/revisions/revisions.service';
 import { sheetsService } from './modules/sheets/sheets.service';
+import { uploadsService } from './modules/uploads/uploads.service';
 import type { DetachedEvaluations } from './workers/job-queue';
 import {
   inProcessDescriber,
@@ -50,7 +51,7 @@ export function createAppContext(parts: ContextParts): AppContext {
       revisionOfRemark: (remarkId) => remarksService.revisionIdOf(db, remarkId),
     }),
     mailer: parts.mailer ?? createMailer({ store: (entry) => outboxService.store(db, entry) }),
-    runner: parts.runner ?? inProcessRunner,
+    runner: parts.runner ?? inProcessRunner((ref) => uploadsService.readUpload(db, ref)),
     describeMatrixFile: parts.describeMatrixFile ?? inProcessDescriber,
     ...(parts.evaluations ? { evaluations: parts.evaluations } : {}),
   };

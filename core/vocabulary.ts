@@ -16,6 +16,12 @@ export type BlockKind = (typeof BLOCK_KINDS)[number];
 /** The roles a person holds within one project. Admin is installation-wide, not a role here. */
 export const PROJECT_ROLES = ['author', 'checker', 'principal', 'viewer'] as const;
 export type ProjectRole = (typeof PROJECT_ROLES)[number];
+/** The roles that may have a sheet evaluated: those who edit or check it (not a viewer). */
+export const EVALUATING_ROLES = [
+  'author',
+  'checker',
+  'principal',
+] as const satisfies readonly ProjectRole[];
 
 /** Where a sheet stands in review (the sheets.status column). */
 export const SHEET_STATUSES = ['draft', 'in_check', 'returned', 'checked', 'sealed'] as const;

@@ -95,6 +95,17 @@ export function loadQueueConfig(dbName = process.env.MW_DB_NAME ?? 'modewright')
   };
 }
 
+/** The database settings from the environment (the API's, and the worker processes'). */
+export function loadDbConfig(): AppConfig['db'] {
+  return {
+    host: process.env.MW_DB_HOST ?? '127.0.0.1',
+    port: intFromEnv('MW_DB_PORT', 3407),
+    name: process.env.MW_DB_NAME ?? 'modewright',
+    user: process.env.MW_DB_USER ?? 'modewright',
+    password: process.env.MW_DB_PASSWORD ?? 'modewright-local',
+  };
+}
+
 export const projectRoot = path.resolve(import.meta.dirname, '..', '..');
 
 function intFromEnv(name: string, fallback: number): number {
@@ -142,13 +153,7 @@ export function loadConfig(overrides: Partial<AppConfig> = {}): AppConfig {
   const base: AppConfig = {
     host: process.env.MW_HOST ?? '127.0.0.1',
     port: intFromEnv('MW_PORT', 5180),
-    db: {
-      host: process.env.MW_DB_HOST ?? '127.0.0.1',
-      port: intFromEnv('MW_DB_PORT', 3407),
-      name: process.env.MW_DB_NAME ?? 'modewright',
-      user: process.env.MW_DB_USER ?? 'modewright',
-      password: process.env.MW_DB_PASSWORD ?? 'modewright-local',
-    },
+    db: loadDbConfig(),
     sessionSecret: overrides.sessionSecret ?? loadSessionSecret(dataDir),
     dev: process.env.MW_DEV === '1',
     secureCookies: process.env.MW_SECURE_COOKIES === '1',

@@ -1,6 +1,6 @@
 import type { Request, RequestHandler } from 'express';
 import { z } from 'zod';
-import type { ProjectRole } from '../../core/vocabulary';
+import { EVALUATING_ROLES, type ProjectRole } from '../../core/vocabulary';
 import { currentUser } from './auth';
 import { ForbiddenError, NotFoundError } from './errors';
 import { idParam, parse } from './validate';
@@ -39,6 +39,9 @@ export const ACCESS_RULES = {
     doing:
       'read a sheet’s unissued draft and its working history (a viewer reads its issued revisions)',
   },
+  // Queue an evaluation of the editor's text (work for the queue's workers): the people who edit
+  // or check the sheet; a viewer reads issued revisions, and an admin needs a role like anyone.
+  'sheet.evaluate': only(EVALUATING_ROLES, 'evaluate a sheet'),
   'sheet.create': only(['author'], 'start a sheet'),
   'sheet.rename': only(['author'], 'rename a sheet'),
   'sheet.edit': only(['author'], 'edit a sheet'),

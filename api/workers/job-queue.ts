@@ -24,7 +24,6 @@ import {
   type Sheet,
   type SheetProgress,
   type SheetResults,
-  type SheetUpload,
 } from '../../core/index';
 import type { QueueConfig } from '../config/index';
 import { AppError, RateLimitedError } from '../http/errors';
@@ -41,6 +40,7 @@ import {
   type JobData,
   type JobRefusal,
   type JobReply,
+  type UploadRef,
 } from './queue';
 import type { MatrixFileDescriber, SheetRunner } from './sheet-runner';
 
@@ -62,7 +62,8 @@ export type EvaluationJobView = {
  * is remembered for a day.
  */
 export interface DetachedEvaluations {
-  start(sheet: Sheet, uploads: SheetUpload[], owner: JobOwner): Promise<string>;
+  /** Queues one; its worker keeps the results in the results store under `storeAs`. */
+  start(sheet: Sheet, uploads: UploadRef[], owner: JobOwner, storeAs?: string): Promise<string>;
   latest(owner: JobOwner): Promise<EvaluationJobView | null>;
   view(jobId: string): Promise<EvaluationJobView | null>;
   /** Whether `jobId` is the latest evaluation of `owner` (only its owner follows or cancels it). */
@@ -281,7 +282,7 @@ export function createJobQueue(config: QueueConfig, log: Logger): JobQueue {
     const bytes =
       data.kind === 'describe'
         ? data.text.length
-        : data.uploads.reduce((sum, u) => sum + u.text.length, 0);
+        : data.uploads.reduce((sum, u) => sum + u.size, 0);
     const priority = bytes >= config.largeBytes ? LARGE_PRIORITY : SMALL_PRIORITY;
     const jobId = randomUUID();
     await queue.add(jobName(data.kind, owner), data, {
@@ -335,17 +336,29 @@ export function createJobQueue(config: QueueConfig, log: Logger): JobQueue {
     }
   }
 
-  /** A job's data; `background` jobs (not bound to a request) have the long solve limit. */
-  const evaluateData = (sheet: Sheet, uploads: SheetUpload[], background: boolean): JobData => ({
+  /**
+   * A job's data: the sheet and its uploads by id and digest (the worker reads their bytes from
+   * MariaDB). `background` jobs (not bound to a request) have the long solve limit.
+   */
+  const evaluateData = (
+    sheet: Sheet,
+    uploads: UploadRef[],
+    background: boolean,
+    storeAs?: string,
+  ): JobData => ({
     kind: 'evaluate',
     sheet,
     uploads,
     timeLimitMs: background ? config.solveTimeLimitMs : config.timeLimitMs,
+    ...(storeAs ? { storeAs } : {}),
   });
 
   const runner: SheetRunner = async (sheet, uploads, options) => {
     if (options.signal?.aborted) throw cancelled();
-    const jobId = await enqueue(evaluateData(sheet, uploads, false), options.owner);
+    const jobId = await enqueue(
+      evaluateData(sheet, uploads, false, options.storeAs),
+      options.owner,
+    );
     const reply = (await follow(jobId, { ...options, cancelOnAbort: true })) as EvaluateJobReply;
     if (!reply.ok) throw refusalError(reply.error);
     return reply.results as SheetResults;
@@ -393,7 +406,8 @@ export function createJobQueue(config: QueueConfig, log: Logger): JobQueue {
   }
 
   const evaluations: DetachedEvaluations = {
-    start: (sheet, uploads, owner) => enqueue(evaluateData(sheet, uploads, true), owner),
+    start: (sheet, uploads, owner, storeAs) =>
+      enqueue(evaluateData(sheet, uploads, true, storeAs), owner),
     latest: async (owner) => {
       const jobId = await connection.get(latestKey(owner));
       return jobId ? view(jobId) : null;

@@ -11,8 +11,13 @@
  *   is stopped the same way, and the process exits if the memory does not come back (the
  *   supervisor of `npm start`, or any other, starts a new one).
  * A worker that dies mid-job (kill -9, a machine lost) leaves the job to BullMQ's stalled-job
- * check: another worker takes it again. Nothing here reads the database: a job carries its sheet
- * and uploads.
+ * check: another worker takes it again.
+ *
+ * A job carries the sheet's text and names its uploads by id, size and SHA-256 (no file travels
+ * through Redis): the worker reads the bytes from MariaDB through its `JobStore`, inflates no
+ * more than the size named, and refuses bytes whose digest differs. The engine's own limits on a
+ * file (its size line against the entries actually in it) then apply in the evaluation thread.
+ * A background evaluation's results are kept in the results store by the worker that made them.
  */
 import { hostname } from 'node:os';
 import { Worker, type Job } from 'bullmq';
@@ -20,12 +25,15 @@ import {
   EngineError,
   isEngineError,
   type MatrixAnalysis,
+  type Sheet,
   type SheetProgress,
+  type SheetResults,
 } from '../../core/index';
-import { loadQueueConfig, type QueueConfig } from '../config/index';
+import { loadDbConfig, loadQueueConfig, type QueueConfig } from '../config/index';
 import { AppError } from '../http/errors';
 import { createLogger, type Logger } from '../http/logger';
 import { createEvaluationPool, inBlock } from './evaluation-pool';
+import type { UploadReader } from './sheet-runner';
 import {
   cancelChannel,
   QUEUE_NAME,
@@ -36,6 +44,15 @@ import {
 } from './queue';
 
 export interface JobWorker {
+  close(): Promise<void>;
+}
+
+/** What a worker reads and writes in MariaDB (composed in api/worker-context.ts). */
+export interface JobStore {
+  /** An upload's text, read by id and checked against the size and digest the job names. */
+  readUpload: UploadReader;
+  /** Keeps a sheet's results in the results store under `digest` (when the store takes them). */
+  keepResults(digest: string, sheet: Sheet, results: SheetResults): Promise<void>;
   close(): Promise<void>;
 }
 
@@ -71,7 +88,7 @@ function refusalOf(err: unknown): JobRefusal {
 
 /**
  * Resident memory a worker process holds besides one solve's arrays and its evaluation thread's
- * heap: Node, the engine loaded in two isolates, the job's uploads as text (385–440 MB measured
+ * heap: Node, the engine loaded in two isolates, the job's uploads read from MariaDB (385–440 MB measured
  * after the first evaluation, `npm run bench -- --sheets`), rounded up.
  */
 export const WORKER_BASE_MB = 512;
@@ -91,10 +108,11 @@ export function solveBudgetMb(config: Pick<QueueConfig, 'rssLimitMb' | 'memoryLi
   );
 }
 
-/** Starts taking jobs. `config` defaults to the environment's (MW_REDIS_URL, MW_EVAL_*). */
+/** Starts taking jobs, reading uploads and keeping results through `store`. */
 export async function startJobWorker(
-  config: QueueConfig = loadQueueConfig(),
-  log: Logger = createLogger(true),
+  config: QueueConfig,
+  log: Logger,
+  store: JobStore,
 ): Promise<JobWorker> {
   const pool = createEvaluationPool({
     threads: 1,
@@ -159,7 +177,8 @@ export async function startJobWorker(
     const state: Active = { controller: new AbortController(), stoppedBy: null, last: null };
     active.set(job.id!, state);
     try {
-      const results = await pool.run(data.sheet, data.uploads, {
+      const uploads = await Promise.all(data.uploads.map((ref) => store.readUpload(ref)));
+      const results = await pool.run(data.sheet, uploads, {
         signal: state.controller.signal,
         timeLimitMs: data.timeLimitMs,
         onProgress: (progress) => {
@@ -167,6 +186,12 @@ export async function startJobWorker(
           void job.updateProgress(progress as unknown as object).catch(() => {});
         },
       });
+      if (data.storeAs) {
+        // The results are the job's reply whatever becomes of the store.
+        await store
+          .keepResults(data.storeAs, data.sheet, results)
+          .catch((e: unknown) => log.error(`keeping the results of job ${job.id}`, e));
+      }
       return { ok: true, results };
     } catch (err) {
       if (state.stoppedBy === 'memory') {
@@ -206,11 +231,32 @@ export async function startJobWorker(
   };
 }
 
+/**
+ * A store loaded on the first job that needs it (a job naming an upload, a background result):
+ * the database driver and the resources it reads through cost a worker nothing until then.
+ */
+function lazyStore(load: () => Promise<JobStore>): JobStore {
+  let loaded: Promise<JobStore> | null = null;
+  const get = () => (loaded ??= load());
+  return {
+    readUpload: async (ref) => (await get()).readUpload(ref),
+    keepResults: async (digest, sheet, results) =>
+      (await get()).keepResults(digest, sheet, results),
+    close: async () => {
+      if (loaded) await (await loaded).close();
+    },
+  };
+}
+
 /** `npm run worker`: one worker process until SIGINT/SIGTERM (or its supervisor goes away). */
 async function main(): Promise<void> {
   const log = createLogger(true);
   const config = loadQueueConfig();
-  const worker = await startJobWorker(config, log);
+  // The worker process's composition root (as server.ts is the API's): its MariaDB access.
+  const store = lazyStore(async () =>
+    (await import('../worker-context')).createWorkerStore(loadDbConfig()),
+  );
+  const worker = await startJobWorker(config, log, store);
   process.stdout.write(
     `Modewright worker ${process.pid} taking jobs from ${config.redisUrl} (queue ${config.prefix})\n`,
   );
@@ -218,10 +264,13 @@ async function main(): Promise<void> {
   const stop = () => {
     if (stopping) return;
     stopping = true;
-    worker.close().then(
-      () => process.exit(0),
-      () => process.exit(1),
-    );
+    worker
+      .close()
+      .then(() => store.close())
+      .then(
+        () => process.exit(0),
+        () => process.exit(1),
+      );
   };
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);

@@ -5,7 +5,7 @@
  * on any machine that reaches the same Redis may take it.
  */
 import { Redis, type RedisOptions } from 'ioredis';
-import type { MatrixAnalysis, Sheet, SheetResults, SheetUpload } from '../../core/index';
+import type { MatrixAnalysis, Sheet, SheetResults } from '../../core/index';
 
 export const QUEUE_NAME = 'evaluations';
 
@@ -23,7 +23,7 @@ export interface JobOwner {
 
 /**
  * A job's name carries its kind and owner (`evaluate|7|3|12`), so the fairness rules read the
- * names of the queued jobs and never their data (which holds the uploads).
+ * names of the queued jobs and never their data (which holds the sheet's text).
  */
 export function jobName(kind: JobData['kind'], owner?: JobOwner): string {
   return owner ? `${kind}|${owner.userId}|${owner.projectId}|${owner.sheetId}` : kind;
@@ -35,13 +35,33 @@ export function ownerOfName(name: string): JobOwner | null {
   return { userId: Number(userId), projectId: Number(projectId), sheetId: Number(sheetId) };
 }
 
+/**
+ * An uploaded matrix file as a job names it: never its text. The worker reads the stored bytes
+ * from MariaDB by `id`, inflating no more than `size` bytes, and refuses them unless their
+ * SHA-256 is `sha256` (the digest the results store's key was made with).
+ */
+export interface UploadRef {
+  id: number;
+  /** The name a matrix block's `from:` gives. */
+  name: string;
+  /** Bytes of the file as uploaded. */
+  size: number;
+  /** SHA-256 of those bytes, hex. */
+  sha256: string;
+}
+
 export interface EvaluateJobData {
   kind: 'evaluate';
   sheet: Sheet;
-  uploads: SheetUpload[];
+  uploads: UploadRef[];
   owner?: JobOwner;
   /** The time limit of this job, ms. */
   timeLimitMs: number;
+  /**
+   * The results store's key for this sheet (background evaluations): the worker keeps the
+   * results under it, so that the editor's next look at the unchanged sheet needs no job.
+   */
+  storeAs?: string;
 }
 
 export interface DescribeJobData {

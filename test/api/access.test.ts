@@ -14,6 +14,7 @@ const TABLE: Record<AccessAction, string> = {
   'project.read': '        ✓      ✓       ✓         ✓      ✓     ✗',
   'sheet.read': '          ✓      ✓       ✓         ✓      ✓     ✗',
   'sheet.read_internal': ' ✓      ✓       ✓         ✗      ✓     ✗',
+  'sheet.evaluate': '      ✓      ✓       ✓         ✗      ✗     ✗',
   'sheet.create': '        ✓      ✗       ✗         ✗      ✗     ✗',
   'sheet.rename': '        ✓      ✗       ✗         ✗      ✗     ✗',
   'sheet.edit': '          ✓      ✗       ✗         ✗      ✗     ✗',

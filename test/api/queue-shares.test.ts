@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { loadQueueConfig } from '../../api/config/index';
 import { createLogger } from '../../api/http/logger';
+import { uploadsService } from '../../api/modules/uploads/uploads.service';
 import { createJobQueue, type JobQueue } from '../../api/workers/job-queue';
 import {
   createSheetWithDraft,
@@ -126,9 +127,16 @@ describe('fair shares of the evaluation queue', () => {
   });
 
   it('takes a small evaluation ahead of a large solve queued before it', async () => {
+    // A file of 160 bytes (over the 100 of a large solve), stored on a sheet; the job names it.
+    const up = await clients.author.agent
+      .post(`/api/sheets/${sheets[0]}/uploads`)
+      .set('X-CSRF-Token', clients.author.csrfToken)
+      .attach('file', Buffer.from('1,0\n0,1\n'.repeat(20)), 'big.csv');
+    expect(up.status, JSON.stringify(up.body)).toBe(201);
+    const big = await uploadsService.refsForSheet(t.db, sheets[0]!);
+    expect(big).toMatchObject([{ name: 'big.csv', size: 160 }]);
     await jobs.queue.pause();
-    const big = { name: 'big.csv', text: '1,0\n0,1\n'.repeat(20) };
-    const large = jobs.runner(draft('a = 1') as never, [big], {});
+    const large = jobs.runner(draft('a = 1') as never, big, {});
     await untilWaiting(1);
     const small = jobs.runner(draft('b = 1') as never, [], {});
     await untilWaiting(2);

@@ -1,3 +1,5 @@
+import { uploadsService } from '../../api/modules/uploads/uploads.service';
+import { readingUploads } from '../../api/workers/sheet-runner';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createSheetsRouter } from '../../api/modules/sheets/sheets.routes';
 import { createEvaluationPool, type EvaluationPool } from '../../api/workers/evaluation-pool';
@@ -82,7 +84,13 @@ beforeAll(async () => {
   ({ t, team, clients } = await createTeamApp(['author']));
   client = clients.author;
   pool = createEvaluationPool({ threads: 1, timeLimitMs: 5000, memoryLimitMb: 64, maxQueue: 1 });
-  mountBeforeApi(t, createSheetsRouter({ ...t.ctx, runner: pool.run }));
+  mountBeforeApi(
+    t,
+    createSheetsRouter({
+      ...t.ctx,
+      runner: readingUploads((ref) => uploadsService.readUpload(t.db, ref), pool.run),
+    }),
+  );
   const res = await client.post(`/api/projects/${team.project.id}/sheets`, {
     number: `LIM-${unique()}`,
     title: 'Evaluation limits',

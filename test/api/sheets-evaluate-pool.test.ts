@@ -1,3 +1,5 @@
+import { uploadsService } from '../../api/modules/uploads/uploads.service';
+import { readingUploads } from '../../api/workers/sheet-runner';
 import type { AddressInfo } from 'node:net';
 import type { Server } from 'node:http';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -33,7 +35,13 @@ beforeAll(async () => {
     solveMemoryShare: 1e-5,
   });
   // the app's own sheets router runs the engine in-process until createApp hands it the pool
-  mountBeforeApi(t, createSheetsRouter({ ...t.ctx, runner: pool.run }));
+  mountBeforeApi(
+    t,
+    createSheetsRouter({
+      ...t.ctx,
+      runner: readingUploads((ref) => uploadsService.readUpload(t.db, ref), pool.run),
+    }),
+  );
   const team = await createProjectTeam(t.db);
   projectId = team.project.id;
   author = await signedIn(t.app, team.author);

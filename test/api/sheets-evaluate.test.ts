@@ -13,15 +13,17 @@ const fixtures = path.resolve(import.meta.dirname, '..', 'fixtures', 'uploads');
 let t: TestApp;
 let team: Awaited<ReturnType<typeof createProjectTeam>>;
 let author: ApiClient;
+let checker: ApiClient;
 let viewer: ApiClient;
+let admin: ApiClient;
 let outsider: ApiClient;
 
 beforeAll(async () => {
   ({
     t,
     team,
-    clients: { author, viewer, outsider },
-  } = await createTeamApp(['author', 'viewer', 'outsider']));
+    clients: { author, checker, viewer, admin, outsider },
+  } = await createTeamApp(['author', 'checker', 'viewer', 'admin', 'outsider']));
 });
 
 afterAll(async () => {
@@ -210,7 +212,8 @@ describe('POST /api/sheets/:sheetId/evaluate', () => {
       { id: 'm', kind: 'matrix', source: 'name: M\nunit: kg\nfrom: chain3-m.mtx' },
       { id: 'solve', kind: 'modes', source: 'name: frame\nstiffness: K\nmass: M\ncount: 3' },
     ];
-    const res = await evaluate(viewer, sheet.id, blocks);
+    // The checker evaluates the author's uploads too.
+    const res = await evaluate(checker, sheet.id, blocks);
     expect(res.status).toBe(200);
     const results: ResultsLike = res.body.results;
     expect(results.errors).toEqual([]);
@@ -271,6 +274,32 @@ describe('POST /api/sheets/:sheetId/evaluate', () => {
     expect((await evaluate(await anonymous(t.app), sheet.id, blocks)).status).toBe(401);
   });
 
+  it('refuses a viewer and an admin outside the project with 403 on every evaluation route', async () => {
+    const sheet = await newSheet();
+    const body = {
+      blocks: [{ id: 'a', kind: 'calc', source: 'x = 1 m' }],
+      settings: { significantFigures: 4 },
+    };
+    const jobId = '00000000-0000-4000-8000-000000000000';
+    for (const client of [viewer, admin]) {
+      const answers = await Promise.all([
+        client.post(`/api/sheets/${sheet.id}/evaluate`, body),
+        client.post(`/api/sheets/${sheet.id}/evaluate/stream`, body),
+        client.post(`/api/sheets/${sheet.id}/evaluations`, body),
+        client.delete(`/api/sheets/${sheet.id}/evaluations/${jobId}`),
+      ]);
+      for (const res of answers) {
+        expect(res.status, JSON.stringify(res.body)).toBe(403);
+        expect(res.body.error).toMatchObject({
+          code: 'FORBIDDEN',
+          message: 'Only an author, checker or principal of this project can evaluate a sheet.',
+        });
+      }
+    }
+    // The same text from the author is evaluated.
+    expect((await author.post(`/api/sheets/${sheet.id}/evaluate`, body)).status).toBe(200);
+  });
+
   it('refuses a malformed body with 422 naming the field', async () => {
     const sheet = await newSheet();
     const res = await author.post(`/api/sheets/${sheet.id}/evaluate`, { blocks: [{ id: 'a' }] });
@@ -301,7 +330,7 @@ describe('POST /api/sheets/:sheetId/evaluate/stream', () => {
   it('streams progress for each block, then the result', async () => {
     const sheet = await newSheet('four-storey-frame');
     const blocks = fresh(sheet.blocks);
-    const res = await stream(viewer, sheet.id, blocks);
+    const res = await stream(checker, sheet.id, blocks);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toContain('text/event-stream');
     const events = parseEvents(res.body as string);

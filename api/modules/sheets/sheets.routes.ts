@@ -174,7 +174,7 @@ export function createSheetsRouter(ctx: AppContext): Router {
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const input = parse(draftBody, req.body);
     const user = currentUser(req);
-    await ctx.access.sheet(user, sheetId, 'sheet.read');
+    await ctx.access.sheet(user, sheetId, 'sheet.evaluate');
 
     const signal = disconnectSignal(res);
     const stream = eventStream(res);
@@ -204,8 +204,10 @@ export function createSheetsRouter(ctx: AppContext): Router {
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const input = parse(draftBody, req.body);
     try {
-      const id = await startDetachedEvaluation(ctx, currentUser(req), sheetId, input);
-      res.status(202).json({ job: { id, state: 'waiting' } });
+      const started = await startDetachedEvaluation(ctx, currentUser(req), sheetId, input);
+      // An unchanged text: the stored results at once (200), no job. Otherwise 202 and a job.
+      if ('stored' in started) res.status(200).json({ job: started.stored });
+      else res.status(202).json({ job: { id: started.queued, state: 'waiting' } });
     } catch (err) {
       setRetryAfter(res, err);
       throw err;

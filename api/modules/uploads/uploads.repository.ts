@@ -1,5 +1,9 @@
-import { gunzipSync, gzipSync } from 'node:zlib';
+import { promisify } from 'node:util';
+import { gunzip, gzipSync } from 'node:zlib';
+import type { UploadRef } from '../../workers/queue';
 import { readJson, type DbOrTx } from '../../db/index';
+
+const gunzipAsync = promisify(gunzip);
 
 export type UploadFormat = 'matrix-market' | 'csv';
 
@@ -108,7 +112,7 @@ export async function findUploadById(db: DbOrTx, id: number): Promise<Upload | u
   return row ? toUpload(row) : undefined;
 }
 
-/** Stores an upload; the bytes are gzip-compressed here and inflated by listUploadTexts. */
+/** Stores an upload; the bytes are gzip-compressed here and inflated by readUploadBytes. */
 export async function insertUpload(
   db: DbOrTx,
   upload: Omit<Upload, 'id' | 'createdAt' | 'createdBy'> & { bytes: Buffer; userId: number },
@@ -131,21 +135,31 @@ export async function insertUpload(
   return Number(id);
 }
 
-/** Every upload of a sheet as text, for the evaluator (`from: <name>` in a matrix block). */
-export async function listUploadTexts(
-  db: DbOrTx,
-  sheetId: number,
-): Promise<{ name: string; text: string }[]> {
+/** Every upload of a sheet as an evaluation job names it: id, name, size and SHA-256. */
+export async function listUploadRefs(db: DbOrTx, sheetId: number): Promise<UploadRef[]> {
   const rows = (await db('uploads')
     .where({ sheet_id: sheetId })
     .orderBy('name', 'asc')
-    .select('name', 'encoding', 'bytes')) as {
-    name: string;
-    encoding: 'gzip' | 'identity';
-    bytes: Buffer;
-  }[];
-  return rows.map((r) => ({
-    name: r.name,
-    text: (r.encoding === 'gzip' ? gunzipSync(r.bytes) : r.bytes).toString('utf8'),
-  }));
+    .select('id', 'name', 'size', 'sha256')) as UploadRef[];
+  return rows.map((r) => ({ id: r.id, name: r.name, size: Number(r.size), sha256: r.sha256 }));
+}
+
+/**
+ * The bytes of upload `id` as uploaded (inflated here; insertUpload compressed them), or
+ * undefined when there is none. Inflating stops with a RangeError past `maxBytes`, so stored
+ * bytes that would inflate beyond the size they were stored with never fill memory.
+ */
+export async function readUploadBytes(
+  db: DbOrTx,
+  id: number,
+  maxBytes: number,
+): Promise<Buffer | undefined> {
+  const row = (await db('uploads').where({ id }).first('encoding', 'bytes')) as
+    { encoding: 'gzip' | 'identity'; bytes: Buffer } | undefined;
+  if (!row) return undefined;
+  if (row.encoding === 'identity') {
+    if (row.bytes.length > maxBytes) throw new RangeError('the stored bytes exceed their size');
+    return row.bytes;
+  }
+  return gunzipAsync(row.bytes, { maxOutputLength: Math.max(1, maxBytes) });
 }

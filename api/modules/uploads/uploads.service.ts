@@ -1,18 +1,20 @@
 import { createHash } from 'node:crypto';
-import { isEngineError } from '../../../core/index';
+import { isEngineError, type SheetUpload } from '../../../core/index';
 import type { DbOrTx } from '../../db/index';
 import { isDuplicateKeyError } from '../../db/index';
 import type { AppContext } from '../../http/context';
 import { AppError, ConflictError, ValidationError } from '../../http/errors';
 import { activityService } from '../activity/activity.service';
+import type { UploadRef } from '../../workers/queue';
 import type { User } from '../users/users.repository';
 import { detectFormat, matrixFileError, type MatrixFileShape } from './uploads.parse';
 import {
   findUploadById,
   findUploadByName,
   insertUpload,
-  listUploadTexts,
+  listUploadRefs,
   listUploadsBySheet,
+  readUploadBytes,
   type Upload,
 } from './uploads.repository';
 
@@ -137,9 +139,45 @@ export const uploadsService = {
     return listUploadsBySheet(db, sheetId);
   },
 
-  /** The sheet's uploads as `{ name, text }` for the sheet evaluator. No role check: callers do. */
-  textsForSheet(db: DbOrTx, sheetId: number): Promise<{ name: string; text: string }[]> {
-    return listUploadTexts(db, sheetId);
+  /**
+   * The sheet's uploads as an evaluation names them (id, name, size, SHA-256): what goes into
+   * a job and into the results store's key. No role check: callers do.
+   */
+  refsForSheet(db: DbOrTx, sheetId: number): Promise<UploadRef[]> {
+    return listUploadRefs(db, sheetId);
+  },
+
+  /**
+   * The text of the upload `ref` names, for the engine: read from MariaDB (by a worker process,
+   * or in this one for the demo seeds), inflated no further than `ref.size`, and refused unless
+   * the bytes are `ref.size` long with SHA-256 `ref.sha256`.
+   */
+  async readUpload(db: DbOrTx, ref: UploadRef): Promise<SheetUpload> {
+    const bytes = await readUploadBytes(db, ref.id, ref.size).catch((e: unknown) => {
+      if (e instanceof RangeError) return null;
+      throw e;
+    });
+    if (bytes === undefined) {
+      throw new AppError(
+        404,
+        'UPLOAD_MISSING',
+        `The file ${ref.name} (upload ${ref.id}) is no longer stored; upload it again.`,
+        { details: { upload: ref.id, name: ref.name } },
+      );
+    }
+    if (
+      bytes === null ||
+      bytes.length !== ref.size ||
+      createHash('sha256').update(bytes).digest('hex') !== ref.sha256
+    ) {
+      throw new AppError(
+        409,
+        'UPLOAD_CHANGED',
+        `The stored bytes of ${ref.name} are not the ${ref.size} bytes with SHA-256 ${ref.sha256} the evaluation was asked for; evaluate again.`,
+        { details: { upload: ref.id, name: ref.name } },
+      );
+    }
+    return { name: ref.name, text: bytes.toString('utf8') };
   },
 };
 

@@ -102,21 +102,30 @@ async function readEvents(
 
 /** An evaluation not bound to a request, as the server keeps it (a day at most). */
 export type EvaluationJob = {
-  id: string;
+  /** Null for results answered from the server's results store (no job evaluated them). */
+  id: string | null;
   state: 'waiting' | 'running' | 'done' | 'failed';
   draft: Draft;
   progress: unknown;
   results?: unknown;
+  fromStore?: boolean;
   error?: { code: string; message: string };
 };
 
 /**
- * Starts an evaluation that goes on when the page closes (the server keeps it as a job); answers
- * its id.
+ * Starts an evaluation that goes on when the page closes (the server keeps it as a job): the
+ * job, waiting; or, for a text the server has evaluated before, the stored results at once
+ * (`state` done, `fromStore`).
  */
-export async function startEvaluation(sheetId: number | string, draft: Draft): Promise<string> {
-  const body = await api.post<{ job: { id: string } }>(`/api/sheets/${sheetId}/evaluations`, draft);
-  return body.job.id;
+export async function startEvaluation(
+  sheetId: number | string,
+  draft: Draft,
+): Promise<Pick<EvaluationJob, 'id' | 'state' | 'results' | 'fromStore'>> {
+  const body = await api.post<{ job: Pick<EvaluationJob, 'id' | 'state' | 'results'> }>(
+    `/api/sheets/${sheetId}/evaluations`,
+    draft,
+  );
+  return body.job;
 }
 
 /** The person's latest evaluation of the sheet, running or finished, or null. */

@@ -23,6 +23,7 @@ import { BLOCK_STARTERS, mergeBoth, moveBlock, newBlockId } from '../lib/blocks'
 import { namesInScope } from '../lib/scope';
 import { useAutosave } from '../lib/use-autosave';
 import { useEvaluation } from '../lib/use-evaluation';
+import { EVALUATING_ROLES } from '../../../../../core/vocabulary';
 import { BlockCard, KIND_LABELS } from './block-card';
 import type { RemarkMark } from './block-source';
 import { ConflictDialog } from './conflict-dialog';
@@ -113,6 +114,8 @@ function EditorSurface({
   // is, and what is typed here becomes the next revision when it is issued (a newer seal
   // supersedes the older one).
   const canEdit = sheet.myRoles.includes('author');
+  // An admin outside the project reads the draft but, like a viewer, queues no evaluation.
+  const canEvaluate = EVALUATING_ROLES.some((role) => sheet.myRoles.includes(role));
   const [blocks, setBlocks] = useState<Block[]>(sheet.draft.blocks);
   const [settings, setSettings] = useState(sheet.draft.settings ?? { significantFigures: 4 });
   const [undo, setUndo] = useState<Undo | null>(null);
@@ -126,7 +129,7 @@ function EditorSurface({
     initialVersion: sheet.draftVersion,
     enabled: canEdit,
   });
-  const evaluation = useEvaluation(sheet.id, draft);
+  const evaluation = useEvaluation(sheet.id, draft, canEvaluate);
   const uploads = useUploads(sheet.id);
   const uploadNames = useRef<string[]>([]);
   useEffect(() => {
@@ -229,7 +232,7 @@ function EditorSurface({
           saveState={save.state}
           saveError={save.error}
           readOnly={!canEdit}
-          onRun={() => void evaluation.run()}
+          {...(canEvaluate ? { onRun: () => void evaluation.run() } : {})}
           onCancel={evaluation.cancel}
         />
 

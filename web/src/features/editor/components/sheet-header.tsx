@@ -43,7 +43,8 @@ export function SheetHeader({
   saveState: SaveState;
   saveError: string | null;
   readOnly: boolean;
-  onRun: () => void;
+  /** Absent for someone who may not have the sheet evaluated: no Run button then. */
+  onRun?: () => void;
   onCancel: () => void;
 }) {
   const running = evaluation.phase === 'running';
@@ -96,11 +97,11 @@ export function SheetHeader({
               <Button variant="danger" className="py-0.5" onClick={onCancel}>
                 Cancel
               </Button>
-            ) : (
+            ) : onRun ? (
               <Button variant="secondary" className="py-0.5" onClick={onRun}>
                 Run
               </Button>
-            )}
+            ) : null}
           </div>
           <p role="status" aria-live="polite" className="flex items-center gap-2">
             {running ? (

@@ -44,8 +44,10 @@ function draftKey(draft: Draft): string {
  * evaluation at a time: a newer text cancels the older one. Results stay on screen, marked
  * stale, until the new ones arrive. Each evaluation is a job on the server that goes on when the
  * page closes: coming back to the sheet with the same text shows it running, then its results.
+ * An unchanged text is answered from the server's results store at once. With `enabled` false
+ * (someone who may not have the sheet evaluated) nothing is asked of the server.
  */
-export function useEvaluation(sheetId: number | string, draft: Draft) {
+export function useEvaluation(sheetId: number | string, draft: Draft, enabled = true) {
   const [results, setResults] = useState<SheetResults | null>(null);
   const [evaluatedText, setEvaluatedText] = useState<string | null>(null);
   const [state, setState] = useState<EvaluationState>({ phase: 'idle' });
@@ -122,9 +124,9 @@ export function useEvaluation(sheetId: number | string, draft: Draft) {
     const draftNow = latest.current;
     const text = JSON.stringify(draftNow);
     setState({ phase: 'running', progress: null, startedAt: Date.now() });
-    let jobId: string;
+    let started: Awaited<ReturnType<typeof startEvaluation>>;
     try {
-      jobId = await startEvaluation(sheetId, draftNow);
+      started = await startEvaluation(sheetId, draftNow);
     } catch (error) {
       if (controller.current !== mine) return;
       setState({
@@ -134,9 +136,23 @@ export function useEvaluation(sheetId: number | string, draft: Draft) {
       });
       return;
     }
+    const jobId = started.id;
     if (controller.current !== mine) {
       // A newer text or a cancel came while it was being queued.
-      void cancelEvaluation(sheetId, jobId).catch(() => {});
+      if (jobId) void cancelEvaluation(sheetId, jobId).catch(() => {});
+      return;
+    }
+    // An unchanged text: the server answered from its results store, no job to follow.
+    if (started.state === 'done' || !jobId) {
+      const read = readResults(started);
+      controller.current = null;
+      if (read) {
+        setResults(read);
+        setEvaluatedText(text);
+        setState({ phase: 'idle' });
+      } else {
+        setState({ phase: 'failed', message: 'The server sent results this editor cannot read.' });
+      }
       return;
     }
     job.current = jobId;
@@ -145,6 +161,7 @@ export function useEvaluation(sheetId: number | string, draft: Draft) {
 
   // Coming back to the sheet: the latest evaluation of this very text, running or done.
   useEffect(() => {
+    if (!enabled) return;
     let live = true;
     latestEvaluation(sheetId)
       .then((found) => {
@@ -157,7 +174,7 @@ export function useEvaluation(sheetId: number | string, draft: Draft) {
             setResults(read);
             setEvaluatedText(text);
           }
-        } else if (found.state === 'waiting' || found.state === 'running') {
+        } else if ((found.state === 'waiting' || found.state === 'running') && found.id) {
           const mine = new AbortController();
           controller.current = mine;
           job.current = found.id;
@@ -173,7 +190,7 @@ export function useEvaluation(sheetId: number | string, draft: Draft) {
     return () => {
       live = false;
     };
-  }, [sheetId, follow]);
+  }, [sheetId, follow, enabled]);
 
   const cancel = useCallback(() => {
     if (timer.current) clearTimeout(timer.current);
@@ -182,7 +199,7 @@ export function useEvaluation(sheetId: number | string, draft: Draft) {
 
   const draftText = JSON.stringify(draft);
   useEffect(() => {
-    if (resuming || draftText === evaluatedText) return;
+    if (!enabled || resuming || draftText === evaluatedText) return;
     if (timer.current) clearTimeout(timer.current);
     timer.current = setTimeout(() => void run(), DEBOUNCE_MS);
     return () => {
@@ -190,7 +207,7 @@ export function useEvaluation(sheetId: number | string, draft: Draft) {
     };
     // evaluatedText is read, not watched: a finished evaluation must not start another.
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [draftText, run, resuming]);
+  }, [draftText, run, resuming, enabled]);
 
   // Leaving the page stops following only: the evaluation goes on, and is there on return.
   useEffect(() => () => controller.current?.abort(), []);
