@@ -28,7 +28,10 @@ export interface AppConfig {
   logRequests: boolean;
   /** Largest JSON body accepted, in bytes. */
   bodyLimitBytes: number;
-  /** Largest matrix file accepted by an upload, in bytes (MW_UPLOAD_LIMIT_BYTES, default 20 MB). */
+  /**
+   * Largest matrix file accepted by an upload, in bytes (MW_UPLOAD_LIMIT_BYTES, default 64 MiB:
+   * the K or the M of a 50 000-DOF 3D frame is about 34 MB of Matrix Market text).
+   */
   uploadLimitBytes: number;
   /** The evaluation queue (Redis) the API adds jobs to and the workers take them from. */
   queue: QueueConfig;
@@ -169,7 +172,7 @@ export function loadConfig(overrides: Partial<AppConfig> = {}): AppConfig {
     clientDir: path.join(projectRoot, 'dist', 'client'),
     logRequests: process.env.MW_LOG_REQUESTS !== '0',
     bodyLimitBytes: 1024 * 1024,
-    uploadLimitBytes: intFromEnv('MW_UPLOAD_LIMIT_BYTES', 20 * 1024 * 1024),
+    uploadLimitBytes: intFromEnv('MW_UPLOAD_LIMIT_BYTES', 64 * 1024 * 1024),
     workers:
       process.env.MW_WORKERS === '0' ? 0 : intFromEnv('MW_WORKERS', os.availableParallelism()),
     queue: loadQueueConfig(overrides.db?.name ?? process.env.MW_DB_NAME ?? 'modewright'),

@@ -32,7 +32,7 @@ describe('loadConfig', () => {
     expect(config.signinLimit).toBe(10);
     expect(config.signinWindowMs).toBe(15 * 60 * 1000);
     expect(config.trustProxyHops).toBe(0);
-    expect(config.uploadLimitBytes).toBe(20 * 1024 * 1024);
+    expect(config.uploadLimitBytes).toBe(64 * 1024 * 1024);
   });
 
   it('reads the MW_* variables', async () => {
