@@ -80,11 +80,15 @@ export const sheetResults = z.strictObject({
   }),
 });
 
-/** POST /api/sheets/:sheetId/evaluate: the results and their digests, and the engine's version. */
+/**
+ * POST /api/sheets/:sheetId/evaluate: the results and their digests, the engine's version, and
+ * whether they were answered from the results store (an unchanged text) rather than computed now.
+ */
 export const evaluationResponse = z.strictObject({
   results: sheetResults,
   digests: z.strictObject({ canonicalText: z.string(), results: z.string() }),
   engineVersion: z.string(),
+  fromStore: z.boolean(),
 });
 export type EvaluationResponse = z.infer<typeof evaluationResponse>;
 
