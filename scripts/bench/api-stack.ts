@@ -8,12 +8,15 @@
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { createServer } from 'node:net';
-import { loadDbConfig } from '../../api/config/index';
+import { loadDbConfig, loadQueueConfig } from '../../api/config/index';
 import { createDb, waitForDb } from '../../api/db/index';
+import { createLogger } from '../../api/http/logger';
 import { hashPassword } from '../../api/modules/auth/passwords';
 import { membersRepository } from '../../api/modules/members/members.repository';
 import { projectsRepository } from '../../api/modules/projects/projects.repository';
 import { usersRepository } from '../../api/modules/users/users.repository';
+import { createJobQueue } from '../../api/workers/job-queue';
+import { redisConnection } from '../../api/workers/queue';
 
 export const BENCH_DB = 'modewright_bench';
 
@@ -158,6 +161,24 @@ export async function startApiStack(uploadLimitBytes: number): Promise<ApiStack>
     env,
     close: async () => {
       await Promise.all([stop(worker), stop(server)]);
+      // The bench's keys on Redis go with it (the queue and the latest-job pointers): their
+      // prefix is this run's alone.
+      const prefix = env.MW_QUEUE_PREFIX!;
+      const queue = { ...loadQueueConfig(BENCH_DB), prefix };
+      const jobs = createJobQueue(queue, createLogger(false));
+      const redis = redisConnection(queue.redisUrl, false);
+      try {
+        await jobs.queue.obliterate({ force: true });
+        let cursor = '0';
+        do {
+          const [next, keys] = await redis.scan(cursor, 'MATCH', `${prefix}:*`, 'COUNT', 500);
+          if (keys.length > 0) await redis.del(...keys);
+          cursor = next;
+        } while (cursor !== '0');
+      } finally {
+        await jobs.close();
+        redis.disconnect();
+      }
     },
   };
 }
