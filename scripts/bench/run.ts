@@ -14,8 +14,10 @@
 // --baseline times the command line of another checkout (with its own node_modules) in the same
 // alternation, as a before/after column of the first table. --queue adds the evaluation queue's
 // table (./queue.ts; needs Redis: `npm run redis:start`), --queue-only prints it alone. --sheets
-// adds sheets evaluated through a worker against scipy on the same K and M (./sheets.ts; Redis
-// too; --large adds the 3D frame), --sheets-only prints that table alone. Not part of npm test.
+// adds sheets evaluated through the compiled API server and a worker process, signed in over
+// HTTP with uploaded files, against scipy on the same K and M (./sheets.ts; it starts MariaDB,
+// Redis, the server and the worker itself; --large adds the 3D frame), --sheets-only prints that
+// table alone. Not part of npm test.
 import { execFileSync, spawnSync } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { loadavg, cpus } from 'node:os';

@@ -8,31 +8,33 @@
 // Generated models are written out for scipy with the generators the sheet functions call
 // (core/models), with the same inputs in SI units, so both solve the same matrices; uploaded ones
 // are the bench's own problem files (./problems.ts, written by ./case.ts).
-import type { ChildProcess } from 'node:child_process';
-import { readFileSync, writeFileSync } from 'node:fs';
+import { statSync, readFileSync, writeFileSync } from 'node:fs';
 import { basename, join } from 'node:path';
-import { loadQueueConfig } from '../../api/config/index';
-import { createLogger } from '../../api/http/logger';
-import { createJobQueue, type JobQueue } from '../../api/workers/job-queue';
 import {
   buildPlaneFrame,
   eulerBernoulliBeam,
   toSparse,
-  type Sheet,
   type SheetResults,
-  type SheetUpload,
   type SymmetricMatrix,
 } from '../../core/index';
+import { ApiSession, startApiStack, type ApiStack } from './api-stack';
 import { writeMatrixMarket } from './matrix-market';
-import { startWorker } from './queue';
 import { spawnCase } from './spawn-case';
 import { scipyProcessArgv, timed } from './users-path';
 
 const MODES = 10;
 
+/** A draft block as PUT /api/sheets/:id/draft takes it. */
+interface DraftBlock {
+  id: string;
+  kind: string;
+  source: string;
+}
+
 interface Prepared {
-  sheet: Sheet;
-  uploads: SheetUpload[];
+  blocks: DraftBlock[];
+  /** Matrix Market files uploaded to the sheet before its draft is saved. */
+  uploads: string[];
   kPath: string;
   mPath: string;
   n: number;
@@ -92,16 +94,14 @@ function beamCase(elements: number): SheetCase {
       return {
         ...files,
         uploads: [],
-        sheet: {
-          blocks: [
-            {
-              id: 'gen',
-              kind: 'calc',
-              source: `deck = beam({E: 210 GPa, I: 0.02 m^4, mass: 1.5 t/m, length: 120 m, elements: ${elements}, ends: "clamped-free"})`,
-            },
-            modesBlock('deck.K', 'deck.M', 'deck_v'),
-          ],
-        } as unknown as Sheet,
+        blocks: [
+          {
+            id: 'gen',
+            kind: 'calc',
+            source: `deck = beam({E: 210 GPa, I: 0.02 m^4, mass: 1.5 t/m, length: 120 m, elements: ${elements}, ends: "clamped-free"})`,
+          },
+          modesBlock('deck.K', 'deck.M', 'deck_v'),
+        ],
       };
     },
   };
@@ -153,20 +153,18 @@ function planeFrameCase(bays: number, storeys: number): SheetCase {
       return {
         ...files,
         uploads: [],
-        sheet: {
-          blocks: [
-            {
-              id: 'gen',
-              kind: 'calc',
-              source: [
-                `xy = [${xy}] * 1 m`,
-                `bars = [${bars}]`,
-                `frame = plane_frame({nodes: xy, members: bars, E: 210 GPa, A: 0.01 m^2, I: 2e-4 m^4, mass: 80 kg/m, fixed: [${foot}]})`,
-              ].join('\n'),
-            },
-            modesBlock('frame.K', 'frame.M', 'sway'),
-          ],
-        } as unknown as Sheet,
+        blocks: [
+          {
+            id: 'gen',
+            kind: 'calc',
+            source: [
+              `xy = [${xy}] * 1 m`,
+              `bars = [${bars}]`,
+              `frame = plane_frame({nodes: xy, members: bars, E: 210 GPa, A: 0.01 m^2, I: 2e-4 m^4, mass: 80 kg/m, fixed: [${foot}]})`,
+            ].join('\n'),
+          },
+          modesBlock('frame.K', 'frame.M', 'sway'),
+        ],
       };
     },
   };
@@ -191,17 +189,12 @@ function uploadCase(problem: string, what: string, large = false): SheetCase {
       const mName = basename(files.mPath);
       return {
         ...files,
-        uploads: [
-          { name: kName, text: readFileSync(files.kPath, 'utf8') },
-          { name: mName, text: readFileSync(files.mPath, 'utf8') },
+        uploads: [files.kPath, files.mPath],
+        blocks: [
+          { id: 'k', kind: 'matrix', source: `name: K\nunit: N/m\nfrom: ${kName}` },
+          { id: 'mm', kind: 'matrix', source: `name: M\nunit: kg\nfrom: ${mName}` },
+          modesBlock('K', 'M', 'model'),
         ],
-        sheet: {
-          blocks: [
-            { id: 'k', kind: 'matrix', source: `name: K\nunit: N/m\nfrom: ${kName}` },
-            { id: 'mm', kind: 'matrix', source: `name: M\nunit: kg\nfrom: ${mName}` },
-            modesBlock('K', 'M', 'model'),
-          ],
-        } as unknown as Sheet,
       };
     },
   };
@@ -225,28 +218,110 @@ function peakRss(pid: number, reset: boolean): number {
   return kb / 1024;
 }
 
-/** One evaluation through the queue: the time from adding the job to its results. */
-async function evaluateThrough(
-  jobs: JobQueue,
+const SETTINGS = { significantFigures: 4 };
+
+/** The last event of a server-sent event stream: its name and its data, parsed. */
+function lastEvent(text: string): { event: string; data: unknown } {
+  const events = text
+    .split(/\n\n+/)
+    .map((chunk) => {
+      let event = 'message';
+      const data: string[] = [];
+      for (const line of chunk.split('\n')) {
+        if (line.startsWith('event:')) event = line.slice(6).trim();
+        else if (line.startsWith('data:')) data.push(line.slice(5).trimStart());
+      }
+      return { event, data: data.join('\n') };
+    })
+    .filter((e) => e.data !== '');
+  const last = events.at(-1);
+  if (!last) throw new Error('the event stream ended with no event');
+  return { event: last.event, data: JSON.parse(last.data) as unknown };
+}
+
+/** A sheet of the bench's project with the case's files uploaded; answers its id and version. */
+async function createSheet(
+  session: ApiSession,
+  projectId: number,
   c: SheetCase,
   p: Prepared,
-  sheetId: number,
+  limit: number,
+): Promise<{ id: number; version: number }> {
+  const created = await session.json<{ sheet: { id: number; draftVersion: number } }>(
+    'POST',
+    `/api/projects/${projectId}/sheets`,
+    [201],
+    { number: `BENCH-${c.name}`, title: `Bench ${c.name}` },
+  );
+  const id = created.body.sheet.id;
+  for (const path of p.uploads) {
+    const size = statSync(path).size;
+    if (size > limit) {
+      throw new Error(`${basename(path)} is ${size} bytes, over the upload limit of ${limit}`);
+    }
+    const form = new FormData();
+    form.append('file', new Blob([readFileSync(path)]), basename(path));
+    await session.text('POST', `/api/sheets/${id}/uploads`, [200, 201], form);
+  }
+  return { id, version: created.body.sheet.draftVersion };
+}
+
+/**
+ * One timed evaluation as the editor asks for it, after saving the draft with a text block of
+ * its own (`run`), so the results store has nothing for it and the worker solves.
+ */
+async function evaluateOnce(
+  session: ApiSession,
+  c: SheetCase,
+  p: Prepared,
+  sheet: { id: number; version: number },
+  run: string,
 ): Promise<{ seconds: number; results: SheetResults }> {
+  const draft = {
+    blocks: [{ id: 'run', kind: 'text', source: `Bench run ${run}.` }, ...p.blocks],
+    settings: SETTINGS,
+  };
+  const saved = await session.json<{ draftVersion: number }>(
+    'PUT',
+    `/api/sheets/${sheet.id}/draft`,
+    [200],
+    draft,
+    { 'if-match': `"${sheet.version}"` },
+  );
+  sheet.version = saved.body.draftVersion;
   const t0 = performance.now();
   let results: SheetResults;
   if (c.background) {
-    const owner = { userId: 1, projectId: 1, sheetId };
-    const id = await jobs.evaluations.start(p.sheet, p.uploads, owner);
-    await jobs.evaluations.follow(id, {});
-    const view = await jobs.evaluations.view(id);
-    if (!view || view.state !== 'done') {
-      throw new Error(
-        view?.state === 'failed' ? `${view.error.code}: ${view.error.message}` : 'the job is gone',
-      );
+    const start = await session.json<{ job: { id: string; state: string } }>(
+      'POST',
+      `/api/sheets/${sheet.id}/evaluations`,
+      [200, 202],
+      draft,
+    );
+    if (start.status !== 202) {
+      throw new Error('answered from the results store: the draft did not change between runs');
     }
-    results = view.results;
+    const stream = await session.text(
+      'GET',
+      `/api/sheets/${sheet.id}/evaluations/${start.body.job.id}/events`,
+      [200],
+    );
+    const last = lastEvent(stream.text);
+    if (last.event !== 'result') {
+      const e = (last.data as { error?: { code: string; message: string } }).error;
+      throw new Error(e ? `${e.code}: ${e.message}` : `the stream ended with "${last.event}"`);
+    }
+    const job = last.data as { state: string; fromStore?: boolean; results: SheetResults };
+    if (job.state !== 'done') throw new Error(`the job ended ${job.state}`);
+    results = job.results;
   } else {
-    results = await jobs.runner(p.sheet, p.uploads, {});
+    const r = await session.json<{ results: SheetResults }>(
+      'POST',
+      `/api/sheets/${sheet.id}/evaluate`,
+      [200],
+      draft,
+    );
+    results = r.body.results;
   }
   return { seconds: (performance.now() - t0) / 1000, results };
 }
@@ -263,10 +338,16 @@ function maxRelDiff(a: number[], b: number[]): number {
   return worst;
 }
 
+/** The upload limit the bench's server gets: 64 MB, or more when a file of the bench is larger. */
+function uploadLimitFor(prepared: Prepared[]): number {
+  const largest = Math.max(0, ...prepared.flatMap((p) => p.uploads.map((f) => statSync(f).size)));
+  return Math.max(64 * 2 ** 20, largest + 2 ** 20);
+}
+
 /**
  * Runs the sheets bench and answers its Markdown section: each case `runs` times through the
- * worker and as often through scipy, alternating; `large` adds the cases that take minutes and
- * `only` picks cases by name.
+ * API and its worker and as often through scipy, alternating; `large` adds the cases that take
+ * minutes and `only` picks cases by name.
  */
 export async function benchSheets(
   runs: number,
@@ -275,23 +356,35 @@ export async function benchSheets(
   const cases = SHEET_CASES.filter((c) =>
     options.only ? options.only.includes(c.name) : options.large || !c.large,
   );
-  const prefix = `mw:bench-sheets-${process.pid}-${Date.now()}`;
-  const worker: ChildProcess = await startWorker({ MW_QUEUE_PREFIX: prefix });
-  const config = { ...loadQueueConfig('modewright_bench'), prefix };
-  const jobs = createJobQueue(config, createLogger(false));
+  if (cases.length === 0) return [];
+  const prepared: Prepared[] = [];
+  for (const c of cases) {
+    console.log(`… sheet ${c.name}: preparing`);
+    prepared.push(await c.prepare(options.outDir));
+  }
+  const limit = uploadLimitFor(prepared);
+  const stack: ApiStack = await startApiStack(limit);
+  const workerPid = stack.worker.pid!;
   const rows: string[] = [];
   const notes: string[] = [];
+  const tag = `${process.pid}-${Date.now()}`;
   try {
+    const session = new ApiSession(stack.baseUrl);
+    await session.signIn(stack.email, stack.password);
     // The worker's first job loads the engine into its evaluation thread: not part of any case.
-    await jobs.runner(
-      { blocks: [{ id: 'c', kind: 'calc', source: 'x = 1 m' }] } as unknown as Sheet,
-      [],
-      {},
+    const warm = await session.json<{ sheet: { id: number } }>(
+      'POST',
+      `/api/projects/${stack.projectId}/sheets`,
+      [201],
+      { number: 'BENCH-warm-up', title: 'Bench warm-up' },
     );
+    await session.json('POST', `/api/sheets/${warm.body.sheet.id}/evaluate`, [200], {
+      blocks: [{ id: 'c', kind: 'calc', source: 'x = 1 m' }],
+      settings: SETTINGS,
+    });
     for (const [index, c] of cases.entries()) {
-      console.log(`… sheet ${c.name}: preparing`);
-      const p = await c.prepare(options.outDir);
-      const uploadMB = p.uploads.reduce((sum, u) => sum + u.text.length, 0) / 2 ** 20;
+      const p = prepared[index]!;
+      const uploadMB = p.uploads.reduce((sum, f) => sum + statSync(f).size, 0) / 2 ** 20;
       const ours: number[] = [];
       const ref: number[] = [];
       const refPeak: number[] = [];
@@ -300,31 +393,38 @@ export async function benchSheets(
       let refLambdas: number[] = [];
       let error: string | null = null;
       let method = '';
-      const runOurs = async (): Promise<void> => {
-        peakRss(worker.pid!, true);
-        const r = await evaluateThrough(jobs, c, p, index + 1);
-        workerPeak = Math.max(workerPeak, peakRss(worker.pid!, false));
-        if (r.results.errors.length > 0) {
-          const e = r.results.errors[0]!;
-          throw new Error(`${e.blockId}:${e.line} ${e.code} ${e.message}`);
-        }
-        const modes = r.results.blocks.find((b) => b.kind === 'modes');
-        if (modes?.kind !== 'modes') throw new Error('no modes block in the results');
-        lambdas = modes.modes.map((m) => m.lambda);
-        method = modes.methodUsed ?? '';
-        ours.push(r.seconds);
-        console.log(`  through the worker ${fmt(r.seconds)} s; λ ${JSON.stringify(lambdas)}`);
-      };
-      const runScipy = (): void => {
-        if (!options.scipy) return;
-        const r = timed(scipyProcessArgv('sparse', p.kPath, p.mPath, MODES), process.env);
-        if (r.status !== 0) throw new Error(`scipy: ${r.stderr.split('\n').slice(-3).join(' ')}`);
-        ref.push(r.seconds);
-        refPeak.push(r.peakMB);
-        refLambdas = (JSON.parse(r.stdout) as { lambdas: number[] }).lambdas;
-        console.log(`  scipy ${fmt(r.seconds)} s`);
-      };
+      let uploadSeconds = NaN;
       try {
+        const t0 = performance.now();
+        const sheet = await createSheet(session, stack.projectId, c, p, limit);
+        uploadSeconds = (performance.now() - t0) / 1000;
+        let run = 0;
+        const runOurs = async (): Promise<void> => {
+          peakRss(workerPid, true);
+          const r = await evaluateOnce(session, c, p, sheet, `${tag}-${++run}`);
+          workerPeak = Math.max(workerPeak, peakRss(workerPid, false));
+          if (r.results.errors.length > 0) {
+            const e = r.results.errors[0]!;
+            throw new Error(`${e.blockId}:${e.line} ${e.code} ${e.message}`);
+          }
+          const modes = r.results.blocks.find((b) => b.kind === 'modes');
+          if (modes?.kind !== 'modes') throw new Error('no modes block in the results');
+          lambdas = modes.modes.map((m) => m.lambda);
+          method = modes.methodUsed ?? '';
+          ours.push(r.seconds);
+          console.log(`  through the API ${fmt(r.seconds)} s; λ ${JSON.stringify(lambdas)}`);
+        };
+        const runScipy = (): void => {
+          if (!options.scipy) return;
+          const r = timed(scipyProcessArgv('sparse', p.kPath, p.mPath, MODES), process.env);
+          if (r.status !== 0) {
+            throw new Error(`scipy: ${r.stderr.split('\n').slice(-3).join(' ')}`);
+          }
+          ref.push(r.seconds);
+          refPeak.push(r.peakMB);
+          refLambdas = (JSON.parse(r.stdout) as { lambdas: number[] }).lambdas;
+          console.log(`  scipy ${fmt(r.seconds)} s`);
+        };
         // a case that takes minutes runs once
         for (let i = 0; i < (c.large ? 1 : runs); i++) {
           if (i % 2 === 0) {
@@ -347,25 +447,27 @@ export async function benchSheets(
       );
       console.log(rows.at(-1));
       const d: string[] = [];
-      if (ours.length > 0) d.push(`through the worker ${ours.map((t) => fmt(t)).join(', ')} s`);
+      if (ours.length > 0) d.push(`through the API ${ours.map((t) => fmt(t)).join(', ')} s`);
       if (ref.length > 0) d.push(`scipy ${ref.map((t) => fmt(t)).join(', ')} s`);
-      if (uploadMB > 0) d.push(`uploads ${fmt(uploadMB, 1)} MB of text`);
+      if (uploadMB > 0) {
+        d.push(
+          `uploads ${fmt(uploadMB, 1)} MB of text, sent and parsed in ${fmt(uploadSeconds)} s`,
+        );
+      }
       if (method) d.push(`method ${method}`);
       d.push(c.background ? 'background evaluation' : "a request's evaluation");
       if (error) d.push(`failed: ${error}`);
       notes.push(`- **${c.name}**: ${d.join('; ')}.`);
     }
   } finally {
-    await jobs.queue.obliterate({ force: true }).catch(() => {});
-    await jobs.close();
-    worker.kill('SIGTERM');
+    await stack.close();
   }
   return [
-    '## Sheets through the worker',
+    '## Sheets through the API and a worker',
     '',
-    `One worker process (\`api/workers/job-worker.ts\`, as \`npm run worker\` runs it, with its default limits; given one small sheet before the first case, which loads the engine) on Redis ${config.redisUrl}; this process adds each sheet with its uploads as a job and waits for the results as an API process does (createJobQueue): a request's evaluation for the generated models, a background evaluation (the long-solve path) for the uploaded ones. Wall time from adding the job to having its results, against scipy's whole process (mmread + eigsh(K, ${MODES}, M, sigma=0)) on the same K and M, alternating, median of the runs (one run for the cases of --large). Worker peak is the largest resident set of the worker process during the evaluations (VmHWM, reset before each).`,
+    `The compiled API server (\`dist/server/server.js\`, as \`npm start\` runs it, with no workers of its own) and one worker process (\`dist/server/job-worker.js\`, as \`npm run worker\` runs it, with its default limits) on the project's MariaDB (a database of the bench's own, \`modewright_bench\`, re-created and migrated each run) and Redis (a queue prefix of the bench's own); the server's upload limit (MW_UPLOAD_LIMIT_BYTES) is ${fmt(limit / 2 ** 20, 0)} MB, set to cover the largest file. A person signs in over HTTP, creates a sheet, uploads its Matrix Market files through the upload route (multipart, as the browser does; not timed) and saves the draft before each run. Each run adds a text block with its own number to the draft, so the results store cannot answer it and the worker really solves. Wall time from the request to having the results: \`POST /api/sheets/:id/evaluate\` for the generated models (a request's evaluation), \`POST /api/sheets/:id/evaluations\` followed through its server-sent events to the result for the uploaded ones (a background evaluation, the long-solve path; the worker reads the uploads from MariaDB). Against scipy's whole process (mmread + eigsh(K, ${MODES}, M, sigma=0)) on the same K and M, alternating, median of the runs (one run for the cases of --large). One small sheet is evaluated before the first case, which loads the engine into the worker. Worker peak is the largest resident set of the worker process during the evaluations (VmHWM, reset before each).`,
     '',
-    '| sheet | model | DOF | modes | through the worker, median s | scipy, median s | ratio | max rel. λ diff | worker peak MB | scipy peak MB |',
+    '| sheet | model | DOF | modes | through the API, median s | scipy, median s | ratio | max rel. λ diff | worker peak MB | scipy peak MB |',
     '|---|---|---|---|---|---|---|---|---|---|',
     ...rows,
     '',
