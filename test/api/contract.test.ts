@@ -3,7 +3,9 @@ import type { z } from 'zod';
 import { activityResponse } from '../../core/contract/activity';
 import { outboxResponse } from '../../core/contract/outbox';
 import { meResponse, signInResponse, usersResponse } from '../../core/contract/people';
+import { compareResponse } from '../../core/contract/compare';
 import { membersResponse, projectResponse, projectsResponse } from '../../core/contract/projects';
+import { packageResponse, printResponse } from '../../core/contract/print';
 import { remarkResponse, remarksResponse } from '../../core/contract/remarks';
 import {
   revisionDetailResponse,
@@ -327,6 +329,30 @@ describe('the response contract, on the real server', () => {
     expect(verdict.verdict).toBe('genuine');
     const unknown = answer(await visitor.get('/api/verify/AAAAA-AAAAA'), 200, verifyResult);
     expect(unknown.verdict).toBe('unknown-code');
+  });
+
+  it('compare with the draft, the print of the sealed revision, the project package', async () => {
+    const compared = answer(
+      await author.get(`/api/sheets/${sheetId}/compare?from=${revisionId}&to=draft`),
+      200,
+      compareResponse,
+    );
+    expect(compared.from).toMatchObject({ kind: 'revision', id: revisionId });
+    expect(compared.to.kind).toBe('draft');
+    const print = answer(
+      await checker.get(`/api/revisions/${revisionId}/print`),
+      200,
+      printResponse,
+    );
+    expect(print.seal?.code).toBe(sealCode);
+    expect(print.revision.banner).toBeNull();
+    const pkg = answer(
+      await principal.get(`/api/projects/${team.project.id}/package`),
+      200,
+      packageResponse,
+    );
+    expect(pkg.parts.map((p) => p.revision.id)).toEqual([revisionId]);
+    expect(pkg.parts[0]!.record.remarks.length).toBeGreaterThan(0);
   });
 
   it('the activity of the project and of the sheet, search, and the outbox of a member', async () => {
