@@ -65,6 +65,21 @@ export const draftSaved = z.strictObject({ draftVersion: z.number().int(), updat
 export type DraftSaved = z.infer<typeof draftSaved>;
 
 /**
+ * What the server holds when a draft save is refused as stale: the answer is 409 with
+ * `error.code` DRAFT_CONFLICT and these `error.details`, so the editor can show both versions.
+ */
+export const conflictingDraft = sheetDraft.extend({
+  draftVersion: z.number().int(),
+  updatedAt: isoTime,
+  updatedBy: personRef,
+});
+export type ConflictingDraft = z.infer<typeof conflictingDraft>;
+
+/** The `details` of the 409 DRAFT_CONFLICT error of PUT /api/sheets/:sheetId/draft. */
+export const draftConflictDetails = z.strictObject({ current: conflictingDraft });
+export type DraftConflictDetails = z.infer<typeof draftConflictDetails>;
+
+/**
  * A sheet's results: each block's results (their shape is the engine's, core/sheet/types.ts
  * BlockResult), the refusals with their place, and the criteria's tally.
  */
@@ -80,17 +95,110 @@ export const sheetResults = z.strictObject({
   }),
 });
 
+/** SHA-256 (hex) of a sheet's canonical text and of its results' canonical JSON. */
+export const sheetDigests = z.strictObject({ canonicalText: z.string(), results: z.string() });
+
 /**
  * POST /api/sheets/:sheetId/evaluate: the results and their digests, the engine's version, and
  * whether they were answered from the results store (an unchanged text) rather than computed now.
  */
 export const evaluationResponse = z.strictObject({
   results: sheetResults,
-  digests: z.strictObject({ canonicalText: z.string(), results: z.string() }),
+  digests: sheetDigests,
   engineVersion: z.string(),
   fromStore: z.boolean(),
 });
 export type EvaluationResponse = z.infer<typeof evaluationResponse>;
+
+/**
+ * Where an evaluation has got to: the block being evaluated (0-based of `blockCount`) and, while
+ * a modes block solves, the method's stage, its iteration and the modes converged of those wanted.
+ */
+export const sheetProgress = z.strictObject({
+  blockIndex: z.number().int().nonnegative(),
+  blockId: z.string(),
+  blockCount: z.number().int().nonnegative(),
+  kind: z.enum(BLOCK_KINDS),
+  message: z.string(),
+  stage: z.string().optional(),
+  iteration: z.number().int().optional(),
+  modesConverged: z.number().int().optional(),
+  modesWanted: z.number().int().optional(),
+});
+export type SheetProgress = z.infer<typeof sheetProgress>;
+
+/**
+ * The data of a `progress` server-sent event (POST /api/sheets/:id/evaluate/stream and GET
+ * /api/sheets/:id/evaluations/:jobId/events): the progress and the share of the sheet done, 0–1
+ * (null for a sheet without blocks).
+ */
+export const progressEvent = sheetProgress.extend({
+  fraction: z.number().min(0).max(1).nullable(),
+});
+export type ProgressEvent = z.infer<typeof progressEvent>;
+
+/**
+ * The data of an `error` server-sent event: the API's one error shape, sent once the stream has
+ * started (before it, a refusal is an ordinary JSON answer with its status).
+ */
+export const errorEvent = z.strictObject({
+  error: z.strictObject({
+    code: z.string(),
+    message: z.string(),
+    field: z.string().optional(),
+    details: z.record(z.string(), z.unknown()).optional(),
+  }),
+});
+export type ErrorEvent = z.infer<typeof errorEvent>;
+
+/** The text an evaluation job evaluated: the draft as sent (its settings may be left out). */
+export const evaluatedText = z.strictObject({
+  blocks: z.array(sheetBlock),
+  settings: z
+    .strictObject({
+      significantFigures: z.number().int().optional(),
+      units: z.string().optional(),
+    })
+    .optional(),
+});
+
+/**
+ * An evaluation not bound to a request, as the server keeps it (a day at most): its state, the
+ * text evaluated, its last progress, and once `done` the results with their digests; once
+ * `failed` the refusal. An unchanged text answered from the results store is `done` at once with
+ * `fromStore` true and no job behind it (`id` null).
+ */
+export const evaluationJob = z.strictObject({
+  id: z.string().nullable(),
+  state: z.enum(['waiting', 'running', 'done', 'failed']),
+  draft: evaluatedText,
+  progress: sheetProgress.nullable(),
+  results: sheetResults.optional(),
+  digests: sheetDigests.optional(),
+  engineVersion: z.string().optional(),
+  fromStore: z.boolean().optional(),
+  error: z
+    .strictObject({
+      code: z.string(),
+      message: z.string(),
+      details: z.record(z.string(), z.unknown()).optional(),
+    })
+    .optional(),
+});
+export type EvaluationJob = z.infer<typeof evaluationJob>;
+
+/**
+ * POST /api/sheets/:sheetId/evaluations: 202 with the job just queued (`waiting`), or 200 with
+ * the stored results of an unchanged text (a `done` job, `fromStore`).
+ */
+export const evaluationStarted = z.strictObject({
+  job: z.union([z.strictObject({ id: z.string(), state: z.literal('waiting') }), evaluationJob]),
+});
+export type EvaluationStarted = z.infer<typeof evaluationStarted>;
+
+/** GET /api/sheets/:sheetId/evaluations/latest: the person's latest evaluation, or null. */
+export const latestEvaluationResponse = z.strictObject({ job: evaluationJob.nullable() });
+export type LatestEvaluationResponse = z.infer<typeof latestEvaluationResponse>;
 
 export const sheetTemplate = z.strictObject({
   key: z.string(),

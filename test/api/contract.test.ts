@@ -3,7 +3,9 @@ import type { z } from 'zod';
 import { activityResponse } from '../../core/contract/activity';
 import { outboxResponse } from '../../core/contract/outbox';
 import { meResponse, signInResponse, usersResponse } from '../../core/contract/people';
+import { compareResponse } from '../../core/contract/compare';
 import { membersResponse, projectResponse, projectsResponse } from '../../core/contract/projects';
+import { packageResponse, printResponse } from '../../core/contract/print';
 import { remarkResponse, remarksResponse } from '../../core/contract/remarks';
 import {
   revisionDetailResponse,
@@ -13,16 +15,24 @@ import {
 } from '../../core/contract/revisions';
 import { searchAnswer } from '../../core/contract/search';
 import {
+  draftConflictDetails,
   draftSaved,
+  errorEvent,
+  evaluationJob,
   evaluationResponse,
+  evaluationStarted,
+  latestEvaluationResponse,
+  progressEvent,
   firmTemplatesResponse,
   sheetResponse,
   sheetResults,
   sheetsResponse,
   sheetTemplatesResponse,
 } from '../../core/contract/sheets';
+import { uploadResponse, uploadsResponse } from '../../core/contract/uploads';
 import { verifyResult } from '../../core/contract/verify';
 import { anonymous, createTeamApp, type ApiClient, type TestApp } from '../support/api-app';
+import { asText, parseEvents } from '../support/event-stream';
 import { createProjectTeam, unique } from '../support/factories';
 
 // The response contract (core/contract/) against the real server: every GET the client makes and
@@ -59,6 +69,7 @@ function answer<S extends z.ZodType>(
 }
 
 let sheetId = 0;
+let draftVersion = 0;
 let revisionId = 0;
 let sealCode = '';
 
@@ -133,6 +144,7 @@ describe('the response contract, on the real server', () => {
       draftSaved,
     );
     expect(saved.draftVersion).toBe(created.sheet.draftVersion + 1);
+    draftVersion = saved.draftVersion;
     const list = answer(
       await author.get(`/api/projects/${team.project.id}/sheets`),
       200,
@@ -150,6 +162,95 @@ describe('the response contract, on the real server', () => {
       evaluationResponse,
     );
     expect(evaluated.results.summary).toEqual({ passed: 1, failed: 0, errors: 0 });
+  });
+
+  it('a stale draft save: the 409 carries the current draft', async () => {
+    const res = await author.agent
+      .put(`/api/sheets/${sheetId}/draft`)
+      .set('X-CSRF-Token', author.csrfToken)
+      .set('If-Match', `"${draftVersion - 1}"`)
+      .send({ blocks: [], settings: { significantFigures: 4 } });
+    expect(res.status, JSON.stringify(res.body)).toBe(409);
+    const body = res.body as { error: { code: string; details: unknown } };
+    expect(body.error.code).toBe('DRAFT_CONFLICT');
+    const { current } = answer(
+      { status: 409, body: body.error.details },
+      409,
+      draftConflictDetails,
+    );
+    expect(current.draftVersion).toBe(draftVersion);
+    expect(current.blocks.map((b) => b.id)).toEqual(['intro', 'calc', 'crit']);
+  });
+
+  it('uploads: a matrix file sent, sent again, listed', async () => {
+    // A 2 × 2 symmetric stiffness in Matrix Market coordinate form (NIST's format, lower half).
+    const file = Buffer.from(
+      '%%MatrixMarket matrix coordinate real symmetric\n2 2 3\n1 1 2\n2 1 -1\n2 2 2\n',
+    );
+    const send = () =>
+      author.agent
+        .post(`/api/sheets/${sheetId}/uploads`)
+        .set('X-CSRF-Token', author.csrfToken)
+        .attach('file', file, 'k-contract.mtx');
+    const first = answer(await send(), 201, uploadResponse).upload;
+    // Symmetric storage lists 3 entries; the matrix has 4 nonzeros (the mirror counted).
+    expect(first).toMatchObject({ rows: 2, cols: 2, nonzeros: 4, symmetric: true });
+    expect(answer(await send(), 200, uploadResponse).upload.id).toBe(first.id);
+    const list = answer(await author.get(`/api/sheets/${sheetId}/uploads`), 200, uploadsResponse);
+    expect(list.uploads.map((u) => u.name)).toEqual(['k-contract.mtx']);
+  });
+
+  it('evaluations: over a stream, in the background with their events, the latest, from the store', async () => {
+    // The data of every event of a stream, each parsed with the schema of its event.
+    const eventsOf = (text: string) =>
+      parseEvents(text).map(({ event, data }) => {
+        const schema = { progress: progressEvent, error: errorEvent }[event];
+        return { event, data: schema ? answer({ status: 200, body: data }, 200, schema) : data };
+      });
+    const stream = await asText(
+      author.agent
+        .post(`/api/sheets/${sheetId}/evaluate/stream`)
+        .set('X-CSRF-Token', author.csrfToken)
+        .set('Accept', 'text/event-stream')
+        .send({ blocks, settings: { significantFigures: 4 } }),
+    );
+    expect(stream.status).toBe(200);
+    const streamed = eventsOf(stream.body as string);
+    expect(streamed.filter((e) => e.event === 'progress').length).toBeGreaterThan(0);
+    expect(streamed.at(-1)!.event).toBe('result');
+    answer({ status: 200, body: streamed.at(-1)!.data }, 200, evaluationResponse);
+
+    // A text no evaluation has seen (this run's word and time), so a job is queued.
+    const fresh = [{ id: 'run', kind: 'text', source: `Run ${WORD} ${Date.now()}.` }, ...blocks];
+    const draft = { blocks: fresh, settings: { significantFigures: 4 } };
+    const started = answer(
+      await author.post(`/api/sheets/${sheetId}/evaluations`, draft),
+      202,
+      evaluationStarted,
+    ).job;
+    expect(started.state).toBe('waiting');
+    const jobId = started.id!;
+    const res = await asText(author.get(`/api/sheets/${sheetId}/evaluations/${jobId}/events`));
+    expect(res.status).toBe(200);
+    const followed = eventsOf(res.body as string);
+    expect(followed.at(-1)!.event).toBe('result');
+    const done = answer({ status: 200, body: followed.at(-1)!.data }, 200, evaluationJob);
+    expect(done).toMatchObject({ id: jobId, state: 'done', fromStore: false });
+    expect(done.results?.summary).toEqual({ passed: 1, failed: 0, errors: 0 });
+
+    const latest = answer(
+      await author.get(`/api/sheets/${sheetId}/evaluations/latest`),
+      200,
+      latestEvaluationResponse,
+    ).job;
+    expect(latest?.id).toBe(jobId);
+    const stored = answer(
+      await author.post(`/api/sheets/${sheetId}/evaluations`, draft),
+      200,
+      evaluationStarted,
+    ).job;
+    expect(stored).toMatchObject({ id: null, state: 'done', fromStore: true });
+    expect((await author.delete(`/api/sheets/${sheetId}/evaluations/${jobId}`)).status).toBe(204);
   });
 
   it('a revision: issued, listed, read; remarks made, answered, listed, closed; signed off', async () => {
@@ -228,6 +329,30 @@ describe('the response contract, on the real server', () => {
     expect(verdict.verdict).toBe('genuine');
     const unknown = answer(await visitor.get('/api/verify/AAAAA-AAAAA'), 200, verifyResult);
     expect(unknown.verdict).toBe('unknown-code');
+  });
+
+  it('compare with the draft, the print of the sealed revision, the project package', async () => {
+    const compared = answer(
+      await author.get(`/api/sheets/${sheetId}/compare?from=${revisionId}&to=draft`),
+      200,
+      compareResponse,
+    );
+    expect(compared.from).toMatchObject({ kind: 'revision', id: revisionId });
+    expect(compared.to.kind).toBe('draft');
+    const print = answer(
+      await checker.get(`/api/revisions/${revisionId}/print`),
+      200,
+      printResponse,
+    );
+    expect(print.seal?.code).toBe(sealCode);
+    expect(print.revision.banner).toBeNull();
+    const pkg = answer(
+      await principal.get(`/api/projects/${team.project.id}/package`),
+      200,
+      packageResponse,
+    );
+    expect(pkg.parts.map((p) => p.revision.id)).toEqual([revisionId]);
+    expect(pkg.parts[0]!.record.remarks.length).toBeGreaterThan(0);
   });
 
   it('the activity of the project and of the sheet, search, and the outbox of a member', async () => {

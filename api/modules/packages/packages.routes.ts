@@ -1,3 +1,4 @@
+import type { PackageResponse } from '../../../core/contract/print';
 import { Router, type Request } from 'express';
 import { currentUser } from '../../http/auth';
 import type { AppContext } from '../../http/context';
@@ -34,7 +35,14 @@ export function createPackagesRouter(ctx: AppContext): Router {
   router.get('/', canRead, async (req, res) => {
     const { revisions } = parse(packageQuery, req.query, 'query');
     const projectId = Number(req.params.projectId);
-    res.json(await packagesService.compose(ctx, currentUser(req), projectId, revisions));
+    res.json(
+      (await packagesService.compose(
+        ctx,
+        currentUser(req),
+        projectId,
+        revisions,
+      )) satisfies PackageResponse,
+    );
   });
 
   router.get('/pdf', canRead, async (req, res) => {

@@ -1,41 +1,18 @@
+import type { PackageResponse } from '../../../core/contract/print';
 import type { AppContext } from '../../http/context';
 import { AppError } from '../../http/errors';
 import { firmName, comparePrintService } from '../revisions/compare-print.service';
 import type { RevisionSummary } from '../revisions/revisions.repository';
 import { revisionsService } from '../revisions/revisions.service';
-import type { Remark } from '../remarks/remarks.repository';
 import { remarksService } from '../remarks/remarks.service';
 import { projectsService } from '../projects/projects.service';
 import { sheetsService } from '../sheets/sheets.service';
 import type { User } from '../users/users.repository';
 
-/** One sheet of the project as the cover lists it, with the revisions a person may choose. */
-export interface PackageSheet {
-  id: number;
-  number: string;
-  title: string;
-  revisions: { id: number; number: number; status: string; sealCode: string | null }[];
-  /** The revision bound into the package, or null when the sheet is left out. */
-  chosenRevisionId: number | null;
-}
+export type { CheckRecord, PackageSheet } from '../../../core/contract/print';
 
-/** The record of check for one revision: its remarks with their threads, in sheet order. */
-export interface CheckRecord {
-  revisionId: number;
-  remarks: Remark[];
-}
-
-type RevisionPrint = Awaited<ReturnType<typeof comparePrintService.print>>;
-
-export interface CalculationPackage {
-  firm: { name: string };
-  project: { id: number; jobNumber: string; name: string; client: string; site: string };
-  sheets: PackageSheet[];
-  /** The bound revisions in sheet order: each as the single-revision print has it, with its record. */
-  parts: (RevisionPrint & { record: CheckRecord })[];
-  /** True when every revision is the default choice (latest sealed of each sheet). */
-  defaultChoice: boolean;
-}
+/** A project's calculation package (the contract's PackageResponse). */
+export type CalculationPackage = PackageResponse;
 
 /** The newest sealed revision of a sheet (a superseded one was sealed too, but is older). */
 function latestSealed(revisions: readonly RevisionSummary[]): RevisionSummary | undefined {

@@ -6,10 +6,11 @@ import {
   type SheetResults,
 } from '../../../core/index';
 import { unitSystemOf } from '../../../core/display-units';
+import type { CompareResponse, CompareSide, RemarkInContext } from '../../../core/contract/compare';
+import type { PrintResponse } from '../../../core/contract/print';
 import type { AppContext } from '../../http/context';
 import { AppError } from '../../http/errors';
 import type { User } from '../users/users.repository';
-import type { Remark } from '../remarks/remarks.repository';
 import { remarksService } from '../remarks/remarks.service';
 import { sealsService } from '../seals/seals.service';
 import { sheetsService } from '../sheets/sheets.service';
@@ -25,16 +26,6 @@ export const CAUTION =
 /** The firm printed in the title block (MW_FIRM_NAME; the demo firm by default). */
 export function firmName(): string {
   return process.env.MW_FIRM_NAME ?? 'Brackwater Structural Ltd';
-}
-
-type Side =
-  | { kind: 'revision'; id: number; number: number; status: string; issuedAt: string }
-  | { kind: 'draft'; draftVersion: number };
-
-/** A remark shown in the comparison: where it was, and where that line is on the other side. */
-export interface RemarkInContext extends Remark {
-  revisionNumber: number;
-  mapped: { status: 'same' | 'changed' | 'gone'; blockId: string | null; line: number | null };
 }
 
 async function revisionOfSheet(
@@ -67,7 +58,7 @@ export const comparePrintService = {
     sheetId: number,
     fromId: number,
     to: number | 'draft',
-  ) {
+  ): Promise<CompareResponse> {
     // The draft side is the firm's working copy: a viewer compares issued revisions.
     await ctx.access.sheet(user, sheetId, to === 'draft' ? 'sheet.read_internal' : 'sheet.read');
     const from = await revisionOfSheet(ctx, sheetId, fromId, 'from');
@@ -75,7 +66,7 @@ export const comparePrintService = {
     const fromResults = JSON.parse(from.resultsText) as SheetResults;
     let toSheet: Sheet;
     let toResults: SheetResults;
-    let toSide: Side;
+    let toSide: CompareSide;
     let toRev: RevisionRecord | null = null;
     if (to === 'draft') {
       const snapshot = await sheetsService.draftOf(ctx.db, sheetId);
@@ -155,7 +146,7 @@ export const comparePrintService = {
   },
 
   /** Everything the print view needs, in one call. */
-  async print(ctx: AppContext, user: User, revisionId: number) {
+  async print(ctx: AppContext, user: User, revisionId: number): Promise<PrintResponse> {
     const { rev, sheet } = await revisionAccess(ctx, user, revisionId, 'sheet.read');
     const history: RevisionSummary[] = await revisionsService.listBySheet(ctx.db, sheet.id);
     const sealed = await sealsService.viewOf(ctx.db, rev.id);

@@ -14,6 +14,8 @@ import {
 } from './revisions.schemas';
 import { revisionsService } from './revisions.service';
 import type { ActivityResponse } from '../../../core/contract/activity';
+import type { CompareResponse } from '../../../core/contract/compare';
+import type { PrintResponse } from '../../../core/contract/print';
 import type {
   RevisionDetailResponse,
   RevisionResponse,
@@ -75,12 +77,22 @@ export function createRevisionsRouter(ctx: AppContext): Router {
   router.get('/sheets/:sheetId/compare', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const q = parse(compareQuery, req.query, 'query');
-    res.json(await comparePrintService.compare(ctx, currentUser(req), sheetId, q.from, q.to));
+    res.json(
+      (await comparePrintService.compare(
+        ctx,
+        currentUser(req),
+        sheetId,
+        q.from,
+        q.to,
+      )) satisfies CompareResponse,
+    );
   });
 
   router.get('/revisions/:revisionId/print', requireSignedIn, async (req, res) => {
     const { revisionId } = parse(revisionParams, req.params, 'params');
-    res.json(await comparePrintService.print(ctx, currentUser(req), revisionId));
+    res.json(
+      (await comparePrintService.print(ctx, currentUser(req), revisionId)) satisfies PrintResponse,
+    );
   });
 
   router.get('/revisions/:revisionId/spreadsheet', requireSignedIn, async (req, res) => {

@@ -8,6 +8,7 @@ import {
   type SheetDigests,
   type SheetResults,
 } from '../../../core/index';
+import type { EvaluationJob } from '../../../core/contract/sheets';
 import type { DbOrTx } from '../../db/index';
 import type { AppContext } from '../../http/context';
 import { AppError } from '../../http/errors';
@@ -193,24 +194,12 @@ function detached(ctx: AppContext): DetachedEvaluations {
   return ctx.evaluations;
 }
 
-/**
- * A detached evaluation as the editor gets it: its state, and its results once done. An
- * unchanged text answered from the results store is `done` at once with `fromStore` true and no
- * job behind it (`id` null).
- */
-export interface EvaluationJob {
-  id: string | null;
-  state: EvaluationJobView['state'];
-  draft: Sheet;
-  progress: EvaluationJobView['progress'];
-  results?: SheetResults;
-  digests?: SheetDigests;
-  engineVersion?: string;
-  /** Whether the results came from the results store (no job evaluated them for this answer). */
-  fromStore?: boolean;
-  error?: { code: string; message: string; details?: Record<string, unknown> };
-}
+export type { EvaluationJob };
 
+/**
+ * A detached evaluation as the editor gets it (the contract's EvaluationJob): its state, and its
+ * results once done.
+ */
 function jobOf(view: EvaluationJobView): EvaluationJob {
   const base = { id: view.id, state: view.state, draft: view.sheet, progress: view.progress };
   if (view.state === 'done') {

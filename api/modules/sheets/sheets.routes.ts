@@ -24,7 +24,12 @@ import {
 import { missingIfMatch, sheetsService } from './sheets.service';
 import type {
   DraftSaved,
+  ErrorEvent,
+  EvaluationJob,
   EvaluationResponse,
+  EvaluationStarted,
+  LatestEvaluationResponse,
+  ProgressEvent,
   SheetResponse,
   SheetsResponse,
   SheetTemplatesResponse,
@@ -52,7 +57,7 @@ const jobParams = sheetParams.extend({
 });
 
 /** A solver's progress as the editor shows it, with the share of the sheet done. */
-function progressEvent(p: SheetProgress) {
+function progressEvent(p: SheetProgress): ProgressEvent {
   return {
     ...p,
     // within a solving modes block, the share of its modes converged so far
@@ -67,7 +72,12 @@ function progressEvent(p: SheetProgress) {
 /** Server-sent events on `res`: the headers go with the first event. */
 function eventStream(res: Response) {
   let started = false;
-  const send = (event: string, data: unknown) => {
+  const send = (
+    ...[event, data]:
+      | ['progress', ProgressEvent]
+      | ['result', EvaluationResponse | EvaluationJob]
+      | ['error', ErrorEvent]
+  ) => {
     if (!started) {
       started = true;
       res.status(200).set({
@@ -206,8 +216,13 @@ export function createSheetsRouter(ctx: AppContext): Router {
     try {
       const started = await startDetachedEvaluation(ctx, currentUser(req), sheetId, input);
       // An unchanged text: the stored results at once (200), no job. Otherwise 202 and a job.
-      if ('stored' in started) res.status(200).json({ job: started.stored });
-      else res.status(202).json({ job: { id: started.queued, state: 'waiting' } });
+      if ('stored' in started)
+        res.status(200).json({ job: started.stored } satisfies EvaluationStarted);
+      else {
+        res
+          .status(202)
+          .json({ job: { id: started.queued, state: 'waiting' } } satisfies EvaluationStarted);
+      }
     } catch (err) {
       setRetryAfter(res, err);
       throw err;
@@ -216,7 +231,9 @@ export function createSheetsRouter(ctx: AppContext): Router {
 
   router.get('/sheets/:sheetId/evaluations/latest', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
-    res.json({ job: await latestDetachedEvaluation(ctx, currentUser(req), sheetId) });
+    res.json({
+      job: await latestDetachedEvaluation(ctx, currentUser(req), sheetId),
+    } satisfies LatestEvaluationResponse);
   });
 
   // `progress` events while it runs, then `result` (the job with its results and digests) or

@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import type { DraftSaved } from '../../../core/contract/sheets';
+import type { DraftConflictDetails, DraftSaved } from '../../../core/contract/sheets';
 import type { ProjectRole, SheetStatus } from '../../../core/vocabulary';
 import type { DbOrTx } from '../../db/index';
 import { isDuplicateKeyError } from '../../db/index';
@@ -203,7 +203,7 @@ export const sheetsService = {
                 updatedAt: current.updatedAt,
                 updatedBy: current.updatedBy,
               },
-            },
+            } satisfies DraftConflictDetails,
           },
         );
       }

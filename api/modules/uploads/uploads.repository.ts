@@ -2,35 +2,11 @@ import { promisify } from 'node:util';
 import { gunzip, gzipSync } from 'node:zlib';
 import type { UploadRef } from '../../workers/queue';
 import { readJson, type DbOrTx } from '../../db/index';
+import type { Upload, UploadAsymmetry, UploadFormat } from '../../../core/contract/uploads';
 
 const gunzipAsync = promisify(gunzip);
 
-export type UploadFormat = 'matrix-market' | 'csv';
-
-/** The worst asymmetry found in an uploaded square matrix (1-based row and column). */
-export interface UploadAsymmetry {
-  row: number;
-  col: number;
-  upper: number;
-  lower: number;
-  relative: number;
-}
-
-export interface Upload {
-  id: number;
-  sheetId: number;
-  name: string;
-  format: UploadFormat;
-  size: number;
-  sha256: string;
-  rows: number;
-  cols: number;
-  nonzeros: number;
-  symmetric: boolean;
-  worstAsymmetry: UploadAsymmetry | null;
-  createdAt: Date;
-  createdBy: { id: number; name: string };
-}
+export type { Upload, UploadAsymmetry, UploadFormat } from '../../../core/contract/uploads';
 
 interface UploadRow {
   id: number;
@@ -80,7 +56,7 @@ function toUpload(row: UploadRow): Upload {
     symmetric: Boolean(row.symmetric),
     worstAsymmetry:
       row.worst_asymmetry === null ? null : readJson<UploadAsymmetry>(row.worst_asymmetry),
-    createdAt: row.created_at,
+    createdAt: new Date(row.created_at).toISOString(),
     createdBy: { id: row.created_by, name: row.created_by_name },
   };
 }

@@ -8,6 +8,7 @@ import { isMalformedMultipart } from '../../http/request-errors';
 import { parse } from '../../http/validate';
 import { sheetParams } from '../sheets/sheets.schemas';
 import { uploadsService, type ReceivedFile } from './uploads.service';
+import type { UploadResponse, UploadsResponse } from '../../../core/contract/uploads';
 
 function megabytes(bytes: number): string {
   const mb = bytes / (1024 * 1024);
@@ -79,12 +80,14 @@ export function createUploadsRouter(ctx: AppContext): Router {
     }
     const file = await receiveFile(req, res);
     const { upload, created } = await uploadsService.add(ctx, user, sheetId, file);
-    res.status(created ? 201 : 200).json({ upload });
+    res.status(created ? 201 : 200).json({ upload } satisfies UploadResponse);
   });
 
   router.get('/sheets/:sheetId/uploads', requireSignedIn, async (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
-    res.json({ uploads: await uploadsService.list(ctx, currentUser(req), sheetId) });
+    res.json({
+      uploads: await uploadsService.list(ctx, currentUser(req), sheetId),
+    } satisfies UploadsResponse);
   });
 
   return router;

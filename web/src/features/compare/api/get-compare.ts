@@ -1,56 +1,29 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { BlockChange, CriterionFlip, ResultChange } from '../../../../../core/index';
-import type { UnitSystem } from '../../../../../core/display-units';
+import type {
+  CompareResponse,
+  CompareSide,
+  RemarkInContext,
+} from '../../../../../core/contract/compare';
+import type { RevisionsResponse, RevisionSummary } from '../../../../../core/contract/revisions';
+import type { ResultChange } from '../../../../../core/index';
 import { api } from '../../../lib/api-client';
 
-export type { BlockChange, CriterionFlip, ResultChange } from '../../../../../core/index';
+export type { BlockChange, CriterionFlip } from '../../../../../core/contract/compare';
+export type { CompareSide, RemarkInContext, ResultChange };
 
-export type CompareSide =
-  | { kind: 'revision'; id: number; number: number; status: string; issuedAt: string }
-  | { kind: 'draft'; draftVersion: number };
+/** The comparison as the server sends it (the contract's), its changed values read as the engine's. */
+export type Comparison = Omit<CompareResponse, 'results'> & { results: ResultChange[] };
 
-export type RemarkInContext = {
-  id: number;
-  revisionId: number;
-  revisionNumber: number;
-  blockId: string;
-  line: number;
-  type: 'error' | 'query' | 'editorial';
-  text: string;
-  state: 'open' | 'answered' | 'closed';
-  author: { id: number; name: string };
-  /** For a remark carried from an earlier revision: the remark it continues. */
-  carriedFrom?: { remarkId: number; revisionNumber: number; line: number } | null;
-  mapped: { status: 'same' | 'changed' | 'gone'; blockId: string | null; line: number | null };
-};
-
-export type Comparison = {
-  from: CompareSide;
-  to: CompareSide;
-  /** The display unit system of each side; absent from servers before display units. */
-  units?: { from: UnitSystem; to: UnitSystem };
-  blocks: BlockChange[];
-  results: ResultChange[];
-  flipped: CriterionFlip[];
-  summary: {
-    added: number;
-    removed: number;
-    changed: number;
-    moved: number;
-    resultsChanged: number;
-    flipped: number;
-  };
-  remarks: RemarkInContext[];
-};
-
-export type RevisionChoice = { id: number; number: number; status: string };
+export type RevisionChoice = Pick<RevisionSummary, 'id' | 'number' | 'status'>;
 
 export async function getComparison(
   sheetId: number,
   from: number,
   to: number | 'draft',
 ): Promise<Comparison> {
-  return api.get<Comparison>(`/api/sheets/${sheetId}/compare?from=${from}&to=${to}`);
+  return api.get<CompareResponse>(
+    `/api/sheets/${sheetId}/compare?from=${from}&to=${to}`,
+  ) as Promise<Comparison>;
 }
 
 export const getComparisonQueryOptions = (sheetId: number, from: number, to: number | 'draft') =>
@@ -66,7 +39,7 @@ export const useComparison = (sheetId: number, from: number | null, to: number |
   });
 
 export async function getRevisionChoices(sheetId: number): Promise<RevisionChoice[]> {
-  const body = await api.get<{ revisions: RevisionChoice[] }>(`/api/sheets/${sheetId}/revisions`);
+  const body = await api.get<RevisionsResponse>(`/api/sheets/${sheetId}/revisions`);
   return [...body.revisions].sort((a, b) => a.number - b.number);
 }
 

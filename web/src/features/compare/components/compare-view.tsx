@@ -321,12 +321,12 @@ const ROUNDING = 1e-9;
 const tiny = (value: string | null) => value !== null && Math.abs(Number(value)) < ROUNDING;
 
 /** The unit system results are shown in: the newer side's. */
-const shownSystem = (comparison: Comparison): UnitSystem => comparison.units?.to ?? 'si';
+const shownSystem = (comparison: Comparison): UnitSystem => comparison.units.to;
 
 /** Says which units the results are in when the two sides were shown in different ones. */
 function UnitsNote({ comparison }: { comparison: Comparison }) {
   const units = comparison.units;
-  if (!units || units.from === units.to) return null;
+  if (units.from === units.to) return null;
   return (
     <p className="text-xs text-ink-soft" data-testid="compare-units-note">
       Results are shown in {UNIT_SYSTEM_LABELS[units.to]}, the units of {sideLabel(comparison.to)};{' '}

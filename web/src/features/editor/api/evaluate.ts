@@ -1,22 +1,26 @@
+import type {
+  ErrorEvent,
+  EvaluationJob,
+  EvaluationResponse,
+  EvaluationStarted,
+  LatestEvaluationResponse,
+  ProgressEvent,
+} from '../../../../../core/contract/sheets';
 import { ApiError } from '../../../lib/api-client';
 import { api } from '../../../lib/api-client';
 import { readApiError, writeRequest } from './request';
 import type { Draft } from './types';
 
-export type EvaluationProgress = { message: string; fraction: number | null };
-export type EvaluationResponse = { results: unknown; digests?: unknown; engineVersion?: string };
+export type { EvaluationJob, EvaluationResponse, EvaluationStarted };
 
-function progressOf(data: unknown): EvaluationProgress {
-  const d = (data ?? {}) as Record<string, unknown>;
-  const fraction =
-    typeof d.fraction === 'number'
-      ? d.fraction
-      : typeof d.done === 'number' && typeof d.total === 'number' && d.total > 0
-        ? d.done / d.total
-        : null;
+/** What the editor shows of an evaluation's progress: one line and the share done. */
+export type EvaluationProgress = { message: string; fraction: number | null };
+
+function progressOf(d: ProgressEvent): EvaluationProgress {
+  const fraction = d.fraction;
   // The server's message names the block (and, while a modes block solves, the method's stage
   // and the modes converged); the iteration is added here.
-  const parts = typeof d.message === 'string' && d.message ? [d.message] : [];
+  const parts = d.message ? [d.message] : [];
   if (typeof d.iteration === 'number') parts.push(`iteration ${d.iteration}`);
   return { message: parts.join(' · ') || 'Solving…', fraction };
 }
@@ -42,14 +46,17 @@ export async function evaluateStream(
     // A server that answers in one piece is accepted as well.
     return (await response.json()) as EvaluationResponse;
   }
-  return readEvents(response, onProgress);
+  return readEvents<EvaluationResponse>(response, onProgress);
 }
 
-/** Reads server-sent events up to the first `result` (returned) or `error` (thrown). */
-async function readEvents(
+/**
+ * Reads server-sent events up to the first `result` (returned: `T`, the answer the route sends)
+ * or `error` (thrown).
+ */
+async function readEvents<T extends EvaluationResponse | EvaluationJob>(
   response: Response,
   onProgress: (progress: EvaluationProgress) => void,
-): Promise<EvaluationResponse> {
+): Promise<T> {
   if (!response.body)
     throw new ApiError(0, { code: 'STREAM_ENDED', message: 'The server sent no events.' });
   const reader = response.body.pipeThrough(new TextDecoderStream()).getReader();
@@ -76,19 +83,17 @@ async function readEvents(
       } catch {
         parsed = data.join('\n');
       }
-      if (event === 'progress') onProgress(progressOf(parsed));
+      if (event === 'progress') onProgress(progressOf(parsed as ProgressEvent));
       else if (event === 'result') {
         void reader.cancel();
-        return parsed as EvaluationResponse;
+        return parsed as T;
       } else if (event === 'error') {
         void reader.cancel();
-        const body = ((parsed as { error?: unknown })?.error ?? parsed) as Record<string, unknown>;
-        throw new ApiError(typeof body.status === 'number' ? body.status : 422, {
-          code: typeof body.code === 'string' ? body.code : 'EVALUATION_FAILED',
-          message: typeof body.message === 'string' ? body.message : 'The evaluation failed.',
-          ...(body.details && typeof body.details === 'object'
-            ? { details: body.details as Record<string, unknown> }
-            : {}),
+        const body: Partial<ErrorEvent['error']> = (parsed as Partial<ErrorEvent>).error ?? {};
+        throw new ApiError(422, {
+          code: body.code ?? 'EVALUATION_FAILED',
+          message: body.message ?? 'The evaluation failed.',
+          ...(body.details ? { details: body.details } : {}),
         });
       }
     }
@@ -100,18 +105,6 @@ async function readEvents(
   });
 }
 
-/** An evaluation not bound to a request, as the server keeps it (a day at most). */
-export type EvaluationJob = {
-  /** Null for results answered from the server's results store (no job evaluated them). */
-  id: string | null;
-  state: 'waiting' | 'running' | 'done' | 'failed';
-  draft: Draft;
-  progress: unknown;
-  results?: unknown;
-  fromStore?: boolean;
-  error?: { code: string; message: string };
-};
-
 /**
  * Starts an evaluation that goes on when the page closes (the server keeps it as a job): the
  * job, waiting; or, for a text the server has evaluated before, the stored results at once
@@ -120,18 +113,14 @@ export type EvaluationJob = {
 export async function startEvaluation(
   sheetId: number | string,
   draft: Draft,
-): Promise<Pick<EvaluationJob, 'id' | 'state' | 'results' | 'fromStore'>> {
-  const body = await api.post<{ job: Pick<EvaluationJob, 'id' | 'state' | 'results'> }>(
-    `/api/sheets/${sheetId}/evaluations`,
-    draft,
-  );
+): Promise<EvaluationStarted['job']> {
+  const body = await api.post<EvaluationStarted>(`/api/sheets/${sheetId}/evaluations`, draft);
   return body.job;
 }
 
 /** The person's latest evaluation of the sheet, running or finished, or null. */
 export async function latestEvaluation(sheetId: number | string): Promise<EvaluationJob | null> {
-  return (await api.get<{ job: EvaluationJob | null }>(`/api/sheets/${sheetId}/evaluations/latest`))
-    .job;
+  return (await api.get<LatestEvaluationResponse>(`/api/sheets/${sheetId}/evaluations/latest`)).job;
 }
 
 export function cancelEvaluation(sheetId: number | string, jobId: string): Promise<void> {
@@ -147,7 +136,7 @@ export async function followEvaluation(
   jobId: string,
   signal: AbortSignal,
   onProgress: (progress: EvaluationProgress) => void,
-): Promise<EvaluationResponse> {
+): Promise<EvaluationJob> {
   let response: Response;
   try {
     response = await fetch(`/api/sheets/${sheetId}/evaluations/${jobId}/events`, {
@@ -164,5 +153,5 @@ export async function followEvaluation(
     });
   }
   if (!response.ok) throw await readApiError(response);
-  return readEvents(response, onProgress);
+  return readEvents<EvaluationJob>(response, onProgress);
 }

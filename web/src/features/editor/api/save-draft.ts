@@ -1,4 +1,4 @@
-import type { DraftSaved } from '../../../../../core/contract/sheets';
+import type { DraftConflictDetails, DraftSaved } from '../../../../../core/contract/sheets';
 import { ApiError } from '../../../lib/api-client';
 import { writeRequest } from './request';
 import type { ConflictingDraft, Draft } from './types';
@@ -26,7 +26,8 @@ export async function saveDraft(
     return { kind: 'saved', draftVersion: body.draftVersion, updatedAt: body.updatedAt };
   } catch (error) {
     if (error instanceof ApiError && error.status === 409 && error.code === 'DRAFT_CONFLICT') {
-      const current = error.details?.current as ConflictingDraft | undefined;
+      const current = (error.details as Partial<DraftConflictDetails> | undefined)?.current as
+        ConflictingDraft | undefined;
       if (current && Array.isArray(current.blocks)) {
         return { kind: 'conflict', current, message: error.message };
       }

@@ -1,6 +1,9 @@
 // The editor's view of the sheets API: the sheet is the contract's (core/contract/sheets.ts), its
 // draft typed with the display units the editor offers. Times are ISO-8601 UTC strings.
-import type { SheetDetail as ContractSheetDetail } from '../../../../../core/contract/sheets';
+import type {
+  ConflictingDraft as ContractConflictingDraft,
+  SheetDetail as ContractSheetDetail,
+} from '../../../../../core/contract/sheets';
 import type { UnitSystem } from '../../../../../core/display-units';
 
 import { BLOCK_KINDS, type BlockKind, type SheetStatus } from '../../../../../core/vocabulary';
@@ -14,23 +17,5 @@ export type Draft = { blocks: Block[]; settings: DraftSettings };
 /** A sheet as GET /api/sheets/:id sends it (the contract's shape), its draft read as the editor's. */
 export type SheetDetail = Omit<ContractSheetDetail, 'draft'> & { draft: Draft };
 
-export type Upload = {
-  id: number;
-  name: string;
-  format: 'matrix-market' | 'csv';
-  size: number;
-  sha256: string;
-  rows: number;
-  cols: number;
-  nonzeros: number;
-  symmetric: boolean;
-  worstAsymmetry?: unknown;
-  createdAt: string;
-};
-
-/** What the server holds when a save is refused as stale (409 DRAFT_CONFLICT). */
-export type ConflictingDraft = Draft & {
-  draftVersion: number;
-  updatedAt: string;
-  updatedBy: { id: number; name: string } | null;
-};
+/** What the server holds when a save is refused as stale (the contract's), its draft the editor's. */
+export type ConflictingDraft = Omit<ContractConflictingDraft, 'blocks' | 'settings'> & Draft;

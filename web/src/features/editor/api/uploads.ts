@@ -1,7 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { writeRequest } from './request';
-import type { Upload } from './types';
+import type { Upload, UploadResponse, UploadsResponse } from '../../../../../core/contract/uploads';
 
 export const uploadsQueryKey = (sheetId: number | string) =>
   ['sheets', 'uploads', String(sheetId)] as const;
@@ -9,7 +9,7 @@ export const uploadsQueryKey = (sheetId: number | string) =>
 export function getUploadsQueryOptions(sheetId: number | string) {
   return queryOptions({
     queryKey: uploadsQueryKey(sheetId),
-    queryFn: () => api.get<{ uploads: Upload[] }>(`/api/sheets/${sheetId}/uploads`),
+    queryFn: () => api.get<UploadsResponse>(`/api/sheets/${sheetId}/uploads`),
   });
 }
 
@@ -22,7 +22,7 @@ export async function uploadMatrixFile(sheetId: number | string, file: File): Pr
   const form = new FormData();
   form.append('file', file, file.name);
   const response = await writeRequest('POST', `/api/sheets/${sheetId}/uploads`, { body: form });
-  return ((await response.json()) as { upload: Upload }).upload;
+  return ((await response.json()) as UploadResponse).upload;
 }
 
 export function useUploadMatrixFile(sheetId: number | string) {

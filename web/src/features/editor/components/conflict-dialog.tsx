@@ -82,7 +82,7 @@ export function ConflictDialog({
           <Version
             title="Their version"
             blocks={theirs.blocks}
-            note={`Saved ${formatUtc(theirs.updatedAt)}${theirs.updatedBy ? ` by ${theirs.updatedBy.name}` : ''} (version ${theirs.draftVersion}).`}
+            note={`Saved ${formatUtc(theirs.updatedAt)} by ${theirs.updatedBy.name} (version ${theirs.draftVersion}).`}
           />
         </div>
         <div className="flex flex-wrap justify-end gap-2">

@@ -6,7 +6,8 @@ import {
   latestEvaluation,
   startEvaluation,
   type EvaluationProgress,
-  type EvaluationResponse,
+  type EvaluationJob,
+  type EvaluationStarted,
 } from '../api/evaluate';
 import type { SheetResults } from '../api/results';
 import type { Draft } from '../api/types';
@@ -19,8 +20,9 @@ export type EvaluationState =
   | { phase: 'cancelled' }
   | { phase: 'failed'; message: string };
 
-function readResults(body: { results?: unknown }): SheetResults | null {
-  const r = body.results as Partial<SheetResults> | undefined;
+/** The results of a finished job (the contract leaves their blocks open; read as the engine's). */
+function readResults(job: EvaluationJob | EvaluationStarted['job']): SheetResults | null {
+  const r = ('results' in job ? job.results : undefined) as Partial<SheetResults> | undefined;
   if (!r || !Array.isArray(r.blocks)) return null;
   return {
     engineVersion: r.engineVersion ?? '',
@@ -32,10 +34,10 @@ function readResults(body: { results?: unknown }): SheetResults | null {
 }
 
 /** The text of a draft as the server keeps it, for comparing a job's draft with the editor's. */
-function draftKey(draft: Draft): string {
+function draftKey(draft: Draft | EvaluationJob['draft']): string {
   return JSON.stringify({
     blocks: draft.blocks.map(({ id, kind, source }) => ({ id, kind, source })),
-    settings: { significantFigures: draft.settings.significantFigures },
+    settings: { significantFigures: draft.settings?.significantFigures },
   });
 }
 
@@ -65,7 +67,7 @@ export function useEvaluation(sheetId: number | string, draft: Draft, enabled = 
   const follow = useCallback(
     async (jobId: string, text: string, mine: AbortController) => {
       try {
-        const body: EvaluationResponse = await followEvaluation(
+        const body: EvaluationJob = await followEvaluation(
           sheetId,
           jobId,
           mine.signal,

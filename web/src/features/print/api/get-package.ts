@@ -1,37 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
+import type { CheckRecord, PackageResponse } from '../../../../../core/contract/print';
 import type { PrintPackage } from './get-print';
 
-type Person = { id: number; name: string };
-
-/** One remark of the record of check, with its thread. */
-export type RecordRemark = {
-  id: number;
-  blockId: string;
-  line: number;
-  type: string;
-  text: string;
-  state: string;
-  author: Person;
-  createdAt: string;
-  closedBy: Person | null;
-  closedAt: string | null;
-  carriedFrom: { remarkId: number; revisionNumber: number; line: number } | null;
-  replies: { id: number; text: string; author: Person; createdAt: string }[];
-};
-
-export type CalculationPackage = {
-  firm: { name: string };
-  project: { id: number; jobNumber: string; name: string; client: string; site: string };
-  sheets: {
-    id: number;
-    number: string;
-    title: string;
-    revisions: { id: number; number: number; status: string; sealCode: string | null }[];
-    chosenRevisionId: number | null;
-  }[];
-  parts: (PrintPackage & { record: { revisionId: number; remarks: RecordRemark[] } })[];
-  defaultChoice: boolean;
+/** The package as the server sends it (the contract's), each part's results read as the engine's. */
+export type CalculationPackage = Omit<PackageResponse, 'parts'> & {
+  parts: (PrintPackage & { record: CheckRecord })[];
 };
 
 /** `revisions`: the ids to bind, or null for the default (the latest sealed of each sheet). */
@@ -40,7 +14,9 @@ export async function getPackage(
   revisions: readonly number[] | null,
 ): Promise<CalculationPackage> {
   const query = revisions ? `?revisions=${revisions.join(',')}` : '';
-  return api.get<CalculationPackage>(`/api/projects/${projectId}/package${query}`);
+  return api.get<PackageResponse>(
+    `/api/projects/${projectId}/package${query}`,
+  ) as Promise<CalculationPackage>;
 }
 
 export const getPackageQueryOptions = (projectId: number, revisions: readonly number[] | null) =>
