@@ -194,12 +194,12 @@ describe('POST /api/sheets/:sheetId/uploads', () => {
   });
 
   it('refuses a file over the upload limit with 413 PAYLOAD_TOO_LARGE', async () => {
-    // One byte over the default limit (20 MB): a CSV row of zeros.
-    const bytes = Buffer.alloc(20 * 1024 * 1024 + 1, '0');
+    // One byte over the default limit (64 MiB): a CSV row of zeros.
+    const bytes = Buffer.alloc(64 * 1024 * 1024 + 1, '0');
     const res = await upload(author, `huge-${unique()}.csv`, bytes);
     expect(res.status).toBe(413);
     expect(res.body.error.code).toBe('PAYLOAD_TOO_LARGE');
-    expect(res.body.error.message).toContain('20 MB');
+    expect(res.body.error.message).toContain('64 MB');
     expect(res.body.error.message).toContain('MW_UPLOAD_LIMIT_BYTES');
   });
 
