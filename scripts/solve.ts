@@ -11,13 +11,19 @@
  * influence vector defaults to ones. The JSON gains `response` in SI (N, m).
  *
  * Files are Matrix Market (.mtx) or CSV (dense rows, or `i,j,value` triplets). Prints a table, or
- * with --json one object. Errors go to stderr with exit code 1 (2 for a wrong command line).
+ * with --json one object (`threads`: the threads the dense method shared its heavy steps with,
+ * one per core up to its parts). Errors go to stderr with exit code 1 (2 for a wrong command line).
  */
 import { readFileSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
 import { basename } from 'node:path';
 import { parseArgs } from 'node:util';
+import { createDenseTeam, type ThreadTeam } from '../api/workers/dense-team';
 import {
+  AUTO_DENSE_LIMIT,
+  DENSE_PARTS,
   isEngineError,
+  matrixSize,
   parseMatrixMarket,
   readSpectrumTable,
   readSymmetricMatrix,
@@ -156,7 +162,19 @@ function fmt(x: number, digits = 6): string {
   return a >= 1e-3 && a < 1e7 ? x.toPrecision(digits) : x.toExponential(digits - 1);
 }
 
-function main(argv: string[]): number {
+/**
+ * Threads for the dense method's heavy steps, one per core up to its parts, as the evaluation
+ * workers have them (api/workers/dense-team.ts). Started while the files are read; null when
+ * they cannot start, and the solve runs on this thread alone with the same result.
+ */
+function startTeam(method: string | undefined, shift: boolean): Promise<ThreadTeam | null> | null {
+  const dense = method === 'dense' || ((method === undefined || method === 'auto') && !shift);
+  const helpers = Math.min(availableParallelism(), DENSE_PARTS) - 1;
+  if (!dense || helpers < 1) return null;
+  return createDenseTeam(helpers).catch(() => null);
+}
+
+async function main(argv: string[]): Promise<number> {
   const { values } = parseArgs({
     args: argv,
     options: {
@@ -185,6 +203,7 @@ function main(argv: string[]): number {
     throw new UsageError('both --stiffness and --mass are required.');
   const response = responseFlags(values);
   const started = performance.now();
+  const starting = startTeam(values.method, values['shift-hz'] !== undefined);
   const K = readMatrix(values.stiffness, 'stiffness');
   const M = readMatrix(values.mass, 'mass');
   const options: SolveOptions = {};
@@ -200,7 +219,18 @@ function main(argv: string[]): number {
   const seed = numberArg(values.seed, 'seed', true);
   if (seed !== undefined) options.seed = seed;
   if (response) options.normalize = 'mass';
-  const r = solveModes(K, M, options);
+  // auto sends only small models to the dense method
+  const team =
+    starting && (values.method === 'dense' || matrixSize(K) <= AUTO_DENSE_LIMIT)
+      ? await starting
+      : null;
+  if (team) options.team = team;
+  let r: ModalResult;
+  try {
+    r = solveModes(K, M, options);
+  } finally {
+    await team?.close();
+  }
   const spectrumResult = response ? runResponse(response, r, M) : null;
   const seconds = (performance.now() - started) / 1000;
   if (values.json) {
@@ -226,6 +256,7 @@ function main(argv: string[]): number {
       options: r.options,
       warnings: r.warnings,
       ...(spectrumResult ? { response: spectrumResult } : {}),
+      threads: team?.size ?? 1,
       seconds,
     };
     process.stdout.write(`${JSON.stringify(out, null, 2)}\n`);
@@ -291,7 +322,7 @@ function main(argv: string[]): number {
 }
 
 try {
-  process.exitCode = main(process.argv.slice(2));
+  process.exitCode = await main(process.argv.slice(2));
 } catch (e) {
   if (
     e instanceof UsageError ||

@@ -10,8 +10,9 @@
 import { EngineError } from '../errors';
 import { norm2 } from '../linalg/factorize';
 import { symmetricMultiply } from '../linalg/sparse';
-import { multiplyAdd } from '../linalg/dense-kernels';
 import type { SymmetricMatrix } from '../linalg/types';
+import { orthogonalityWorst } from './dense/orthogonality';
+import { type DenseTeam, SERIAL_TEAM } from './dense/team';
 import type { InfluenceVector, Participation, ShapeNormalization } from './types';
 
 /**
@@ -95,15 +96,22 @@ export function backwardError(
 }
 
 /**
- * max |ΦᵀMΦ − I| over mass-normalized vectors. Φᵀ(MΦ) is formed with the dense solver's blocked
- * product kernel over slices of the DOFs when there are many modes (all modes of a dense solve:
- * p² n multiply–adds), with plain dot products otherwise.
+ * max |ΦᵀMΦ − I| over mass-normalized vectors. Over many modes (all modes of a dense solve:
+ * p² n / 2 multiply–adds) the triangle of Φᵀ(MΦ) is formed band by band with the blocked product
+ * kernel, in parts a `DenseTeam` may share (./dense/orthogonality.ts); over few, with plain dot
+ * products.
  * @example massOrthogonality(M, vectors)
  */
-export function massOrthogonality(M: SymmetricMatrix, vectors: Float64Array[]): number {
-  const mv = vectors.map((v) => symmetricMultiply(M, v));
+export function massOrthogonality(
+  M: SymmetricMatrix,
+  vectors: Float64Array[],
+  team: DenseTeam = SERIAL_TEAM,
+): number {
   const p = vectors.length;
-  if (p >= BLOCKED_GRAM_MODES) return worstOffIdentity(blockedGram(vectors, mv), p);
+  if (p >= BLOCKED_GRAM_MODES) {
+    return orthogonalityWorst(vectors, (v) => symmetricMultiply(M, v), team);
+  }
+  const mv = vectors.map((v) => symmetricMultiply(M, v));
   let worst = 0;
   for (let i = 0; i < p; i++) {
     for (let j = 0; j <= i; j++) {
@@ -119,46 +127,6 @@ export function massOrthogonality(M: SymmetricMatrix, vectors: Float64Array[]): 
 
 /** From this many modes on, ΦᵀMΦ goes through the blocked kernel (common practice: measured). */
 const BLOCKED_GRAM_MODES = 32;
-/** DOFs per slice of the blocked product: two p × 128 slices stay small beside the p × p result. */
-const GRAM_SLICE = 128;
-
-/** G = Aᵀ B (p × p, row-major) for p vectors A and B of length n, slice by slice. */
-function blockedGram(A: Float64Array[], B: Float64Array[]): Float64Array {
-  const p = A.length;
-  const n = (A[0] as Float64Array).length;
-  const G = new Float64Array(p * p);
-  const P = new Float64Array(p * GRAM_SLICE);
-  const U = new Float64Array(GRAM_SLICE * p);
-  for (let k0 = 0; k0 < n; k0 += GRAM_SLICE) {
-    const kc = Math.min(GRAM_SLICE, n - k0);
-    for (let i = 0; i < p; i++) P.set((A[i] as Float64Array).subarray(k0, k0 + kc), i * GRAM_SLICE);
-    for (let j = 0; j < p; j++) {
-      const b = B[j] as Float64Array;
-      for (let t = 0; t < kc; t++) U[t * p + j] = b[k0 + t] as number;
-    }
-    multiplyAdd(
-      { data: G, offset: 0, stride: p },
-      { data: P, offset: 0, stride: GRAM_SLICE },
-      { data: U, offset: 0, stride: p },
-      p,
-      kc,
-      0,
-      p,
-      1,
-    );
-  }
-  return G;
-}
-
-function worstOffIdentity(G: Float64Array, p: number): number {
-  let worst = 0;
-  for (let i = 0; i < p; i++) {
-    for (let j = 0; j <= i; j++) {
-      worst = Math.max(worst, Math.abs((G[i * p + j] as number) - (i === j ? 1 : 0)));
-    }
-  }
-  return worst;
-}
 
 /**
  * Participation factors Γ_n = φ_nᵀMr (mass-normalized φ), effective masses Γ_n², their ratios to

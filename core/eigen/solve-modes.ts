@@ -15,6 +15,7 @@ import {
 import { createShiftedPencil, type ShiftedPencil } from '../linalg/sparse-ldlt/shifted';
 import type { SymmetricFactorization, SymmetricMatrix } from '../linalg/types';
 import { denseEigensolver } from './dense-eigensolver';
+import type { DenseTeam } from './dense/team';
 import { forwardIteration } from './forward-iteration';
 import { inverseIteration } from './inverse-iteration';
 import { assessConditioning, estimateEigenvalueErrors, RIGID_BODY_THRESHOLD } from './conditioning';
@@ -345,6 +346,7 @@ export function solveModes(
     methodSturm:
       method === 'lanczos' && opts.shift === null ? (raw as LanczosResult).sturm : undefined,
     countBelow: (sigma) => sturmCount(K, M, sigma, sharedPencil),
+    ...(options.team ? { team: options.team } : {}),
   });
   return result;
 }
@@ -445,6 +447,8 @@ interface BuildContext {
   methodSturm: LanczosSturm | undefined;
   /** Eigenvalues below σ, on the method's pencil when there is one. */
   countBelow(sigma: number): number;
+  /** Threads the check of ΦᵀMΦ over many modes may share. */
+  team?: DenseTeam;
 }
 
 function buildResult(
@@ -475,7 +479,7 @@ function buildResult(
       history: raw.histories[k] ?? [],
     };
   });
-  const orthogonality = massOrthogonality(M, vectors);
+  const orthogonality = massOrthogonality(M, vectors, c.team);
   const parts = participation(M, vectors, c.influence);
 
   // conditioning: the worst case λ_max / λ_1 (λ_max ≥ max K_ii/M_ii, λ_1 the lowest flexible mode

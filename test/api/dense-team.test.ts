@@ -2,7 +2,13 @@
 // parts, the result is bitwise the one of the caller alone, and a solve's arrays are reused
 // zeroed for the next one.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { denseEigensolver, type MethodInput, solveModes } from '../../core/index';
+import {
+  denseEigensolver,
+  massOrthogonality,
+  type MethodInput,
+  solveModes,
+  symmetricMultiply,
+} from '../../core/index';
 import { backSubstitutePart } from '../../core/eigen/dense/reduction';
 import { createDenseTeam, type ThreadTeam } from '../../api/workers/dense-team';
 import { chain, chainLambda, input, randomPencil } from '../core/eigen/pencils';
@@ -82,5 +88,47 @@ describe('createDenseTeam', () => {
     team.run('backSubstitute', backSubstitutePart, 2, [L, first, Zs], [n, 0, 152, n]);
     expect(Zs.every((x) => x === 0.5)).toBe(true);
     team.release();
+  });
+});
+
+describe('massOrthogonality over many modes', () => {
+  it('is bitwise the same on the team as alone, agrees with every entry of ΦᵀMΦ formed plainly, and finds a planted defect', () => {
+    // 300 modes: the triangle of ΦᵀMΦ in two parts (SPLIT_MIN = 128), bands of 32 rows
+    const { K, M } = randomPencil(300, 5);
+    const r = solveModes(K, M, { method: 'dense', count: 300 });
+    const vectors = r.modes.map((m) => Float64Array.from(m.shape));
+    // mass-normalize (the shapes are scaled for display), then plant φ₁₀ += 1e-6 φ₂₀₀:
+    // (ΦᵀMΦ)(10, 200) becomes about 1e-6 (φ₂₀₀ᵀMφ₂₀₀ = 1), every other entry stays near rounding
+    for (const v of vectors) {
+      const mv = symmetricMultiply(M, v);
+      const s = Math.sqrt(v.reduce((a, x, i) => a + x * (mv[i] as number), 0));
+      for (let i = 0; i < v.length; i++) v[i] = (v[i] as number) / s;
+    }
+    const plainWorst = (vs: Float64Array[]): number => {
+      const mv = vs.map((v) => symmetricMultiply(M, v));
+      let w = 0;
+      for (let i = 0; i < vs.length; i++) {
+        for (let j = 0; j < vs.length; j++) {
+          let s = 0;
+          for (let k = 0; k < 300; k++) s += (vs[i]![k] as number) * (mv[j]![k] as number);
+          w = Math.max(w, Math.abs(s - (i === j ? 1 : 0)));
+        }
+      }
+      return w;
+    };
+    const alone = massOrthogonality(M, vectors);
+    const before = team.helperParts();
+    const shared = massOrthogonality(M, vectors, team);
+    expect(team.helperParts() - before).toBeGreaterThan(0);
+    expect(Object.is(alone, shared)).toBe(true);
+    const plain = plainWorst(vectors);
+    expect(alone).toBeLessThan(1e-12);
+    // the same figure up to the rounding of a sum taken in another order
+    expect(Math.abs(alone - plain)).toBeLessThan(1e-14);
+    const planted = vectors.map((v) => Float64Array.from(v));
+    for (let i = 0; i < 300; i++) planted[9]![i]! += 1e-6 * (vectors[199]![i] as number);
+    const found = massOrthogonality(M, planted, team);
+    expect(found / plainWorst(planted)).toBeCloseTo(1, 10);
+    expect(found).toBeCloseTo(1e-6, 9);
   });
 });

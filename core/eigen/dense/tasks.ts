@@ -3,6 +3,7 @@
  * caller runs a step's function directly and names it, and another thread looks the same
  * function up here.
  */
+import { orthogonalityPart } from './orthogonality';
 import { backSubstitutePart, congruenceLeftPart, congruenceRightPart } from './reduction';
 import { type DenseTask, transposePart } from './team';
 import { blockVectorsPart } from './tridiagonal-vectors';
@@ -13,6 +14,7 @@ export const DENSE_TASKS: Readonly<Record<string, DenseTask>> = {
   backTransform: backTransformPart,
   congruenceLeft: congruenceLeftPart,
   congruenceRight: congruenceRightPart,
+  orthogonality: orthogonalityPart,
   symmetricProduct: symmetricProductPart,
   trailingUpdate: trailingUpdatePart,
   transpose: transposePart,
