@@ -5,3 +5,4 @@
  */
 export { DENSE_TASKS } from './eigen/dense/tasks';
 export type { DenseTask, DenseTeam } from './eigen/dense/team';
+export { warmUpDenseSteps } from './eigen/dense/warm-up';

@@ -2,11 +2,13 @@
  * A helper thread of a `createDenseTeam` team (./dense-team.ts): waits on the shared control
  * block for a step, runs the parts it can claim with the engine's own task functions
  * (`DENSE_TASKS`), acknowledges the step and waits again. Its arrays arrive on its MessagePort.
+ * Once started it first runs a small solve of its own (`warmUpDenseSteps`), so that its first
+ * real steps run optimized code.
  */
 import v8 from 'node:v8';
 import vm from 'node:vm';
 import { receiveMessageOnPort, workerData } from 'node:worker_threads';
-import { DENSE_TASKS } from '../../core/threads';
+import { DENSE_TASKS, warmUpDenseSteps } from '../../core/threads';
 import { CONTROL, type HelperData, type HelperMessage, TASK_NAMES } from './dense-team';
 
 /** How long a helper spins for the next step before it sleeps, ms: steps of the reduction come
@@ -67,6 +69,12 @@ function runStep(): void {
 
 let seen = Atomics.load(control, CONTROL.generation);
 port.postMessage('ready');
+// Steps published meanwhile are run by the caller, which claims every part no thread has.
+try {
+  warmUpDenseSteps();
+} catch {
+  // only a warm-up: the steps themselves report their errors
+}
 for (;;) {
   let generation = Atomics.load(control, CONTROL.generation);
   if (generation === seen) {
