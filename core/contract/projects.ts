@@ -1,9 +1,8 @@
 // Projects and their members (/api/projects, /api/projects/:id/members).
 import { z } from 'zod';
-import { PROJECT_ROLES } from '../vocabulary';
-import { id, isoTime } from './common';
+import { id, isoTime, projectRole } from './common';
 
-export const projectRole = z.enum(PROJECT_ROLES);
+export { projectRole };
 
 export const project = z.strictObject({
   id,

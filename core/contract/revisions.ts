@@ -1,7 +1,7 @@
 // Revisions, their review and their seal (/api/sheets/:id/revisions, /api/revisions/:id…).
 import { z } from 'zod';
 import { REVISION_STATUSES } from '../vocabulary';
-import { id, isoTime, personRef } from './common';
+import { id, isoTime, personRef, projectRole } from './common';
 import { sheetBlock } from './sheets';
 
 export const revisionSummary = z.strictObject({
@@ -61,7 +61,7 @@ export const revisionDetail = revisionSummary.extend({
   digests: z.strictObject({ canonicalText: z.string(), results: z.string() }),
   engineVersion: z.string(),
   sheet: z.strictObject({ id, number: z.string(), title: z.string(), projectId: id }),
-  myRoles: z.array(z.string()),
+  myRoles: z.array(projectRole),
 });
 export type RevisionDetail = z.infer<typeof revisionDetail>;
 

@@ -2,7 +2,7 @@
 // /api/sheets/:id, /api/sheet-templates, /api/firm-templates).
 import { z } from 'zod';
 import { BLOCK_KINDS, SHEET_STATUSES } from '../vocabulary';
-import { id, isoTime, personRef } from './common';
+import { id, isoTime, personRef, projectRole } from './common';
 
 export const sheetBlock = z.strictObject({
   id: z.string().min(1),
@@ -46,7 +46,7 @@ export const sheetDetail = sheetSummary.extend({
   draft: sheetDraft,
   projectJobNumber: z.string(),
   projectName: z.string(),
-  myRoles: z.array(z.string()),
+  myRoles: z.array(projectRole),
   /** True for a viewer: the draft is withheld (its blocks empty); the revisions are theirs to read. */
   draftHidden: z.boolean().optional(),
 });

@@ -210,9 +210,8 @@ describe('review and seal, the whole flow (browser)', () => {
     await form.getByRole('button', { name: 'Seal Rev 2' }).click();
     await form.getByText('The password is not right').waitFor();
     // The principal states what the revision is sealed for (the checker left the issue's).
-    await form
-      .getByLabel('Sealed for (leave empty to keep “For check, mass stated”)')
-      .fill('For construction');
+    await form.getByText('Leave empty to keep “For check, mass stated”.').waitFor();
+    await form.getByLabel('Sealed for').fill('For construction');
     await form.getByLabel('Your password').fill(DEMO_PASSWORD);
     await saveScreenshot(page, 'review-6a-seal-form');
     // The form keeps to a 390 px phone screen: nothing wider than the page.

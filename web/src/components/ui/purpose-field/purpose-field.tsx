@@ -1,8 +1,8 @@
-import { useId } from 'react';
+import { TextField } from '../text-field';
 
 /**
  * The optional purpose a checker or principal states for a revision ("For construction"); empty
- * keeps the one it has, which the label names.
+ * keeps the one it has, which the hint names. Laid out as every other field of the form.
  */
 export function PurposeField({
   label,
@@ -17,20 +17,15 @@ export function PurposeField({
   value: string;
   onChange: (value: string) => void;
 }) {
-  const id = useId();
   return (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={id} className="text-xs font-medium">
-        {label} (leave empty to keep “{current}”)
-      </label>
-      <input
-        id={id}
-        value={value}
-        onChange={(e) => onChange(e.target.value)}
-        placeholder="For construction"
-        maxLength={500}
-        className="rounded-sm border border-rule-strong bg-paper-sheet px-2 py-1 text-sm"
-      />
-    </div>
+    <TextField
+      label={label}
+      name="purpose"
+      hint={`Leave empty to keep “${current}”.`}
+      value={value}
+      onChange={(e) => onChange(e.target.value)}
+      placeholder="For construction"
+      maxLength={500}
+    />
   );
 }
