@@ -20,10 +20,8 @@ import { basename } from 'node:path';
 import { parseArgs } from 'node:util';
 import { createDenseTeam, type ThreadTeam } from '../api/workers/dense-team';
 import {
-  AUTO_DENSE_LIMIT,
   DENSE_PARTS,
   isEngineError,
-  matrixSize,
   parseMatrixMarket,
   readSpectrumTable,
   readSymmetricMatrix,
@@ -164,13 +162,14 @@ function fmt(x: number, digits = 6): string {
 
 /**
  * Threads for the dense method's heavy steps, one per core up to its parts, as the evaluation
- * workers have them (api/workers/dense-team.ts). Started while the files are read; null when
- * they cannot start, and the solve runs on this thread alone with the same result.
+ * workers have them (api/workers/dense-team.ts); started while the files are read. Only for
+ * `--method dense`: `auto` sends only models of up to 400 DOFs there (AUTO_DENSE_LIMIT), solved in a
+ * fraction of the time a thread takes to start. Null when they cannot start: the solve then runs
+ * on this thread alone, with the same result.
  */
-function startTeam(method: string | undefined, shift: boolean): Promise<ThreadTeam | null> | null {
-  const dense = method === 'dense' || ((method === undefined || method === 'auto') && !shift);
+function startTeam(method: string | undefined): Promise<ThreadTeam | null> | null {
   const helpers = Math.min(availableParallelism(), DENSE_PARTS) - 1;
-  if (!dense || helpers < 1) return null;
+  if (method !== 'dense' || helpers < 1) return null;
   return createDenseTeam(helpers).catch(() => null);
 }
 
@@ -203,7 +202,7 @@ async function main(argv: string[]): Promise<number> {
     throw new UsageError('both --stiffness and --mass are required.');
   const response = responseFlags(values);
   const started = performance.now();
-  const starting = startTeam(values.method, values['shift-hz'] !== undefined);
+  const starting = startTeam(values.method);
   const K = readMatrix(values.stiffness, 'stiffness');
   const M = readMatrix(values.mass, 'mass');
   const options: SolveOptions = {};
@@ -219,11 +218,7 @@ async function main(argv: string[]): Promise<number> {
   const seed = numberArg(values.seed, 'seed', true);
   if (seed !== undefined) options.seed = seed;
   if (response) options.normalize = 'mass';
-  // auto sends only small models to the dense method
-  const team =
-    starting && (values.method === 'dense' || matrixSize(K) <= AUTO_DENSE_LIMIT)
-      ? await starting
-      : null;
+  const team = starting ? await starting : null;
   if (team) options.team = team;
   let r: ModalResult;
   try {
