@@ -10,6 +10,7 @@
 //   dist/server/job-worker.js           api/workers/job-worker.ts (a worker process: npm run worker)
 //   dist/server/evaluate.worker.js      api/workers/evaluate.worker.ts (its evaluation thread)
 //   dist/server/dense-helper.worker.js  api/workers/dense-helper.worker.ts (dense solver threads)
+//   dist/server/read-matrix.worker.js   api/workers/read-matrix.worker.ts (the solve command's reader)
 //   dist/server/solve.js                scripts/solve.ts (the engine from the command line)
 // Packages stay external (imported from node_modules at run time).
 import { readdirSync, statSync, writeFileSync, existsSync, mkdirSync } from 'node:fs';
@@ -27,6 +28,7 @@ const entryPoints = {
   'evaluate.worker': 'api/workers/evaluate.worker.ts',
   'job-worker': 'api/workers/job-worker.ts',
   'dense-helper.worker': 'api/workers/dense-helper.worker.ts',
+  'read-matrix.worker': 'api/workers/read-matrix.worker.ts',
   solve: 'scripts/solve.ts',
 };
 const sourceDirs = ['api', 'core'];

@@ -14,14 +14,17 @@
  * with --json one object (`threads`: the threads the dense method shared its heavy steps with,
  * one per core up to its parts). Errors go to stderr with exit code 1 (2 for a wrong command line).
  */
-import { readFileSync } from 'node:fs';
+import { readFileSync, statSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { basename } from 'node:path';
 import { parseArgs } from 'node:util';
 import v8 from 'node:v8';
 import { createDenseTeam, type ThreadTeam } from '../api/workers/dense-team';
+import { engineThread } from '../api/workers/engine-thread';
+import type { ReadMatrixReply, ReadMatrixRequest } from '../api/workers/read-matrix.worker';
 import {
   DENSE_PARTS,
+  EngineError,
   isEngineError,
   parseMatrixMarket,
   readSpectrumTable,
@@ -30,7 +33,13 @@ import {
   spectrumAnalysis,
   tableSpectrum,
 } from '../core/engine';
-import type { MethodName, ModalResult, SolveOptions } from '../core/engine';
+import type {
+  EngineErrorCode,
+  MethodName,
+  ModalResult,
+  SolveOptions,
+  SymmetricMatrix,
+} from '../core/engine';
 
 const USAGE =
   'usage: solve --stiffness K.mtx --mass M.mtx [--count N] [--method auto|inverse|forward|shifted|dense|subspace|lanczos] [--shift-hz F] [--tolerance T] [--max-iterations I] [--seed S] [--json] [--spectrum S.csv --damping 0.05 --combine srss|cqc [--influence r.mtx]]';
@@ -56,12 +65,50 @@ function readText(path: string, what: string): string {
   }
 }
 
-function readMatrix(path: string, what: string) {
+function readMatrix(path: string, what: string): SymmetricMatrix {
   const text = readText(path, what);
   return readSymmetricMatrix(text, {
     name: basename(path),
     format: /\.csv$/i.test(path) ? 'csv' : 'auto',
   });
+}
+
+/** Files from this size on are read in a thread beside the caller's own reading. */
+const THREAD_READ_BYTES = 4 * 1024 * 1024;
+
+/**
+ * Reads a matrix file in a thread of its own (api/workers/read-matrix.worker.ts) when it is
+ * large, so that it is parsed while this thread parses the other; otherwise here, when awaited.
+ * Errors are the same as `readMatrix`'s.
+ */
+function readMatrixBeside(path: string, what: string): () => Promise<SymmetricMatrix> {
+  let size = 0;
+  try {
+    size = statSync(path).size;
+  } catch {
+    // unreadable: readMatrix says so, in its words
+  }
+  if (size < THREAD_READ_BYTES) return async () => readMatrix(path, what);
+  const request: ReadMatrixRequest = {
+    path,
+    name: basename(path),
+    format: /\.csv$/i.test(path) ? 'csv' : 'auto',
+  };
+  const thread = engineThread('read-matrix', { workerData: request });
+  // an error of the other file ends the command without waiting for this one
+  thread.unref();
+  const reply = new Promise<ReadMatrixReply>((resolve, reject) => {
+    thread.once('message', resolve);
+    thread.once('error', reject);
+  });
+  return async () => {
+    const r = await reply;
+    if (r.ok) return r.matrix;
+    if (r.kind === 'file')
+      throw new UsageError(`cannot read the ${what} file '${path}': ${r.message}`);
+    if (r.kind === 'engine') throw new EngineError(r.code as EngineErrorCode, r.message, r.details);
+    throw new Error(r.message);
+  };
 }
 
 /** An influence vector from a Matrix Market or CSV file with one column (or one row). */
@@ -209,8 +256,9 @@ async function main(argv: string[]): Promise<number> {
   const response = responseFlags(values);
   const started = performance.now();
   const starting = startTeam(values.method);
+  const mass = readMatrixBeside(values.mass, 'mass');
   const K = readMatrix(values.stiffness, 'stiffness');
-  const M = readMatrix(values.mass, 'mass');
+  const M = await mass();
   const options: SolveOptions = {};
   const count = numberArg(values.count, 'count', true);
   if (count !== undefined) options.count = count;

@@ -21,19 +21,15 @@
  * Parts are claimed first come first served; which thread runs a part does not change its
  * arithmetic, so the result is the same bit for bit as without a team.
  */
-import { readFileSync } from 'node:fs';
-import { createRequire } from 'node:module';
-import { dirname, join } from 'node:path';
-import { pathToFileURL } from 'node:url';
 import {
   MessageChannel,
   type MessagePort,
   receiveMessageOnPort,
-  Worker,
-  type WorkerOptions,
+  type Worker,
 } from 'node:worker_threads';
 // the engine's entry for helper threads (not core/index): a helper need not load the sheet engine
 import { DENSE_TASKS, type DenseTask, type DenseTeam } from '../../core/threads';
+import { engineThread } from './engine-thread';
 
 /** Control block slots (Int32Array indices). */
 export const CONTROL = {
@@ -79,33 +75,6 @@ export interface ThreadTeam extends DenseTeam {
   close(): Promise<void>;
 }
 
-/** Compiled (the helper beside this bundle in dist/server/) or from source through tsx. */
-const COMPILED = import.meta.url.endsWith('.js');
-const HELPER_FILE = new URL(
-  COMPILED ? './dense-helper.worker.js' : './dense-helper.worker.ts',
-  import.meta.url,
-).href;
-/** tsx's ESM API entry, from its package's export map (`import.meta.resolve` trips tsx itself). */
-function tsxApi(): string {
-  const require = createRequire(import.meta.url);
-  const manifest = require.resolve('tsx/package.json');
-  const pkg = JSON.parse(readFileSync(manifest, 'utf8')) as {
-    exports: Record<string, { import: { default: string } }>;
-  };
-  return pathToFileURL(join(dirname(manifest), pkg.exports['./esm/api']!.import.default)).href;
-}
-
-/**
- * The helper thread's code: the compiled file itself, or, from source, a one-line entry that
- * registers tsx's loader in the new thread (a worker does not take `--import tsx` from
- * execArgv), then imports the TypeScript file.
- */
-function helperWorker(options: WorkerOptions): Worker {
-  if (COMPILED) return new Worker(new URL(HELPER_FILE), options);
-  const entry = `import(${JSON.stringify(tsxApi())}).then((tsx) => { tsx.register(); return import(${JSON.stringify(HELPER_FILE)}); });`;
-  return new Worker(entry, { ...options, eval: true });
-}
-
 /**
  * Bytes of free buffers a team keeps between solves for the next one (a solve at n = 1000 uses
  * about 42 MB); beyond it they are given back.
@@ -141,7 +110,7 @@ export async function createDenseTeam(helpers: number): Promise<ThreadTeam> {
           port: port2,
           index,
         };
-        const worker = helperWorker({ workerData: data, transferList: [port2] });
+        const worker = engineThread('dense-helper', { workerData: data, transferList: [port2] });
         workers.push(worker);
         ports.push(port1);
         await new Promise<void>((resolve, reject) => {
