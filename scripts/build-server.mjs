@@ -12,7 +12,8 @@
 //   dist/server/dense-helper.worker.js  api/workers/dense-helper.worker.ts (dense solver threads)
 //   dist/server/read-matrix.worker.js   api/workers/read-matrix.worker.ts (the solve command's reader)
 //   dist/server/solve.js                scripts/solve.ts (the engine from the command line)
-// Packages stay external (imported from node_modules at run time).
+// Packages stay external (imported from node_modules at run time). scripts/solve.sh (npm run
+// solve) applies the same staleness rule with find; change both together.
 import { readdirSync, statSync, writeFileSync, existsSync, mkdirSync } from 'node:fs';
 import path from 'node:path';
 import { build } from 'esbuild';
