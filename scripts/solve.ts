@@ -24,6 +24,8 @@ import { engineThread } from '../api/workers/engine-thread';
 import type { ReadMatrixReply, ReadMatrixRequest } from '../api/workers/read-matrix.worker';
 import {
   DENSE_PARTS,
+  matrixSize,
+  SPLIT_MIN,
   EngineError,
   isEngineError,
   parseMatrixMarket,
@@ -210,14 +212,15 @@ function fmt(x: number, digits = 6): string {
 
 /**
  * Threads for the dense method's heavy steps, one per core up to its parts, as the evaluation
- * workers have them (api/workers/dense-team.ts); started while the files are read. Only for
- * `--method dense`: `auto` sends only models of up to 400 DOFs there (AUTO_DENSE_LIMIT), solved in a
- * fraction of the time a thread takes to start. Null when they cannot start: the solve then runs
- * on this thread alone, with the same result.
+ * workers have them (api/workers/dense-team.ts); started once K is read, while M is. Only for
+ * `--method dense` on models large enough that its steps are cut into parts (2 · SPLIT_MIN DOFs):
+ * below that, and under `auto` (dense only up to AUTO_DENSE_LIMIT = 400 DOFs), the solve takes
+ * less time than a thread takes to start and warm up. Null when they cannot start: the solve then
+ * runs on this thread alone, with the same result.
  */
-function startTeam(method: string | undefined): Promise<ThreadTeam | null> | null {
+function startTeam(method: string | undefined, n: number): Promise<ThreadTeam | null> | null {
   const helpers = Math.min(availableParallelism(), DENSE_PARTS) - 1;
-  if (method !== 'dense' || helpers < 1) return null;
+  if (method !== 'dense' || n < 2 * SPLIT_MIN || helpers < 1) return null;
   // With every core solving, V8's background compiler waits for a free core while the solve runs
   // unoptimized code; compiling on the thread that needs the code is faster here (measured on the
   // 2-core development machine: a 1000-DOF plate 2.5 s to 1.8 s, a 2000-DOF one 6.5 s to 6.0 s;
@@ -255,9 +258,9 @@ async function main(argv: string[]): Promise<number> {
     throw new UsageError('both --stiffness and --mass are required.');
   const response = responseFlags(values);
   const started = performance.now();
-  const starting = startTeam(values.method);
   const mass = readMatrixBeside(values.mass, 'mass');
   const K = readMatrix(values.stiffness, 'stiffness');
+  const starting = startTeam(values.method, matrixSize(K));
   const M = await mass();
   const options: SolveOptions = {};
   const count = numberArg(values.count, 'count', true);
