@@ -31,12 +31,15 @@ const SLICE = 128;
 export function orthogonalityWorst(
   vectors: readonly Float64Array[],
   product: (v: Float64Array) => Float64Array,
-  team: DenseTeam = SERIAL_TEAM,
+  threads: DenseTeam = SERIAL_TEAM,
 ): number {
   const p = vectors.length;
   if (p === 0) return 0;
   const n = (vectors[0] as Float64Array).length;
   const parts = p >= 2 * SPLIT_MIN ? DENSE_PARTS : 1;
+  // One part (a few dozen modes of a large model, from Lanczos) runs here: its arrays need not be
+  // shared with, and held by, the team's other threads.
+  const team = parts > 1 ? threads : SERIAL_TEAM;
   // Φ row by row (row i = φ_i) and MΦ column by column (row k = component k of every Mφ_j)
   try {
     const A = team.shared(p * n);
