@@ -117,10 +117,13 @@ describe('massOrthogonality over many modes', () => {
       return w;
     };
     const alone = massOrthogonality(M, vectors);
+    // parts go first come first served: on a loaded machine the caller may take both before a
+    // sleeping helper wakes, so the check is repeated (each time bitwise the same) until it has
     const before = team.helperParts();
-    const shared = massOrthogonality(M, vectors, team);
+    for (let k = 0; k < 10 && team.helperParts() === before; k++) {
+      expect(Object.is(alone, massOrthogonality(M, vectors, team))).toBe(true);
+    }
     expect(team.helperParts() - before).toBeGreaterThan(0);
-    expect(Object.is(alone, shared)).toBe(true);
     const plain = plainWorst(vectors);
     expect(alone).toBeLessThan(1e-12);
     // the same figure up to the rounding of a sum taken in another order
